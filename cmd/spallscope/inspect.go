@@ -1,0 +1,80 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"text/tabwriter"
+
+	"github.com/spf13/cobra"
+
+	"spallscope/dic/frames"
+)
+
+func newInspectCmd() *cobra.Command {
+	var (
+		timesCSV string
+		fps      float64
+		mtime    bool
+	)
+	cmd := &cobra.Command{
+		Use:   "inspect SOURCE",
+		Short: "Check that every frame of a photo sequence or video decodes, with sizes, depth, exposure and times",
+		Long: `inspect opens a sequence the way the tracker will and decodes every frame:
+SOURCE is a folder of images, a glob in quotes ("cam1/*.tif"), a list file
+(.txt/.lst, one path per line) or a video (.mp4/.avi/...). Frames are sorted in
+natural order (f_2 before f_10). It prints each frame's size, bit depth, gray
+levels and clipped fractions, and its time when a rule is given, and lists
+every frame that fails instead of stopping at the first.`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			seq, err := frames.Open(args[0])
+			if err != nil {
+				return err
+			}
+			defer seq.Close()
+			var times []float64
+			switch {
+			case timesCSV != "":
+				times, err = frames.ReadTimes(timesCSV, seq)
+			case fps > 0:
+				times, err = frames.FixedRate(seq.Len(), fps, 0)
+			case mtime:
+				times, err = frames.ModTimes(seq)
+			default:
+				if r, ok := frames.VideoFPS(seq); ok {
+					times, err = frames.FixedRate(seq.Len(), r, 0)
+				}
+			}
+			if err != nil {
+				return err
+			}
+			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
+			fmt.Fprintln(w, "frame\tname\tsize\tdepth\tmin\tmean\tmax\tsaturated\tdark\ttime_s")
+			var bad []error
+			for i := 0; i < seq.Len(); i++ {
+				img, err := seq.Read(i)
+				if err != nil {
+					bad = append(bad, err)
+					fmt.Fprintf(w, "%d\t%s\tERROR\n", i, seq.Name(i))
+					continue
+				}
+				st := frames.Describe(img)
+				t := "-"
+				if times != nil {
+					t = fmt.Sprintf("%.3f", times[i])
+				}
+				fmt.Fprintf(w, "%d\t%s\t%dx%d\t%d\t%.0f\t%.1f\t%.0f\t%.2f%%\t%.2f%%\t%s\n", i, seq.Name(i),
+					img.Width, img.Height, img.Depth, st.Min, st.Mean, st.Max, 100*st.Saturated, 100*st.Dark, t)
+			}
+			w.Flush()
+			if len(bad) > 0 {
+				return fmt.Errorf("%d of %d frames failed:\n%w", len(bad), seq.Len(), errors.Join(bad...))
+			}
+			return nil
+		},
+	}
+	cmd.Flags().StringVar(&timesCSV, "times", "", "CSV of frame times with columns frame,time_s")
+	cmd.Flags().Float64Var(&fps, "fps", 0, "frames per second (fixed rate)")
+	cmd.Flags().BoolVar(&mtime, "mtime", false, "take frame times from file modification times")
+	return cmd
+}

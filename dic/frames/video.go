@@ -1,0 +1,114 @@
+package frames
+
+import (
+	"fmt"
+
+	"gocv.io/x/gocv"
+
+	"spallscope/subset"
+)
+
+// videoSequence reads frames of a video file through OpenCV. Reading is
+// sequential; asking for an earlier frame reopens the file, a later one
+// skips ahead, so in-order streaming is fast and random access works.
+type videoSequence struct {
+	path   string
+	n      int
+	fps    float64
+	cap    *gocv.VideoCapture
+	next   int // index of the frame the next Read of cap returns
+	mat    gocv.Mat
+	size   frameSize
+	digits int
+}
+
+func openVideo(path string) (Sequence, error) {
+	v := &videoSequence{path: path, mat: gocv.NewMat()}
+	// The container's frame count is not always right, so count by grabbing.
+	if err := v.reopen(); err != nil {
+		v.mat.Close()
+		return nil, err
+	}
+	v.fps = v.cap.Get(gocv.VideoCaptureFPS)
+	for v.cap.Read(&v.mat) && !v.mat.Empty() {
+		v.n++
+	}
+	if v.n == 0 {
+		v.Close()
+		return nil, fmt.Errorf("open sequence: video %s has no decodable frames", path)
+	}
+	v.digits = len(fmt.Sprint(v.n - 1))
+	if v.digits < 4 {
+		v.digits = 4
+	}
+	if err := v.reopen(); err != nil {
+		v.mat.Close()
+		return nil, err
+	}
+	return v, nil
+}
+
+func (v *videoSequence) reopen() error {
+	if v.cap != nil {
+		v.cap.Close()
+	}
+	c, err := gocv.VideoCaptureFile(v.path)
+	if err != nil || !c.IsOpened() {
+		return fmt.Errorf("open sequence: cannot open video %s (corrupt file or no decoder for its codec)", v.path)
+	}
+	v.cap, v.next = c, 0
+	return nil
+}
+
+// FPS is the frame rate the video container states (0 if it states none).
+func (v *videoSequence) FPS() float64      { return v.fps }
+func (v *videoSequence) Len() int          { return v.n }
+func (v *videoSequence) Name(i int) string { return fmt.Sprintf("%0*d", v.digits, i) }
+func (v *videoSequence) Source(i int) string {
+	return fmt.Sprintf("%s#%d", v.path, i)
+}
+func (v *videoSequence) ExpectSize(w, h int) { v.size.set(w, h) }
+
+func (v *videoSequence) Read(i int) (*subset.Image, error) {
+	if i < 0 || i >= v.n {
+		return nil, fmt.Errorf("frame %d: out of range (video %s has %d frames)", i, v.path, v.n)
+	}
+	if i < v.next {
+		if err := v.reopen(); err != nil {
+			return nil, fmt.Errorf("frame %d: %w", i, err)
+		}
+	}
+	for v.next <= i {
+		if !v.cap.Read(&v.mat) || v.mat.Empty() {
+			return nil, fmt.Errorf("frame %d (%s): cannot decode video frame", i, v.Source(i))
+		}
+		v.next++
+	}
+	img, err := FromMat(v.mat)
+	if err != nil {
+		return nil, fmt.Errorf("frame %d (%s): %w", i, v.Source(i), err)
+	}
+	if err := v.size.check(img, i, v.Source(i)); err != nil {
+		return nil, err
+	}
+	return img, nil
+}
+
+func (v *videoSequence) Close() error {
+	if v.cap != nil {
+		v.cap.Close()
+		v.cap = nil
+	}
+	v.mat.Close()
+	return nil
+}
+
+// VideoFPS returns the frame rate stated by a video sequence's container,
+// and false for sequences that are not video or state no rate.
+func VideoFPS(s Sequence) (float64, bool) {
+	v, ok := s.(*videoSequence)
+	if !ok || v.fps <= 0 {
+		return 0, false
+	}
+	return v.fps, true
+}
