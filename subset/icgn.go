@@ -1,0 +1,350 @@
+package subset
+
+import (
+	"fmt"
+	"math"
+)
+
+// Defaults used for zero Config fields.
+const (
+	DefaultMaxIterations    = 50
+	DefaultTolerance        = 1e-3
+	DefaultMinValidFraction = 0.75
+	DefaultMaxZNSSD         = 1.0
+)
+
+// Config sets up a Solver. Zero fields take the documented defaults.
+type Config struct {
+	// Radius is the subset half-size in pixels: subsets are square with
+	// 2·Radius+1 pixels on a side. It must be at least 1.
+	Radius int
+	// Order is the shape function.
+	Order ShapeOrder
+	// MaxIterations bounds the Gauss–Newton iterations (default 50).
+	MaxIterations int
+	// Tolerance is the convergence threshold in pixels (default 1e-3): the
+	// iteration stops when an update moves every subset corner by less.
+	Tolerance float64
+	// MinValidFraction is the smallest fraction of subset pixels that must
+	// lie inside the mask (default 0.75); below it the status is Masked.
+	MinValidFraction float64
+	// MinSSSIG is the low-texture gate: a reference subset whose SSSIG
+	// (the smaller directional sum, see SSSIG) over its valid pixels is
+	// below it is LowTexture. 0 disables the gate.
+	MinSSSIG float64
+	// MaxZNSSD is the correlation gate: a converged subset whose ZNSSD
+	// exceeds it is Lost (default 1.0, that is ZNCC below 0.5; common
+	// practice, no source). A negative value disables the gate.
+	MaxZNSSD float64
+}
+
+// withDefaults returns c with zero fields replaced by their defaults.
+func (c Config) withDefaults() Config {
+	if c.MaxIterations == 0 {
+		c.MaxIterations = DefaultMaxIterations
+	}
+	if c.Tolerance == 0 {
+		c.Tolerance = DefaultTolerance
+	}
+	if c.MinValidFraction == 0 {
+		c.MinValidFraction = DefaultMinValidFraction
+	}
+	if c.MaxZNSSD == 0 {
+		c.MaxZNSSD = DefaultMaxZNSSD
+	}
+	return c
+}
+
+// Validate reports the first field of c that NewSolver would reject.
+func (c Config) Validate() error {
+	switch {
+	case c.Radius < 1:
+		return fmt.Errorf("subset: radius %d, want at least 1", c.Radius)
+	case c.Order != Affine && c.Order != Quadratic:
+		return fmt.Errorf("subset: unknown shape order %d", int(c.Order))
+	case c.MaxIterations < 0:
+		return fmt.Errorf("subset: max iterations %d, want at least 0", c.MaxIterations)
+	case !(c.Tolerance >= 0) || math.IsInf(c.Tolerance, 0):
+		return fmt.Errorf("subset: tolerance %g px, want finite and at least 0", c.Tolerance)
+	case !(c.MinValidFraction >= 0 && c.MinValidFraction <= 1):
+		return fmt.Errorf("subset: min valid fraction %g, want 0…1", c.MinValidFraction)
+	case !(c.MinSSSIG >= 0):
+		return fmt.Errorf("subset: min SSSIG %g, want at least 0", c.MinSSSIG)
+	case math.IsNaN(c.MaxZNSSD):
+		return fmt.Errorf("subset: max ZNSSD is NaN")
+	}
+	return nil
+}
+
+// Result is the outcome of measuring one subset.
+type Result struct {
+	// P is the final shape estimate, or the guess if no iteration ran.
+	P Params
+	// ZNCC is the zero-normalized cross-correlation of the last evaluated
+	// warp, 0 if none was evaluated. On convergence it differs from that of
+	// P by an amount of the order of the tolerance.
+	ZNCC float64
+	// Iterations is the number of Gauss–Newton updates computed.
+	Iterations int
+	Status     Status
+}
+
+// Solver measures subsets by the inverse compositional Gauss–Newton
+// (IC-GN) algorithm with the ZNSSD criterion (Baker & Matthews 2004,
+// "Lucas–Kanade 20 years on: a unifying framework", IJCV 56(3):221–255;
+// Pan, Li & Tong 2013, "Fast, robust and accurate digital image
+// correlation calculation without redundant computations", Experimental
+// Mechanics 53:1277–1289).
+//
+// The reference subset's intensities, gradients, steepest-descent images
+// and Hessian are computed once (Prepare); each iteration then only
+// samples the deformed image at the warped pixel positions, so an
+// iteration costs one interpolation and a few multiply-adds per pixel.
+//
+// A Solver owns all its scratch memory and does not allocate after
+// NewSolver. It is not safe for concurrent use: use one Solver per
+// goroutine.
+type Solver struct {
+	cfg Config
+	np  int // number of shape parameters
+
+	// The prepared reference subset.
+	ref    *Spline
+	status Status // outcome of the last Prepare
+	cx, cy float64
+	n      int       // valid pixels
+	offset []float64 // 2n local offsets (dx, dy)
+	fc     []float64 // n reference values minus fMean
+	jac    []float64 // n×np steepest-descent images
+	fMean  float64
+	fNorm  float64 // ‖f - f̄‖
+	sumJ   [12]float64
+	sumJf  [12]float64  // Σ J·(f - f̄)
+	chol   [144]float64 // Cholesky factor of the Hessian, leading np×np
+	scale  [12]float64  // parameter scales for the rank test
+}
+
+// NewSolver returns a Solver for cfg. It panics if cfg.Validate fails.
+func NewSolver(cfg Config) *Solver {
+	if err := cfg.Validate(); err != nil {
+		panic(err)
+	}
+	cfg = cfg.withDefaults()
+	side := 2*cfg.Radius + 1
+	np := cfg.Order.NumParams()
+	s := &Solver{
+		cfg:    cfg,
+		np:     np,
+		offset: make([]float64, 2*side*side),
+		fc:     make([]float64, side*side),
+		jac:    make([]float64, np*side*side),
+	}
+	r := float64(cfg.Radius)
+	s.scale = [12]float64{1, r, r, 1, r, r, r * r / 2, r * r, r * r / 2, r * r / 2, r * r, r * r / 2}
+	return s
+}
+
+// Config returns the solver's configuration with defaults filled in.
+func (s *Solver) Config() Config { return s.cfg }
+
+// Solve measures the subset centred on reference pixel (x, y) in the
+// deformed image def, starting from guess. mask is nil or holds one byte
+// per reference pixel, row-major; pixels where it is zero are left out of
+// the subset. Solve is Prepare followed by Iterate.
+func (s *Solver) Solve(ref, def *Spline, mask []uint8, x, y int, guess Params) Result {
+	s.Prepare(ref, mask, x, y)
+	return s.Iterate(def, guess)
+}
+
+// Prepare computes the reference-side quantities of the subset centred on
+// pixel (x, y) of ref, for use by any number of following Iterate calls.
+// It returns Converged if the subset can be tracked (read: ready), else
+// OutOfImage, Masked or LowTexture. It panics if mask is neither nil nor
+// of the reference image's size.
+func (s *Solver) Prepare(ref *Spline, mask []uint8, x, y int) Status {
+	if mask != nil && len(mask) != ref.width*ref.height {
+		panic(fmt.Sprintf("subset: mask has %d entries for a %dx%d reference", len(mask), ref.width, ref.height))
+	}
+	s.ref = ref
+	s.status = s.prepare(ref, mask, x, y)
+	return s.status
+}
+
+func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
+	r := s.cfg.Radius
+	if x-r < 0 || y-r < 0 || x+r > ref.width-1 || y+r > ref.height-1 {
+		return OutOfImage
+	}
+	s.cx, s.cy = float64(x), float64(y)
+
+	// Intensities and gradients at the valid pixel centres; the
+	// steepest-descent images are filled in once the mean is known.
+	n := 0
+	var sum, sx, sy float64
+	for j := y - r; j <= y+r; j++ {
+		for i := x - r; i <= x+r; i++ {
+			if mask != nil && mask[j*ref.width+i] == 0 {
+				continue
+			}
+			v, gx, gy := ref.ValueGrad(float64(i), float64(j))
+			s.offset[2*n], s.offset[2*n+1] = float64(i-x), float64(j-y)
+			s.fc[n] = v
+			jac := s.jac[n*s.np : (n+1)*s.np]
+			jac[0], jac[3] = gx, gy // completed below
+			sum += v
+			sx += gx * gx
+			sy += gy * gy
+			n++
+		}
+	}
+	side := 2*r + 1
+	if float64(n) < s.cfg.MinValidFraction*float64(side*side) || n <= s.np {
+		return Masked
+	}
+	s.n = n
+	s.fMean = sum / float64(n)
+	var sff float64
+	for k := 0; k < n; k++ {
+		s.fc[k] -= s.fMean
+		sff += s.fc[k] * s.fc[k]
+	}
+	s.fNorm = math.Sqrt(sff)
+	// A subset is flat when its standard deviation is below 1e-6 of its
+	// mean level (or of one gray level): spline rounding, not texture.
+	if s.fNorm <= 1e-6*math.Max(1, math.Abs(s.fMean))*math.Sqrt(float64(n)) {
+		return LowTexture
+	}
+	if s.cfg.MinSSSIG > 0 && math.Min(sx, sy) < s.cfg.MinSSSIG {
+		return LowTexture
+	}
+
+	// Steepest-descent images J = ∇f·∂W/∂p at p = 0, their sums and the
+	// Gauss–Newton Hessian H = Σ J·Jᵀ (Pan, Li & Tong 2013).
+	s.sumJ, s.sumJf = [12]float64{}, [12]float64{}
+	h := &s.chol
+	*h = [144]float64{}
+	np := s.np
+	for k := 0; k < n; k++ {
+		dx, dy := s.offset[2*k], s.offset[2*k+1]
+		jac := s.jac[k*np : (k+1)*np]
+		gx, gy := jac[0], jac[3]
+		jac[1], jac[2] = gx*dx, gx*dy
+		jac[4], jac[5] = gy*dx, gy*dy
+		if np == 12 {
+			xx, xy, yy := 0.5*dx*dx, dx*dy, 0.5*dy*dy
+			jac[6], jac[7], jac[8] = gx*xx, gx*xy, gx*yy
+			jac[9], jac[10], jac[11] = gy*xx, gy*xy, gy*yy
+		}
+		f := s.fc[k]
+		for a, ja := range jac {
+			s.sumJ[a] += ja
+			s.sumJf[a] += ja * f
+			lower := jac[:a+1]
+			row := h[12*a : 12*a+len(lower)]
+			for b, jb := range lower {
+				row[b] += ja * jb
+			}
+		}
+	}
+	if !choleskyFactor(h, np, &s.scale) {
+		return LowTexture
+	}
+	return Converged
+}
+
+// Iterate runs the IC-GN iterations for the subset of the last Prepare
+// against the deformed image def, starting from guess (quadratic entries
+// are ignored for the Affine order). If the last Prepare did not return
+// Converged, Iterate returns its status with P = guess. Iterate panics if
+// Prepare was never called.
+func (s *Solver) Iterate(def *Spline, guess Params) Result {
+	if s.ref == nil {
+		panic("subset: Iterate before Prepare")
+	}
+	if s.cfg.Order == Affine {
+		for i := 6; i < 12; i++ {
+			guess[i] = 0
+		}
+	}
+	res := Result{P: guess, Status: s.status}
+	if s.status != Converged {
+		return res
+	}
+	np, n := s.np, s.n
+	quad := s.cfg.Order == Quadratic
+	maxX, maxY := float64(def.width-1), float64(def.height-1)
+	drift := float64(s.cfg.Radius)
+	p := guess
+	res.Status = Diverged
+	if !p.IsFinite() {
+		return res
+	}
+	for it := 1; it <= s.cfg.MaxIterations; it++ {
+		// Sample the deformed subset and accumulate, in one pass, the sums
+		// that give its mean, its norm, the ZNSSD and the right-hand side
+		// Σ J·[(f - f̄) - (‖f - f̄‖/‖g - ḡ‖)(g - ḡ)]. Gray levels are
+		// offset by the reference mean to keep the sums well conditioned.
+		var sg, sgg, sfg float64
+		var sJg [12]float64
+		for k := 0; k < n; k++ {
+			dx, dy := s.offset[2*k], s.offset[2*k+1]
+			wx := s.cx + dx + p[PU] + p[PUx]*dx + p[PUy]*dy
+			wy := s.cy + dy + p[PV] + p[PVx]*dx + p[PVy]*dy
+			if quad {
+				xx, xy, yy := 0.5*dx*dx, dx*dy, 0.5*dy*dy
+				wx += p[PUxx]*xx + p[PUxy]*xy + p[PUyy]*yy
+				wy += p[PVxx]*xx + p[PVxy]*xy + p[PVyy]*yy
+			}
+			if !(wx >= 0 && wy >= 0 && wx <= maxX && wy <= maxY) {
+				res.Status = OutOfImage
+				return res
+			}
+			g := def.Value(wx, wy) - s.fMean
+			sg += g
+			sgg += g * g
+			sfg += s.fc[k] * g
+			jac := s.jac[k*np : (k+1)*np]
+			for a, ja := range jac {
+				sJg[a] += ja * g
+			}
+		}
+		gm := sg / float64(n)
+		gvar := sgg - sg*gm
+		if !(gvar > 0) {
+			return res // a flat deformed subset
+		}
+		gNorm := math.Sqrt(gvar)
+		znssd := 2 - 2*sfg/(s.fNorm*gNorm)
+		res.ZNCC = ZNCCFromZNSSD(znssd)
+		ratio := s.fNorm / gNorm
+		var dp Params
+		var b [12]float64
+		for a := 0; a < np; a++ {
+			b[a] = -(s.sumJf[a] - ratio*(sJg[a]-gm*s.sumJ[a]))
+		}
+		choleskySolve(&s.chol, np, &b)
+		copy(dp[:np], b[:np])
+		next, err := p.ComposeInverse(dp, s.cfg.Order)
+		res.Iterations = it
+		if err != nil || !next.IsFinite() {
+			return res
+		}
+		p = next
+		res.P = p
+		// A Gauss–Newton step cannot legitimately carry the subset farther
+		// than its half-size from the guess: past that the reference and
+		// deformed subsets no longer overlap (common practice, no source).
+		if math.Abs(p[PU]-guess[PU]) > drift || math.Abs(p[PV]-guess[PV]) > drift {
+			return res
+		}
+		if dp.cornerMotion(float64(s.cfg.Radius)) < s.cfg.Tolerance {
+			if s.cfg.MaxZNSSD >= 0 && znssd > s.cfg.MaxZNSSD {
+				res.Status = Lost
+			} else {
+				res.Status = Converged
+			}
+			return res
+		}
+	}
+	return res
+}
