@@ -6,9 +6,12 @@ import "fmt"
 type Status uint8
 
 const (
+	// Unsolved: no measurement was made (the zero value, so that a result
+	// nobody filled in never reads as a measurement).
+	Unsolved Status = iota
 	// Converged: the iteration met the tolerance and the match passed the
 	// correlation gate.
-	Converged Status = iota
+	Converged
 	// Diverged: no convergence within the iteration limit, a non-finite or
 	// singular update, a flat deformed subset, or a drift from the guess
 	// larger than the subset half-size.
@@ -28,6 +31,7 @@ const (
 )
 
 var statusNames = [...]string{
+	Unsolved:   "unsolved",
 	Converged:  "converged",
 	Diverged:   "diverged",
 	OutOfImage: "out-of-image",

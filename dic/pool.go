@@ -1,0 +1,65 @@
+package dic
+
+import (
+	"runtime"
+	"sync"
+	"sync/atomic"
+
+	"spallscope/subset"
+)
+
+// job asks for the subset centred on reference pixel (X, Y) to be solved
+// from Guess; its result goes to slot I of the caller's results.
+type job struct {
+	I, X, Y int
+	Guess   subset.Params
+}
+
+// pool solves batches of independent subsets on a fixed set of goroutines,
+// each with its own subset.Solver. Each result depends only on its job, so
+// results are the same whatever the number of workers.
+type pool struct {
+	solvers []*subset.Solver
+}
+
+func newPool(cfg subset.Config, workers int) *pool {
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	p := &pool{solvers: make([]*subset.Solver, workers)}
+	for i := range p.solvers {
+		p.solvers[i] = subset.NewSolver(cfg)
+	}
+	return p
+}
+
+// solve runs every job against (ref, def) and stores job k's result in
+// out[jobs[k].I].
+func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []subset.Result) {
+	if len(jobs) == 0 {
+		return
+	}
+	if len(jobs) < 8 || len(p.solvers) == 1 {
+		for _, j := range jobs {
+			out[j.I] = p.solvers[0].Solve(ref, def, mask, j.X, j.Y, j.Guess)
+		}
+		return
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for _, s := range p.solvers {
+		wg.Add(1)
+		go func(s *subset.Solver) {
+			defer wg.Done()
+			for {
+				k := int(next.Add(1) - 1)
+				if k >= len(jobs) {
+					return
+				}
+				j := jobs[k]
+				out[j.I] = s.Solve(ref, def, mask, j.X, j.Y, j.Guess)
+			}
+		}(s)
+	}
+	wg.Wait()
+}

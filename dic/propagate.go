@@ -1,0 +1,200 @@
+package dic
+
+import (
+	"container/heap"
+	"math"
+
+	"spallscope/subset"
+)
+
+// Point states during one frame's correlation.
+const (
+	pending   uint8 = iota // trackable, not solved yet
+	accepted               // solved and reliable: guides its neighbours
+	failed                 // solved without a reliable result
+	untracked              // not trackable against this reference
+)
+
+// batchSize is how many of the most reliable points are expanded per round
+// of the propagation. It is a constant, not the worker count, so that the
+// result does not depend on the number of workers.
+const batchSize = 64
+
+// maxReseeds bounds the extra seeds tried per frame for parts of the grid
+// that propagation did not reach (beyond a crack, say).
+const maxReseeds = 24
+
+// correlation is one frame's correlation of the grid against one reference.
+type correlation struct {
+	tr            *Tracker
+	ref, def      *subset.Spline
+	refImg, image *subset.Image
+	mask          []uint8
+	centres       [][2]int
+	state         []uint8
+	res           []subset.Result
+	queue         reliability
+	jobs          []job
+	nbr           []int
+}
+
+// run correlates every trackable point: seeds by integer search, then a
+// parallel pass from the previous frame's solutions (prev, shifted by the
+// seeds' jump), then reliability-guided propagation (Pan 2009) over the
+// rest, reseeding unreached parts. prev may be nil.
+func (c *correlation) run(prev []subset.Params, prevOK []bool) []subset.Result {
+	t := c.tr
+	for comp, cands := range t.seeds {
+		offset, ok := c.seed(cands, prev, prevOK)
+		if !ok || prev == nil {
+			continue
+		}
+		c.jobs = c.jobs[:0]
+		for i, k := range t.comp {
+			if k == comp && c.state[i] == pending && prevOK[i] {
+				g := prev[i]
+				g[subset.PU] += offset[0]
+				g[subset.PV] += offset[1]
+				c.jobs = append(c.jobs, job{I: i, X: c.centres[i][0], Y: c.centres[i][1], Guess: g})
+			}
+		}
+		c.solveJobs()
+	}
+	c.propagate()
+	for tries := 0; tries < maxReseeds; tries++ {
+		var cands []int
+		for _, i := range t.bySSSIG {
+			if c.state[i] == pending {
+				cands = append(cands, i)
+				if len(cands) == 4 {
+					break
+				}
+			}
+		}
+		if len(cands) == 0 {
+			break
+		}
+		if _, ok := c.seed(cands, prev, prevOK); !ok {
+			for _, i := range cands {
+				c.state[i] = failed
+			}
+			continue
+		}
+		c.propagate()
+	}
+	for i, s := range c.state {
+		if s == pending || c.res[i].Status == subset.Unsolved {
+			c.res[i] = subset.Result{Status: subset.Lost} // not reached from any seed
+		}
+	}
+	return c.res
+}
+
+// seed tries the candidates in order until one gives a reliable match by
+// integer search around its previous solution and IC-GN refinement. It
+// returns the jump of the seed from its previous solution.
+func (c *correlation) seed(cands []int, prev []subset.Params, prevOK []bool) ([2]float64, bool) {
+	t := c.tr
+	for _, i := range cands {
+		if c.state[i] != pending {
+			continue
+		}
+		var g subset.Params
+		if prev != nil && prevOK[i] {
+			g = prev[i]
+		}
+		x, y := c.centres[i][0], c.centres[i][1]
+		m, err := SearchInteger(c.refImg, c.image, x, y, t.s.Subset/2,
+			int(math.Round(g[subset.PU])), int(math.Round(g[subset.PV])), t.s.SearchRadius)
+		if err != nil {
+			c.res[i] = subset.Result{Status: subset.OutOfImage} // the search window left the frame
+			continue
+		}
+		if m.ZNCC < t.s.MinZNCC {
+			c.res[i] = subset.Result{Status: subset.Lost, ZNCC: m.ZNCC}
+			continue
+		}
+		start := g
+		start[subset.PU], start[subset.PV] = float64(m.U), float64(m.V)
+		c.jobs = append(c.jobs[:0], job{I: i, X: x, Y: y, Guess: start})
+		c.solveJobs()
+		if c.state[i] == accepted {
+			p := c.res[i].P
+			return [2]float64{p[subset.PU] - g[subset.PU], p[subset.PV] - g[subset.PV]}, true
+		}
+		c.state[i] = pending // a failed seed may still be reached by propagation
+	}
+	return [2]float64{}, false
+}
+
+// solveJobs solves the queued jobs in parallel and files each result as
+// accepted (queued for propagation) or failed.
+func (c *correlation) solveJobs() {
+	c.tr.pool.solve(c.ref, c.def, c.mask, c.jobs, c.res)
+	for _, j := range c.jobs {
+		if c.res[j.I].Status == subset.Converged {
+			c.state[j.I] = accepted
+			heap.Push(&c.queue, rel{j.I, c.res[j.I].ZNCC})
+		} else {
+			c.state[j.I] = failed
+		}
+	}
+}
+
+// propagate expands the most reliable accepted points, batch by batch:
+// each pending neighbour starts from the converged shape of its most
+// reliable solved neighbour, carried over the grid step by its gradient.
+func (c *correlation) propagate() {
+	g := c.tr.grid
+	for c.queue.Len() > 0 {
+		c.jobs = c.jobs[:0]
+		for n := 0; n < batchSize && c.queue.Len() > 0; n++ {
+			p := heap.Pop(&c.queue).(rel).i
+			c.nbr = g.Neighbours(c.nbr[:0], p)
+			for _, q := range c.nbr {
+				if c.state[q] != pending {
+					continue
+				}
+				c.state[q] = failed // claimed for this batch; solveJobs files it
+				dx := float64(c.centres[q][0] - c.centres[p][0])
+				dy := float64(c.centres[q][1] - c.centres[p][1])
+				c.jobs = append(c.jobs, job{I: q, X: c.centres[q][0], Y: c.centres[q][1], Guess: carry(c.res[p].P, dx, dy)})
+			}
+		}
+		c.solveJobs()
+	}
+}
+
+// carry moves a first-order shape by (dx, dy) in the reference: the
+// displacement changes by the gradient times the offset.
+func carry(p subset.Params, dx, dy float64) subset.Params {
+	p[subset.PU] += p[subset.PUx]*dx + p[subset.PUy]*dy
+	p[subset.PV] += p[subset.PVx]*dx + p[subset.PVy]*dy
+	return p
+}
+
+// rel is a queue entry: a point and its ZNCC.
+type rel struct {
+	i  int
+	cc float64
+}
+
+// reliability is a max-heap on ZNCC, ties broken by the lower index so
+// the order is fully determined.
+type reliability []rel
+
+func (q reliability) Len() int { return len(q) }
+func (q reliability) Less(a, b int) bool {
+	if q[a].cc != q[b].cc {
+		return q[a].cc > q[b].cc
+	}
+	return q[a].i < q[b].i
+}
+func (q reliability) Swap(a, b int) { q[a], q[b] = q[b], q[a] }
+func (q *reliability) Push(x any)   { *q = append(*q, x.(rel)) }
+func (q *reliability) Pop() any {
+	old := *q
+	x := old[len(old)-1]
+	*q = old[:len(old)-1]
+	return x
+}

@@ -1,0 +1,311 @@
+package dic
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"spallscope/dic/region"
+	"spallscope/subset"
+)
+
+// Tracker follows the grid of one reference image through the frames of a
+// sequence. Frames are given one at a time, in order; the tracker keeps
+// only what the next frame needs (the previous solution, and in
+// incremental mode the current reference), so memory does not grow with
+// the sequence.
+type Tracker struct {
+	s      Settings
+	grid   Grid
+	origin *subset.Image // the original reference
+	mask   *region.Mask  // on the original reference
+	pool   *pool
+
+	static  []subset.Status // per point, against the original reference
+	comp    []int           // connected part of the trackable grid, −1 if none
+	seeds   [][]int         // seed candidates per part, best first
+	bySSSIG []int           // trackable points by decreasing SSSIG (reseeding)
+
+	// The reference currently correlated against and what it needs.
+	refIndex int
+	ref      *subset.Image
+	refSp    *subset.Spline
+	refMask  []uint8
+	base     *Field       // field of the current reference (nil: the original)
+	centres  [][2]int     // integer subset centres in the current reference
+	frac     [][2]float64 // material point − centre, in the current reference
+
+	prev      *Field          // last field returned
+	prevInc   []subset.Params // last solution against the current reference
+	prevIncOK []bool
+	last      *subset.Image // last frame, a candidate new reference
+	lastIndex int
+}
+
+// NewTracker prepares tracking of the grid over mask (nil: the whole
+// image) on the reference image ref, which is frame refIndex of its
+// sequence. It reports settings that cannot be used and a mask whose size
+// differs from the reference.
+func NewTracker(ref *subset.Image, refIndex int, mask *region.Mask, s Settings) (*Tracker, error) {
+	if err := s.Validate(); err != nil {
+		return nil, err
+	}
+	s = s.withDefaults()
+	if mask == nil {
+		mask = region.Full(ref.Width, ref.Height)
+	}
+	if mask.Width != ref.Width || mask.Height != ref.Height {
+		return nil, fmt.Errorf("mask is %dx%d, expected the reference's %dx%d", mask.Width, mask.Height, ref.Width, ref.Height)
+	}
+	if ref.Width < s.Subset || ref.Height < s.Subset {
+		return nil, fmt.Errorf("reference %dx%d is smaller than one %d px subset", ref.Width, ref.Height, s.Subset)
+	}
+	grid, err := NewGrid(mask, s.Step)
+	if err != nil {
+		return nil, err
+	}
+	t := &Tracker{s: s, grid: grid, origin: ref, mask: mask, pool: newPool(s.solverConfig(), s.Workers)}
+	t.setReference(ref, refIndex, nil)
+	t.classify()
+	return t, nil
+}
+
+// Grid returns the grid of points of interest.
+func (t *Tracker) Grid() Grid { return t.grid }
+
+// Settings returns the settings in use, defaults filled in.
+func (t *Tracker) Settings() Settings { return t.s }
+
+// classify finds each point's static status against the original
+// reference (masked, out of image, low texture), the connected parts of
+// the trackable grid and their seed candidates.
+func (t *Tracker) classify() {
+	n := t.grid.Len()
+	t.static = make([]subset.Status, n)
+	solver := t.pool.solvers[0]
+	r := t.s.Subset / 2
+	sssig := make([]float64, n)
+	for i := 0; i < n; i++ {
+		x, y := t.grid.Pos(i)
+		if !t.mask.At(x, y) {
+			t.static[i] = subset.Masked
+			continue
+		}
+		t.static[i] = solver.Prepare(t.refSp, t.refMask, x, y)
+		if t.static[i] == subset.Converged {
+			sssig[i] = subset.SSSIG(t.refSp, x, y, r)
+			t.bySSSIG = append(t.bySSSIG, i)
+		}
+	}
+	slices.SortStableFunc(t.bySSSIG, func(a, b int) int {
+		if sssig[a] != sssig[b] {
+			if sssig[a] > sssig[b] {
+				return -1
+			}
+			return 1
+		}
+		return a - b
+	})
+	// Connected parts (4-connectivity) of the trackable points.
+	t.comp = make([]int, n)
+	for i := range t.comp {
+		t.comp[i] = -1
+	}
+	var stack, nbr []int
+	parts := 0
+	for i := 0; i < n; i++ {
+		if t.static[i] != subset.Converged || t.comp[i] >= 0 {
+			continue
+		}
+		t.comp[i] = parts
+		stack = append(stack[:0], i)
+		for len(stack) > 0 {
+			p := stack[len(stack)-1]
+			stack = stack[:len(stack)-1]
+			nbr = t.grid.Neighbours(nbr[:0], p)
+			for _, q := range nbr {
+				if t.static[q] == subset.Converged && t.comp[q] < 0 {
+					t.comp[q] = parts
+					stack = append(stack, q)
+				}
+			}
+		}
+		parts++
+	}
+	// Seed candidates: user seeds first (nearest trackable grid point), then
+	// per part the best-textured points nearest the part's centroid.
+	t.seeds = make([][]int, parts)
+	for _, s := range t.s.Seeds {
+		if i := t.nearestTrackable(s[0], s[1]); i >= 0 {
+			t.seeds[t.comp[i]] = append(t.seeds[t.comp[i]], i)
+		}
+	}
+	cx, cy, cnt := make([]float64, parts), make([]float64, parts), make([]float64, parts)
+	for i, k := range t.comp {
+		if k >= 0 {
+			x, y := t.grid.Pos(i)
+			cx[k] += float64(x)
+			cy[k] += float64(y)
+			cnt[k]++
+		}
+	}
+	for k := 0; k < parts; k++ {
+		var members []int
+		var ss []float64
+		for i, c := range t.comp {
+			if c == k {
+				members = append(members, i)
+				ss = append(ss, sssig[i])
+			}
+		}
+		mid := median(ss)
+		mx, my := cx[k]/cnt[k], cy[k]/cnt[k]
+		dist := func(i int) float64 { x, y := t.grid.Pos(i); return math.Hypot(float64(x)-mx, float64(y)-my) }
+		slices.SortStableFunc(members, func(a, b int) int {
+			da, db := dist(a), dist(b)
+			switch {
+			case da < db:
+				return -1
+			case da > db:
+				return 1
+			}
+			return a - b
+		})
+		for _, i := range members {
+			if sssig[i] >= mid && len(t.seeds[k]) < 8 {
+				t.seeds[k] = append(t.seeds[k], i)
+			}
+		}
+	}
+}
+
+// nearestTrackable returns the trackable grid point nearest (x, y), or −1.
+func (t *Tracker) nearestTrackable(x, y int) int {
+	best, bd := -1, math.Inf(1)
+	for i, s := range t.static {
+		if s != subset.Converged {
+			continue
+		}
+		px, py := t.grid.Pos(i)
+		if d := math.Hypot(float64(px-x), float64(py-y)); d < bd {
+			best, bd = i, d
+		}
+	}
+	return best
+}
+
+// Track correlates one frame (index and name as in its sequence) and
+// returns its field in the original reference's coordinates. Frames must
+// come in order; the reference frame itself gives zero displacement.
+func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, error) {
+	if !img.SameSize(t.origin) {
+		return nil, fmt.Errorf("frame %d (%s): size %dx%d, expected %dx%d like the reference", index, name, img.Width, img.Height, t.origin.Width, t.origin.Height)
+	}
+	sp := subset.NewSpline(img, t.s.Interpolation)
+	inc := t.correlate(img, sp, t.prevInc, t.prevIncOK)
+	f := t.compose(inc, index, name)
+	if t.s.Reference == IncrementalReference && t.last != nil && t.lastIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {
+		// Correlation has degraded: move the reference to the last frame
+		// and correlate this one again against it.
+		t.setReference(t.last, t.lastIndex, t.prev)
+		inc = t.correlate(img, sp, nil, nil)
+		f = t.compose(inc, index, name)
+	}
+	t.prevInc = make([]subset.Params, len(inc))
+	t.prevIncOK = make([]bool, len(inc))
+	for i, r := range inc {
+		t.prevInc[i], t.prevIncOK[i] = r.P, r.Status == subset.Converged
+	}
+	t.prev = f
+	if t.s.Reference == IncrementalReference {
+		t.last, t.lastIndex = img, index
+	}
+	return f, nil
+}
+
+// correlate runs one frame against the current reference.
+func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, prev []subset.Params, prevOK []bool) []subset.Result {
+	n := t.grid.Len()
+	c := &correlation{
+		tr: t, ref: t.refSp, def: sp, refImg: t.ref, image: img, mask: t.refMask,
+		centres: t.centres, state: make([]uint8, n), res: make([]subset.Result, n),
+	}
+	for i := range c.state {
+		switch {
+		case t.static[i] != subset.Converged:
+			c.state[i] = untracked
+			c.res[i].Status = t.static[i]
+		case t.base != nil && !t.base.Points[i].Valid():
+			c.state[i] = untracked
+			c.res[i].Status = t.base.Points[i].Status
+		}
+	}
+	return c.run(prev, prevOK)
+}
+
+// compose turns solutions against the current reference into the field
+// relative to the original reference. With the original reference it
+// copies them; after a reference update the increment measured at the
+// subset centre is carried to the material point by its gradient and
+// added to the reference's own displacement, and the gradients compose as
+// F = (I + ∇Δu)(I + ∇u_ref) (continuum kinematics).
+func (t *Tracker) compose(inc []subset.Result, index int, name string) *Field {
+	f := &Field{Index: index, Name: name, Reference: t.refIndex, Grid: t.grid, Points: make([]Point, len(inc))}
+	for i, r := range inc {
+		x, y := t.grid.Pos(i)
+		p := Point{X: x, Y: y, ZNCC: r.ZNCC, Iterations: r.Iterations, Status: r.Status}
+		switch {
+		case r.Status != subset.Converged:
+		case t.base == nil:
+			p.P = r.P
+		default:
+			b := t.base.Points[i].P
+			d := carry(r.P, t.frac[i][0], t.frac[i][1])
+			p.P = b
+			p.P[subset.PU] += d[subset.PU]
+			p.P[subset.PV] += d[subset.PV]
+			// ∇u = ∇u_b + ∇Δu + ∇Δu·∇u_b
+			bux, buy, bvx, bvy := b[subset.PUx], b[subset.PUy], b[subset.PVx], b[subset.PVy]
+			dux, duy, dvx, dvy := d[subset.PUx], d[subset.PUy], d[subset.PVx], d[subset.PVy]
+			p.P[subset.PUx] = bux + dux + dux*bux + duy*bvx
+			p.P[subset.PUy] = buy + duy + dux*buy + duy*bvy
+			p.P[subset.PVx] = bvx + dvx + dvx*bux + dvy*bvx
+			p.P[subset.PVy] = bvy + dvy + dvx*buy + dvy*bvy
+			for k := 6; k < 12; k++ { // second-order terms: added, not composed
+				p.P[k] = b[k] + d[k]
+			}
+		}
+		f.Points[i] = p
+	}
+	return f
+}
+
+// setReference makes img (frame index) the reference correlated against.
+// base is its field relative to the original reference (nil for the
+// original itself): subsets are centred on the integer pixel nearest each
+// material point's position there, and the mask is carried over by the
+// displacement field.
+func (t *Tracker) setReference(img *subset.Image, index int, base *Field) {
+	t.ref, t.refIndex, t.base = img, index, base
+	t.refSp = subset.NewSpline(img, t.s.Interpolation)
+	n := t.grid.Len()
+	t.centres = make([][2]int, n)
+	t.frac = make([][2]float64, n)
+	t.prevInc, t.prevIncOK = nil, nil
+	for i := 0; i < n; i++ {
+		x, y := t.grid.Pos(i)
+		t.centres[i] = [2]int{x, y}
+		if base != nil && base.Points[i].Valid() {
+			px := float64(x) + base.Points[i].P[subset.PU]
+			py := float64(y) + base.Points[i].P[subset.PV]
+			cx, cy := math.Round(px), math.Round(py)
+			t.centres[i] = [2]int{int(cx), int(cy)}
+			t.frac[i] = [2]float64{px - cx, py - cy}
+		}
+	}
+	if base == nil {
+		t.refMask = t.mask.Pix
+		return
+	}
+	t.refMask = carryMask(t.mask, base)
+}
