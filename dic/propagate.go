@@ -87,7 +87,30 @@ func (c *correlation) run(prev []subset.Params, prevOK []bool) []subset.Result {
 			c.res[i] = subset.Result{Status: subset.Lost} // not reached from any seed
 		}
 	}
+	c.flagResiduals()
 	return c.res
+}
+
+// flagResiduals marks as lost the converged points whose ZNSSD is more
+// than ResidualFactor times the frame's median ZNSSD and whose ZNCC is
+// below 0.995 (so noise-free frames do not flag sound points).
+func (c *correlation) flagResiduals() {
+	k := c.tr.s.ResidualFactor
+	if k <= 0 {
+		return
+	}
+	var z []float64
+	for _, r := range c.res {
+		if r.Status == subset.Converged {
+			z = append(z, 2*(1-r.ZNCC))
+		}
+	}
+	limit := math.Max(k*median(z), 2*(1-0.995))
+	for i, r := range c.res {
+		if r.Status == subset.Converged && 2*(1-r.ZNCC) > limit {
+			c.res[i].Status = subset.Lost
+		}
+	}
 }
 
 // seed tries the candidates in order until one gives a reliable match by

@@ -46,6 +46,16 @@ type Settings struct {
 	// its measured pixels when at least this fraction remains, else the
 	// point is reported masked.
 	MinValidFraction float64 `json:"min_valid_fraction"`
+	// EdgeGuard is the width in px of the band along the rim of every
+	// exclusion (openings, masked areas) whose pixels subsets leave out
+	// (negative: none).
+	EdgeGuard int `json:"edge_guard_px"`
+	// ResidualFactor flags a converged point as lost when its ZNSSD exceeds
+	// this many times the frame's median ZNSSD (and its ZNCC is below
+	// 0.995): a subset the shape function cannot describe, as one
+	// straddling a crack, matches clearly worse than its noise-limited
+	// neighbours even when its ZNCC passes MinZNCC.
+	ResidualFactor float64 `json:"residual_factor"`
 	// Seeds are user-placed seed points (reference px); automatic seeds are
 	// added for every part of the grid they do not reach.
 	Seeds [][2]int `json:"seeds,omitempty"`
@@ -61,7 +71,7 @@ func DefaultSettings() Settings {
 	return Settings{
 		Subset: 21, Step: 7, Order: subset.Affine, Interpolation: subset.Bicubic,
 		Reference: FixedReference, UpdateBelow: 0.9, MinZNCC: 0.8,
-		SearchRadius: 48, MinValidFraction: 0.75,
+		SearchRadius: 48, MinValidFraction: 0.75, EdgeGuard: 2, ResidualFactor: 10,
 	}
 }
 
@@ -88,6 +98,12 @@ func (s Settings) withDefaults() Settings {
 	if s.MinValidFraction == 0 {
 		s.MinValidFraction = d.MinValidFraction
 	}
+	if s.EdgeGuard == 0 {
+		s.EdgeGuard = d.EdgeGuard
+	}
+	if s.ResidualFactor == 0 {
+		s.ResidualFactor = d.ResidualFactor
+	}
 	return s
 }
 
@@ -112,6 +128,10 @@ func (s Settings) Validate() error {
 		return fmt.Errorf("reference update threshold %g, expected between 0 and 1", s.UpdateBelow)
 	case s.SearchRadius < 1:
 		return fmt.Errorf("search radius %d px, expected at least 1", s.SearchRadius)
+	case s.EdgeGuard > s.Subset/2:
+		return fmt.Errorf("edge guard %d px, expected at most half the subset (negative: none)", s.EdgeGuard)
+	case s.ResidualFactor > 0 && s.ResidualFactor < 1:
+		return fmt.Errorf("residual factor %g, expected 1 or more (negative: off)", s.ResidualFactor)
 	case !(s.MinValidFraction > 0 && s.MinValidFraction <= 1):
 		return fmt.Errorf("min valid fraction %g, expected in (0, 1]", s.MinValidFraction)
 	}

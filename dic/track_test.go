@@ -1,7 +1,8 @@
-package dic
+package dic_test
 
 import (
 	"math"
+	"spallscope/dic"
 	"testing"
 
 	"spallscope/dic/region"
@@ -30,9 +31,9 @@ func pair(t testing.TB, w, h int, f synth.Field, cam synth.Camera, openings ...s
 	return ref, def
 }
 
-func track(t testing.TB, ref, def *subset.Image, mask *region.Mask, s Settings) *Field {
+func track(t testing.TB, ref, def *subset.Image, mask *region.Mask, s dic.Settings) *dic.Field {
 	t.Helper()
-	tr, err := NewTracker(ref, 0, mask, s)
+	tr, err := dic.NewTracker(ref, 0, mask, s)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -45,7 +46,7 @@ func track(t testing.TB, ref, def *subset.Image, mask *region.Mask, s Settings) 
 
 // errorsAgainst returns the displacement errors of the valid points
 // against the truth (the synthetic field is exact by construction).
-func errorsAgainst(f *Field, truth synth.Field) (eu, ev []float64) {
+func errorsAgainst(f *dic.Field, truth synth.Field) (eu, ev []float64) {
 	for i := range f.Points {
 		p := &f.Points[i]
 		if !p.Valid() {
@@ -76,7 +77,7 @@ func meanStd(xs []float64) (mean, std float64) {
 func TestTrackUniformStrain(t *testing.T) {
 	f := synth.UniformStrain{Cx: 100, Cy: 100, Exx: 0.005, Eyy: -0.002, Exy: 0.001}
 	ref, def := pair(t, 200, 200, f, synth.Camera{Depth: 8})
-	field := track(t, ref, def, nil, Settings{Subset: 21, Step: 10})
+	field := track(t, ref, def, nil, dic.Settings{Subset: 21, Step: 10})
 	if n := field.Valid(); n < 250 {
 		t.Fatalf("%d valid points of %d", n, field.Grid.Len())
 	}
@@ -108,7 +109,7 @@ func TestTrackUniformStrain(t *testing.T) {
 func TestTrackRigidJump(t *testing.T) {
 	f := synth.Translation{U: 40.3, V: -12.6}
 	ref, def := pair(t, 240, 200, f, synth.Camera{Depth: 8, Noise: 1})
-	field := track(t, ref, def, nil, Settings{Subset: 21, Step: 10})
+	field := track(t, ref, def, nil, dic.Settings{Subset: 21, Step: 10})
 	eu, ev := errorsAgainst(field, f)
 	// Points whose subset left the frame are flagged out of image; the rest,
 	// the overlap of the two views, must be found.
@@ -134,8 +135,8 @@ func TestTrackRigidJump(t *testing.T) {
 func TestTrackDeterministic(t *testing.T) {
 	f := synth.Sum{synth.UniformStrain{Cx: 60, Cy: 60, Exx: 0.01, Eyy: -0.004}, synth.Translation{U: 2.3, V: 0.4}}
 	ref, def := pair(t, 160, 140, f, synth.Camera{Depth: 8, Noise: 2})
-	a := track(t, ref, def, nil, Settings{Subset: 17, Step: 6, Workers: 1})
-	b := track(t, ref, def, nil, Settings{Subset: 17, Step: 6, Workers: 3})
+	a := track(t, ref, def, nil, dic.Settings{Subset: 17, Step: 6, Workers: 1})
+	b := track(t, ref, def, nil, dic.Settings{Subset: 17, Step: 6, Workers: 3})
 	for i := range a.Points {
 		if a.Points[i] != b.Points[i] {
 			t.Fatalf("point %d differs with 1 and 3 workers: %+v vs %+v", i, a.Points[i], b.Points[i])

@@ -18,7 +18,8 @@ type Tracker struct {
 	s      Settings
 	grid   Grid
 	origin *subset.Image // the original reference
-	mask   *region.Mask  // on the original reference
+	mask   *region.Mask  // on the original reference: where grid points are measured
+	pixels *region.Mask  // mask less the edge guard: the pixels subsets use
 	pool   *pool
 
 	static  []subset.Status // per point, against the original reference
@@ -64,7 +65,8 @@ func NewTracker(ref *subset.Image, refIndex int, mask *region.Mask, s Settings) 
 	if err != nil {
 		return nil, err
 	}
-	t := &Tracker{s: s, grid: grid, origin: ref, mask: mask, pool: newPool(s.solverConfig(), s.Workers)}
+	t := &Tracker{s: s, grid: grid, origin: ref, mask: mask, pixels: guardEdges(mask, s.EdgeGuard),
+		pool: newPool(s.solverConfig(), s.Workers)}
 	t.setReference(ref, refIndex, nil)
 	t.classify()
 	return t, nil
@@ -304,8 +306,8 @@ func (t *Tracker) setReference(img *subset.Image, index int, base *Field) {
 		}
 	}
 	if base == nil {
-		t.refMask = t.mask.Pix
+		t.refMask = t.pixels.Pix
 		return
 	}
-	t.refMask = carryMask(t.mask, base)
+	t.refMask = carryMask(t.pixels, base)
 }

@@ -54,3 +54,26 @@ func TestLayoutExcludesOpenings(t *testing.T) {
 		t.Error("a two-vertex polygon must be rejected")
 	}
 }
+
+func TestParseShape(t *testing.T) {
+	for s, want := range map[string]Shape{
+		"circle:256,200,40":      Circle(256, 200, 40),
+		"rect:0,0,511,300":       Rect{0, 0, 511, 300},
+		"ellipse:10,20,30,15,45": Ellipse{Cx: 10, Cy: 20, Rx: 30, Ry: 15, AngleDeg: 45},
+		"polygon:0,0,10,0,10,10": Polygon{{0, 0}, {10, 0}, {10, 10}},
+	} {
+		got, err := ParseShape(s)
+		if err != nil {
+			t.Errorf("%s: %v", s, err)
+			continue
+		}
+		if x0, y0, x1, y1 := got.Bounds(); [4]float64{x0, y0, x1, y1} != func() [4]float64 { a, b, c, d := want.Bounds(); return [4]float64{a, b, c, d} }() {
+			t.Errorf("%s: parsed %v, want %v", s, got, want)
+		}
+	}
+	for _, bad := range []string{"circle:1,2", "blob:1,2,3", "rect:5,5,1,1", "polygon:1,2,3", "circle:a,b,c", "256,200,40"} {
+		if _, err := ParseShape(bad); err == nil {
+			t.Errorf("%q must be rejected", bad)
+		}
+	}
+}

@@ -1,0 +1,157 @@
+package runfolder
+
+import (
+	"bufio"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+
+	"spallscope/dic"
+	"spallscope/subset"
+)
+
+// FieldsDir is the run folder's subfolder of displacement fields.
+const FieldsDir = "fields"
+
+// FieldHeader is the header of a displacement field file.
+const FieldHeader = "x,y,u,v,dudx,dudy,dvdx,dvdy,cc,iterations,status"
+
+// FieldPath returns the path of a frame's field file in a run folder.
+func FieldPath(dir, frame string) string { return filepath.Join(dir, FieldsDir, frame+".csv") }
+
+// WriteField writes a displacement field as CSV, one row per grid point in
+// row-major order: reference position (px), displacement (px), gradients,
+// ZNCC, IC-GN iterations and status. Points without a measurement keep
+// their row with NaN values and their status; the ZNCC of a point that
+// decorrelated is kept, since it tells how badly. The file is written
+// atomically.
+func WriteField(path string, f *dic.Field) error {
+	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+		return err
+	}
+	return WriteAtomic(path, func(w *bufio.Writer) error {
+		w.WriteString(FieldHeader + "\n")
+		buf := make([]byte, 0, 256)
+		for i := range f.Points {
+			p := &f.Points[i]
+			buf = strconv.AppendInt(buf[:0], int64(p.X), 10)
+			buf = append(buf, ',')
+			buf = strconv.AppendInt(buf, int64(p.Y), 10)
+			for _, k := range [...]int{subset.PU, subset.PV, subset.PUx, subset.PUy, subset.PVx, subset.PVy} {
+				buf = append(buf, ',')
+				if p.Valid() {
+					buf = strconv.AppendFloat(buf, p.P[k], 'g', 10, 64)
+				} else {
+					buf = append(buf, "NaN"...)
+				}
+			}
+			buf = append(buf, ',')
+			if p.Status != subset.Unsolved && p.ZNCC != 0 {
+				buf = strconv.AppendFloat(buf, p.ZNCC, 'f', 6, 64)
+			} else {
+				buf = append(buf, "NaN"...)
+			}
+			buf = append(buf, ',')
+			buf = strconv.AppendInt(buf, int64(p.Iterations), 10)
+			buf = append(buf, ',')
+			buf = append(buf, p.Status.String()...)
+			buf = append(buf, '\n')
+			if _, err := w.Write(buf); err != nil {
+				return err
+			}
+		}
+		return nil
+	})
+}
+
+// ReadField reads a field file written by WriteField. The grid is
+// recovered from the positions, which must form a complete row-major
+// lattice; errors name the line.
+func ReadField(path string) (*dic.Field, error) {
+	fh, err := os.Open(path)
+	if err != nil {
+		return nil, fmt.Errorf("field: %w", err)
+	}
+	defer fh.Close()
+	r := csv.NewReader(fh)
+	r.ReuseRecord = true
+	head, err := r.Read()
+	if err != nil {
+		return nil, fmt.Errorf("field %s: reading header: %w", path, err)
+	}
+	if got := strings.Join(head, ","); !strings.HasPrefix(got, FieldHeader) {
+		return nil, fmt.Errorf("field %s: header %q, expected %q", path, got, FieldHeader)
+	}
+	f := &dic.Field{Name: strings.TrimSuffix(filepath.Base(path), ".csv")}
+	for {
+		rec, err := r.Read()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		line, _ := r.FieldPos(0)
+		if err != nil {
+			return nil, fmt.Errorf("field %s: %w", path, err)
+		}
+		var p dic.Point
+		var v [9]float64
+		for k := 0; k < 9; k++ {
+			if v[k], err = strconv.ParseFloat(rec[k], 64); err != nil {
+				return nil, fmt.Errorf("field %s line %d column %s: %q is not a number", path, line, strings.Split(FieldHeader, ",")[k], rec[k])
+			}
+		}
+		it, err := strconv.Atoi(rec[9])
+		if err != nil {
+			return nil, fmt.Errorf("field %s line %d column iterations: %q is not an integer", path, line, rec[9])
+		}
+		if p.Status, err = subset.ParseStatus(rec[10]); err != nil {
+			return nil, fmt.Errorf("field %s line %d column status: %w", path, line, err)
+		}
+		p.X, p.Y, p.Iterations = int(v[0]), int(v[1]), it
+		if p.Valid() {
+			p.P[subset.PU], p.P[subset.PV] = v[2], v[3]
+			p.P[subset.PUx], p.P[subset.PUy], p.P[subset.PVx], p.P[subset.PVy] = v[4], v[5], v[6], v[7]
+		}
+		if !math.IsNaN(v[8]) {
+			p.ZNCC = v[8]
+		}
+		f.Points = append(f.Points, p)
+	}
+	g, err := latticeOf(f.Points)
+	if err != nil {
+		return nil, fmt.Errorf("field %s: %w", path, err)
+	}
+	f.Grid = g
+	return f, nil
+}
+
+// latticeOf recovers the grid of row-major points.
+func latticeOf(pts []dic.Point) (dic.Grid, error) {
+	if len(pts) == 0 {
+		return dic.Grid{}, errors.New("no points")
+	}
+	g := dic.Grid{X0: pts[0].X, Y0: pts[0].Y, Cols: 1, Step: 1}
+	for g.Cols < len(pts) && pts[g.Cols].Y == g.Y0 {
+		g.Cols++
+	}
+	if g.Cols > 1 {
+		g.Step = pts[1].X - pts[0].X
+	} else if len(pts) > 1 {
+		g.Step = pts[1].Y - pts[0].Y
+	}
+	if g.Step <= 0 || len(pts)%g.Cols != 0 {
+		return dic.Grid{}, fmt.Errorf("points do not form a row-major grid (%d points, %d per row)", len(pts), g.Cols)
+	}
+	g.Rows = len(pts) / g.Cols
+	for i, p := range pts {
+		if x, y := g.Pos(i); p.X != x || p.Y != y {
+			return dic.Grid{}, fmt.Errorf("data line %d: point (%d,%d), expected (%d,%d) on a %d px grid", i+1, p.X, p.Y, x, y, g.Step)
+		}
+	}
+	return g, nil
+}
