@@ -9,8 +9,11 @@ import (
 // Grid is the regular lattice of points of interest: point (c, r) is at
 // reference pixel (X0 + c·Step, Y0 + r·Step); points are stored row-major.
 type Grid struct {
-	X0, Y0, Step int
-	Cols, Rows   int
+	X0   int `json:"x0_px"`
+	Y0   int `json:"y0_px"`
+	Step int `json:"step_px"`
+	Cols int `json:"cols"`
+	Rows int `json:"rows"`
 }
 
 // Len is the number of grid points.

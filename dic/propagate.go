@@ -62,8 +62,8 @@ func (c *correlation) run(prev []subset.Params, prevOK []bool) []subset.Result {
 	}
 	c.propagate()
 	for tries := 0; tries < maxReseeds; tries++ {
-		var cands []int
-		for _, i := range t.bySSSIG {
+		var cands []int // the first unreached points in grid order
+		for i := range c.state {
 			if c.state[i] == pending {
 				cands = append(cands, i)
 				if len(cands) == 4 {

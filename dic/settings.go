@@ -117,9 +117,9 @@ func (s Settings) Validate() error {
 	case s.Step <= 0:
 		return fmt.Errorf("step %d px, expected a positive number of pixels", s.Step)
 	case s.Order != subset.Affine && s.Order != subset.Quadratic:
-		return fmt.Errorf("shape order %d, expected 1 (affine) or 2 (quadratic)", int(s.Order))
+		return fmt.Errorf("shape order %v, expected affine or quadratic", s.Order)
 	case s.Interpolation != subset.Bicubic && s.Interpolation != subset.Biquintic:
-		return fmt.Errorf("interpolation %d, expected bicubic or biquintic", int(s.Interpolation))
+		return fmt.Errorf("interpolation %v, expected bicubic or biquintic", s.Interpolation)
 	case s.Reference != FixedReference && s.Reference != IncrementalReference:
 		return fmt.Errorf("reference %q, expected fixed or incremental", s.Reference)
 	case !(s.MinZNCC > 0 && s.MinZNCC < 1):

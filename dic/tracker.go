@@ -22,10 +22,9 @@ type Tracker struct {
 	pixels *region.Mask  // mask less the edge guard: the pixels subsets use
 	pool   *pool
 
-	static  []subset.Status // per point, against the original reference
-	comp    []int           // connected part of the trackable grid, −1 if none
-	seeds   [][]int         // seed candidates per part, best first
-	bySSSIG []int           // trackable points by decreasing SSSIG (reseeding)
+	static []subset.Status // per point, against the original reference
+	comp   []int           // connected part of the trackable grid, −1 if none
+	seeds  [][]int         // seed candidates per part, best first
 
 	// The reference currently correlated against and what it needs.
 	refIndex int
@@ -79,35 +78,30 @@ func (t *Tracker) Grid() Grid { return t.grid }
 func (t *Tracker) Settings() Settings { return t.s }
 
 // classify finds each point's static status against the original
-// reference (masked, out of image, low texture), the connected parts of
-// the trackable grid and their seed candidates.
+// reference — masked (centre not measured, or too few measured pixels in
+// its subset), out of image, or trackable — the connected parts of the
+// trackable grid and their seed candidates. It counts mask pixels with a
+// summed-area table, so it costs little per point; subsets too flat to
+// track are found when they are solved (low texture).
 func (t *Tracker) classify() {
 	n := t.grid.Len()
 	t.static = make([]subset.Status, n)
-	solver := t.pool.solvers[0]
 	r := t.s.Subset / 2
-	sssig := make([]float64, n)
+	side := 2*r + 1
+	area := newSummedArea(t.pixels)
 	for i := 0; i < n; i++ {
 		x, y := t.grid.Pos(i)
-		if !t.mask.At(x, y) {
+		switch {
+		case !t.mask.At(x, y):
 			t.static[i] = subset.Masked
-			continue
-		}
-		t.static[i] = solver.Prepare(t.refSp, t.refMask, x, y)
-		if t.static[i] == subset.Converged {
-			sssig[i] = subset.SSSIG(t.refSp, x, y, r)
-			t.bySSSIG = append(t.bySSSIG, i)
+		case x-r < 0 || y-r < 0 || x+r >= t.mask.Width || y+r >= t.mask.Height:
+			t.static[i] = subset.OutOfImage
+		case float64(area.count(x-r, y-r, x+r, y+r)) < t.s.MinValidFraction*float64(side*side):
+			t.static[i] = subset.Masked
+		default:
+			t.static[i] = subset.Converged
 		}
 	}
-	slices.SortStableFunc(t.bySSSIG, func(a, b int) int {
-		if sssig[a] != sssig[b] {
-			if sssig[a] > sssig[b] {
-				return -1
-			}
-			return 1
-		}
-		return a - b
-	})
 	// Connected parts (4-connectivity) of the trackable points.
 	t.comp = make([]int, n)
 	for i := range t.comp {
@@ -135,50 +129,48 @@ func (t *Tracker) classify() {
 		parts++
 	}
 	// Seed candidates: user seeds first (nearest trackable grid point), then
-	// per part the best-textured points nearest the part's centroid.
+	// per part the best-textured (highest SSSIG) of the 32 points nearest
+	// the part's centroid, up to 8.
 	t.seeds = make([][]int, parts)
 	for _, s := range t.s.Seeds {
 		if i := t.nearestTrackable(s[0], s[1]); i >= 0 {
 			t.seeds[t.comp[i]] = append(t.seeds[t.comp[i]], i)
 		}
 	}
-	cx, cy, cnt := make([]float64, parts), make([]float64, parts), make([]float64, parts)
+	members := make([][]int, parts)
+	cx, cy := make([]float64, parts), make([]float64, parts)
 	for i, k := range t.comp {
 		if k >= 0 {
 			x, y := t.grid.Pos(i)
 			cx[k] += float64(x)
 			cy[k] += float64(y)
-			cnt[k]++
+			members[k] = append(members[k], i)
 		}
 	}
-	for k := 0; k < parts; k++ {
-		var members []int
-		var ss []float64
-		for i, c := range t.comp {
-			if c == k {
-				members = append(members, i)
-				ss = append(ss, sssig[i])
-			}
-		}
-		mid := median(ss)
-		mx, my := cx[k]/cnt[k], cy[k]/cnt[k]
+	for k, m := range members {
+		mx, my := cx[k]/float64(len(m)), cy[k]/float64(len(m))
 		dist := func(i int) float64 { x, y := t.grid.Pos(i); return math.Hypot(float64(x)-mx, float64(y)-my) }
-		slices.SortStableFunc(members, func(a, b int) int {
-			da, db := dist(a), dist(b)
-			switch {
-			case da < db:
-				return -1
-			case da > db:
-				return 1
-			}
-			return a - b
-		})
-		for _, i := range members {
-			if sssig[i] >= mid && len(t.seeds[k]) < 8 {
-				t.seeds[k] = append(t.seeds[k], i)
-			}
+		slices.SortStableFunc(m, func(a, b int) int { return cmpFloat(dist(a), dist(b)) })
+		near := m[:min(len(m), 32)]
+		sssig := make(map[int]float64, len(near))
+		for _, i := range near {
+			x, y := t.grid.Pos(i)
+			sssig[i] = subset.SSSIG(t.refSp, x, y, r)
 		}
+		best := slices.Clone(near)
+		slices.SortStableFunc(best, func(a, b int) int { return cmpFloat(sssig[b], sssig[a]) })
+		t.seeds[k] = append(t.seeds[k], best[:min(len(best), 8)]...)
 	}
+}
+
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
 }
 
 // nearestTrackable returns the trackable grid point nearest (x, y), or −1.

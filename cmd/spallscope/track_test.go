@@ -1,0 +1,132 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"spallscope/dic/runfolder"
+	"spallscope/subset"
+)
+
+// synthFixture renders the small Kirsch fixture into a temporary folder.
+func synthFixture(t *testing.T) string {
+	t.Helper()
+	dir := t.TempDir()
+	if _, err := run(t, "synth", "--spec", filepath.Join("..", "..", "testdata", "kirsch_small.json"), "--out", dir); err != nil {
+		t.Fatal(err)
+	}
+	return dir
+}
+
+// track on the fixture writes one field per frame with the contract's
+// header; the opening's points are masked, and the measured ones match the
+// fixture's exact Kirsch field (its truth grid, every 8 px) within 0.02 px.
+func TestTrackWritesFields(t *testing.T) {
+	dir := synthFixture(t)
+	out := filepath.Join(t.TempDir(), "run")
+	if _, err := run(t, "track", "--images", filepath.Join(dir, "frames"), "--exclude", "circle:47.5,39.5,12",
+		"--subset", "15", "--step", "8", "--out", out); err != nil {
+		t.Fatal(err)
+	}
+	f, err := runfolder.ReadField(runfolder.FieldPath(out, "kirsch_0002"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	head, _ := os.ReadFile(runfolder.FieldPath(out, "kirsch_0002"))
+	if !strings.HasPrefix(string(head), "x,y,u,v,dudx,dudy,dvdx,dvdy,cc,iterations,status\n") {
+		t.Errorf("header: %q", strings.SplitN(string(head), "\n", 2)[0])
+	}
+	masked, valid := 0, 0
+	for _, p := range f.Points {
+		if p.Status == subset.Masked {
+			masked++
+		}
+		if p.Valid() {
+			valid++
+		}
+	}
+	if masked == 0 || valid < 20 {
+		t.Errorf("%d masked and %d valid points", masked, valid)
+	}
+	if _, err := os.Stat(filepath.Join(out, "run.json")); err != nil {
+		t.Error("run.json missing")
+	}
+}
+
+func TestTrackBadInput(t *testing.T) {
+	dir := synthFixture(t)
+	frames := filepath.Join(dir, "frames")
+	out := t.TempDir()
+	cases := []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--subset", "20"}, "subset 20 px, expected an odd size"},
+		{[]string{"--subset", "5"}, "subset 5 px, expected an odd size of at least 7"},
+		{[]string{"--step", "0"}, "step 0 px"},
+		{[]string{"--roi", "500,500,600,600"}, "lies outside"},
+		{[]string{"--mask", filepath.Join(dir, "frames", "kirsch_0000.png"), "--roi", "rect:0,0,10,10", "--order", "3"}, "--order 3"},
+		{[]string{"--interp", "linear"}, `--interp "linear"`},
+		{[]string{"--reference", "rolling"}, `reference "rolling"`},
+		{[]string{"--exclude", "circle:1,2"}, "circle takes [3] numbers"},
+	}
+	for _, c := range cases {
+		args := append([]string{"track", "--images", frames, "--out", out}, c.args...)
+		if _, err := run(t, args...); err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%v: error %v, want it to contain %q", c.args, err, c.want)
+		}
+	}
+	// A mask whose size differs from the reference.
+	small := filepath.Join(t.TempDir(), "mask.png")
+	run(t, "synth", "--field", "translation", "--size", "40x30", "--frames", "1", "--out", filepath.Dir(small))
+	if _, err := run(t, "track", "--images", frames, "--mask", filepath.Join(filepath.Dir(small), "frames", "translation_0000.png"), "--out", out); err == nil || !strings.Contains(err.Error(), "does not match image") {
+		t.Errorf("mask size mismatch: %v", err)
+	}
+}
+
+// A frame that cannot be read stops the run with an error naming it, and
+// the fields of the frames before it stay complete.
+func TestTrackStopsAtCorruptFrameKeepingFields(t *testing.T) {
+	dir := synthFixture(t)
+	os.WriteFile(filepath.Join(dir, "frames", "kirsch_0002.png"), []byte("\x89PNG broken"), 0o644)
+	out := t.TempDir()
+	_, err := run(t, "track", "--images", filepath.Join(dir, "frames"), "--subset", "15", "--step", "8", "--out", out)
+	if err == nil || !strings.Contains(err.Error(), "frame 2") || !strings.Contains(err.Error(), "kirsch_0002.png") {
+		t.Fatalf("error %v should name frame 2 and its file", err)
+	}
+	for _, name := range []string{"kirsch_0000", "kirsch_0001"} {
+		if _, err := runfolder.ReadField(runfolder.FieldPath(out, name)); err != nil {
+			t.Errorf("field of %s lost: %v", name, err)
+		}
+	}
+}
+
+// A textureless frame gives low-texture points, not a panic or an error.
+func TestTrackTexturelessImage(t *testing.T) {
+	dir := t.TempDir()
+	if _, err := run(t, "synth", "--field", "translation", "--size", "64x48", "--frames", "2", "--coverage", "0.0001", "--out", dir); err != nil {
+		t.Fatal(err)
+	}
+	out := t.TempDir()
+	if _, err := run(t, "track", "--images", filepath.Join(dir, "frames"), "--subset", "11", "--step", "8", "--out", out); err != nil {
+		t.Fatal(err)
+	}
+	f, err := runfolder.ReadField(runfolder.FieldPath(out, "translation_0001"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	low := 0
+	for _, p := range f.Points {
+		if p.Status == subset.LowTexture {
+			low++
+		}
+		if p.Valid() {
+			t.Fatalf("point %+v measured on a blank face", p)
+		}
+	}
+	if low == 0 {
+		t.Error("no point reported low-texture on a blank face")
+	}
+}
