@@ -8,7 +8,10 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/dic"
 	"spallscope/dic/frames"
+	"spallscope/dic/region"
+	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
 )
 
@@ -45,13 +48,41 @@ a summary. A demo folder that is already complete is reused.`,
 			if err != nil {
 				return err
 			}
+			var mask region.Layout
+			for _, o := range sc.Openings {
+				mask.Exclude = append(mask.Exclude, o)
+			}
+			m, err := mask.Rasterise(ref.Width, ref.Height)
+			if err != nil {
+				return err
+			}
+			tracker, err := dic.NewTracker(ref, 0, m, dic.Settings{Subset: 21, Step: 8})
+			if err != nil {
+				return err
+			}
+			runDir := filepath.Join(out, "run")
+			prog := newRateLine(cmd, "demo: track", seq.Len(), tracker.Grid().Len())
+			check := sc.Fields[1].StartFrame - 1 // last frame before any damage
+			var acc synth.Accuracy
+			rec := runfolder.TrackRecord{Tool: "spallscope " + version, Images: filepath.Join(dir, synth.FramesDir), Reference: "0"}
+			if _, err := runfolder.Track(runDir, seq, tracker, rec, func(n int, f *dic.Field) {
+				prog.done(n, f.Valid())
+				if f.Index == check {
+					acc = sc.Compare(f, check)
+				}
+			}); err != nil {
+				return err
+			}
 			peak := truth.Frames[sc.Load.PeakFrame]
 			o := cmd.OutOrStdout()
 			fmt.Fprintf(o, "demo test: %d frames of %dx%d px, %d-bit, in %s\n", seq.Len(), ref.Width, ref.Height, ref.Depth, filepath.Join(dir, synth.FramesDir))
 			fmt.Fprintf(o, "  load log: %s (peak %.1f MPa = %.0f kN at frame %s, t = %.0f s)\n",
 				filepath.Join(dir, synth.LoadLogCSV), peak.Stress, peak.Force, peak.Name, peak.Time)
 			fmt.Fprintf(o, "  ground truth: %s and %s\n", filepath.Join(dir, synth.TruthFile), filepath.Join(dir, synth.TruthDir))
-			fmt.Fprintf(o, "  stages run: synthetic lab (tracking, strain, zones and report are not built yet)\n")
+			fmt.Fprintf(o, "  displacements: %s (%d points per frame, 21 px subsets, 8 px step)\n", filepath.Join(runDir, runfolder.FieldsDir), tracker.Grid().Len())
+			fmt.Fprintf(o, "  check against the exact field at frame %s (%.1f MPa, before damage): %d points, RMS error %.4f px, max %.4f px\n",
+				truth.Frames[check].Name, truth.Frames[check].Stress, acc.Points, acc.RMS, acc.Max)
+			fmt.Fprintf(o, "  stages run: synthetic lab, tracking (strain, zones and report are not built yet)\n")
 			fmt.Fprintf(o, "done in %.1f s\n", time.Since(start).Seconds())
 			return nil
 		},

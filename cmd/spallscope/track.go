@@ -2,10 +2,8 @@ package main
 
 import (
 	"fmt"
-	"os"
 	"path/filepath"
 	"strconv"
-	"time"
 
 	"github.com/spf13/cobra"
 
@@ -155,17 +153,6 @@ func (f *trackFlags) open() (frames.Sequence, *subset.Image, int, *region.Mask, 
 	return seq, ref, refIndex, mask, nil
 }
 
-// trackRecord is the run.json section the track stage writes.
-type trackRecord struct {
-	Tool      string       `json:"tool"`
-	Images    string       `json:"images"`
-	Reference string       `json:"reference"`
-	Settings  dic.Settings `json:"settings"`
-	Grid      dic.Grid     `json:"grid"`
-	Frames    []string     `json:"frames"`
-	Seconds   float64      `json:"seconds"`
-}
-
 func newTrackCmd() *cobra.Command {
 	var tf trackFlags
 	var out string
@@ -228,33 +215,13 @@ read stops the run with an error naming it and keeps the fields written.`,
 			if err != nil {
 				return err
 			}
-			if err := os.MkdirAll(filepath.Join(out, runfolder.FieldsDir), 0o755); err != nil {
-				return err
-			}
-			start := time.Now()
-			rec := trackRecord{Tool: "spallscope " + version, Images: tf.images, Reference: tf.ref,
-				Settings: tracker.Settings(), Grid: tracker.Grid()}
+			rec := runfolder.TrackRecord{Tool: "spallscope " + version, Images: tf.images, Reference: tf.ref}
 			if rec.Reference == "" {
 				rec.Reference = "0"
 			}
 			prog := newRateLine(cmd, "track", seq.Len(), tracker.Grid().Len())
-			for i := 0; i < seq.Len(); i++ {
-				img, err := seq.Read(i)
-				if err != nil {
-					return fmt.Errorf("track stopped; fields of frames before %d are in %s: %w", i, out, err)
-				}
-				field, err := tracker.Track(img, i, seq.Name(i))
-				if err != nil {
-					return err
-				}
-				if err := runfolder.WriteField(runfolder.FieldPath(out, seq.Name(i)), field); err != nil {
-					return err
-				}
-				rec.Frames = append(rec.Frames, seq.Name(i))
-				prog.done(i+1, field.Valid())
-			}
-			rec.Seconds = time.Since(start).Seconds()
-			if err := runfolder.SetSection(out, "track", rec); err != nil {
+			rec, err = runfolder.Track(out, seq, tracker, rec, func(n int, f *dic.Field) { prog.done(n, f.Valid()) })
+			if err != nil {
 				return err
 			}
 			fmt.Fprintf(cmd.OutOrStdout(), "tracked %d frames, %d points each, in %.1f s: %s\n",

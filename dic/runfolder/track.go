@@ -1,0 +1,55 @@
+package runfolder
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"time"
+
+	"spallscope/dic"
+	"spallscope/dic/frames"
+)
+
+// TrackRecord is the run.json section written by the track stage.
+type TrackRecord struct {
+	Tool      string       `json:"tool"`
+	Images    string       `json:"images"`
+	Reference string       `json:"reference"`
+	Settings  dic.Settings `json:"settings"`
+	Grid      dic.Grid     `json:"grid"`
+	Frames    []string     `json:"frames"`
+	Seconds   float64      `json:"seconds"`
+}
+
+// Track runs tracker over every frame of seq and writes each field to
+// dir/fields/<frame>.csv as soon as it is done, then the "track" section
+// of dir/run.json (rec, completed with frames and time). progress, if not
+// nil, is called after each frame with the frame count and the field. A
+// frame that cannot be read stops the stage with an error naming it; the
+// fields already written stay.
+func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec TrackRecord, progress func(done int, f *dic.Field)) (TrackRecord, error) {
+	if err := os.MkdirAll(filepath.Join(dir, FieldsDir), 0o755); err != nil {
+		return rec, err
+	}
+	start := time.Now()
+	rec.Settings, rec.Grid, rec.Frames = tracker.Settings(), tracker.Grid(), nil
+	for i := 0; i < seq.Len(); i++ {
+		img, err := seq.Read(i)
+		if err != nil {
+			return rec, fmt.Errorf("track stopped; the fields of frames before %d are in %s: %w", i, filepath.Join(dir, FieldsDir), err)
+		}
+		field, err := tracker.Track(img, i, seq.Name(i))
+		if err != nil {
+			return rec, err
+		}
+		if err := WriteField(FieldPath(dir, seq.Name(i)), field); err != nil {
+			return rec, err
+		}
+		rec.Frames = append(rec.Frames, seq.Name(i))
+		if progress != nil {
+			progress(i+1, field)
+		}
+	}
+	rec.Seconds = time.Since(start).Seconds()
+	return rec, SetSection(dir, "track", rec)
+}
