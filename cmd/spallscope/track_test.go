@@ -130,3 +130,45 @@ func TestTrackTexturelessImage(t *testing.T) {
 		t.Error("no point reported low-texture on a blank face")
 	}
 }
+
+// strain after track: one strain file per frame with the contract's
+// header (mm columns with a scale), the VSG in run.json, and the noise
+// floor from static frames; a bad window is a clear error.
+func TestStrainAfterTrack(t *testing.T) {
+	dir := synthFixture(t)
+	out := filepath.Join(t.TempDir(), "run")
+	if _, err := run(t, "track", "--images", filepath.Join(dir, "frames"), "--subset", "15", "--step", "4", "--out", out); err != nil {
+		t.Fatal(err)
+	}
+	msg, err := run(t, "strain", "--fields", out, "--window", "5", "--scale", "0.1", "--static", "2")
+	if err != nil {
+		t.Fatal(err)
+	}
+	// VSG = (5 − 1)·4 + 15 = 31 px (iDICs Good Practices Guide definition).
+	if !strings.Contains(msg, "VSG 31 px (3.10 mm)") || !strings.Contains(msg, "resolution from") {
+		t.Errorf("summary: %q", msg)
+	}
+	sf, err := runfolder.ReadStrain(runfolder.StrainPath(out, "kirsch_0002"))
+	if err != nil || sf.Valid() == 0 {
+		t.Fatalf("strain file: %v, %v valid", err, sf)
+	}
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--window", "4"}, "strain window 4"},
+		{[]string{"--window", "99"}, "larger than the"},
+		{[]string{"--measure", "true"}, `strain measure "true"`},
+	} {
+		if _, err := run(t, append([]string{"strain", "--fields", out}, c.args...)...); err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%v: %v, want %q", c.args, err, c.want)
+		}
+	}
+	if _, err := run(t, "strain", "--fields", filepath.Join(out, "nothing")); err == nil || !strings.Contains(err.Error(), "nothing") {
+		t.Errorf("missing run folder: %v", err)
+	}
+	os.WriteFile(runfolder.FieldPath(out, "kirsch_0001"), []byte(runfolder.FieldHeader+"\n0,0,1,x,0,0,0,0,1,1,converged\n"), 0o644)
+	if _, err := run(t, "strain", "--fields", out); err == nil || !strings.Contains(err.Error(), "kirsch_0001.csv line 2 column v") {
+		t.Errorf("malformed field file: %v", err)
+	}
+}

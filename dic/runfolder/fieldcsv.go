@@ -29,14 +29,19 @@ func FieldPath(dir, frame string) string { return filepath.Join(dir, FieldsDir, 
 // row-major order: reference position (px), displacement (px), gradients,
 // ZNCC, IC-GN iterations and status. Points without a measurement keep
 // their row with NaN values and their status; the ZNCC of a point that
-// decorrelated is kept, since it tells how badly. The file is written
-// atomically.
-func WriteField(path string, f *dic.Field) error {
+// decorrelated is kept, since it tells how badly. With a known scale the
+// position and displacement in mm are appended (x_mm,y_mm,u_mm,v_mm). The
+// file is written atomically.
+func WriteField(path string, f *dic.Field, scale dic.Scale) error {
 	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
 		return err
 	}
 	return WriteAtomic(path, func(w *bufio.Writer) error {
-		w.WriteString(FieldHeader + "\n")
+		w.WriteString(FieldHeader)
+		if scale.Known() {
+			w.WriteString(",x_mm,y_mm,u_mm,v_mm")
+		}
+		w.WriteByte('\n')
 		buf := make([]byte, 0, 256)
 		for i := range f.Points {
 			p := &f.Points[i]
@@ -61,6 +66,13 @@ func WriteField(path string, f *dic.Field) error {
 			buf = strconv.AppendInt(buf, int64(p.Iterations), 10)
 			buf = append(buf, ',')
 			buf = append(buf, p.Status.String()...)
+			if scale.Known() {
+				u, v := p.U()
+				for _, q := range [...]float64{float64(p.X), float64(p.Y), u, v} {
+					buf = append(buf, ',')
+					buf = strconv.AppendFloat(buf, scale.MM(q), 'g', 8, 64)
+				}
+			}
 			buf = append(buf, '\n')
 			if _, err := w.Write(buf); err != nil {
 				return err
@@ -81,6 +93,7 @@ func ReadField(path string) (*dic.Field, error) {
 	defer fh.Close()
 	r := csv.NewReader(fh)
 	r.ReuseRecord = true
+	r.FieldsPerRecord = -1
 	head, err := r.Read()
 	if err != nil {
 		return nil, fmt.Errorf("field %s: reading header: %w", path, err)
@@ -97,6 +110,9 @@ func ReadField(path string) (*dic.Field, error) {
 		line, _ := r.FieldPos(0)
 		if err != nil {
 			return nil, fmt.Errorf("field %s: %w", path, err)
+		}
+		if len(rec) < 11 {
+			return nil, fmt.Errorf("field %s line %d: %d columns, expected at least 11", path, line, len(rec))
 		}
 		var p dic.Point
 		var v [9]float64

@@ -19,6 +19,8 @@ type TrackRecord struct {
 	Grid      dic.Grid     `json:"grid"`
 	Frames    []string     `json:"frames"`
 	Seconds   float64      `json:"seconds"`
+	// MMPerPx is the image scale when known (0: results in px only).
+	MMPerPx dic.Scale `json:"mm_per_px,omitempty"`
 }
 
 // Track runs tracker over every frame of seq and writes each field to
@@ -42,7 +44,7 @@ func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec TrackRecor
 		if err != nil {
 			return rec, err
 		}
-		if err := WriteField(FieldPath(dir, seq.Name(i)), field); err != nil {
+		if err := WriteField(FieldPath(dir, seq.Name(i)), field, rec.MMPerPx); err != nil {
 			return rec, err
 		}
 		rec.Frames = append(rec.Frames, seq.Name(i))
