@@ -13,6 +13,7 @@ import (
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
+	"spallscope/strain"
 )
 
 func newDemoCmd() *cobra.Command {
@@ -73,6 +74,11 @@ a summary. A demo folder that is already complete is reused.`,
 			}); err != nil {
 				return err
 			}
+			win := strain.Window{Size: 7}
+			_, res, err := runfolder.Strain(runDir, win, 0, dic.Scale(sc.Specimen.MMPerPx), sc.Load.StartFrame+1, nil)
+			if err != nil {
+				return err
+			}
 			peak := truth.Frames[sc.Load.PeakFrame]
 			o := cmd.OutOrStdout()
 			fmt.Fprintf(o, "demo test: %d frames of %dx%d px, %d-bit, in %s\n", seq.Len(), ref.Width, ref.Height, ref.Depth, filepath.Join(dir, synth.FramesDir))
@@ -82,7 +88,10 @@ a summary. A demo folder that is already complete is reused.`,
 			fmt.Fprintf(o, "  displacements: %s (%d points per frame, 21 px subsets, 8 px step)\n", filepath.Join(runDir, runfolder.FieldsDir), tracker.Grid().Len())
 			fmt.Fprintf(o, "  check against the exact field at frame %s (%.1f MPa, before damage): %d points, RMS error %.4f px, max %.4f px\n",
 				truth.Frames[check].Name, truth.Frames[check].Stress, acc.Points, acc.RMS, acc.Max)
-			fmt.Fprintf(o, "  stages run: synthetic lab, tracking (strain, zones and report are not built yet)\n")
+			fmt.Fprintf(o, "  strain: %s (window %d points, VSG %d px = %.1f mm)\n", filepath.Join(runDir, runfolder.StrainDir), res.Window, res.VSG, res.VSGmm)
+			fmt.Fprintf(o, "  resolution from %d static frames: u %.4f px (%.1f µm), exx %.0f µε, eyy %.0f µε, e_eq %.0f µε\n",
+				res.Frames, res.U, 1000*res.UMM, res.Exx*1e6, res.Eyy*1e6, res.Eeq*1e6)
+			fmt.Fprintf(o, "  stages run: synthetic lab, tracking, strain (zones, onset and report are not built yet)\n")
 			fmt.Fprintf(o, "done in %.1f s\n", time.Since(start).Seconds())
 			return nil
 		},

@@ -9,7 +9,8 @@ package synth
 // texture that no longer correlates with the reference.
 //
 // The camera sees the face at 0.2 mm/px (512×512 px) and takes one photo
-// every 2 s; the frame's log runs at 10 Hz with its clock 3.5 s ahead.
+// every 2 s, the first four before loading starts (static shots for the
+// noise floor); the frame's log runs at 10 Hz with its clock 3.5 s ahead.
 func DemoBlock() *Scenario {
 	const (
 		size   = 512
@@ -17,13 +18,14 @@ func DemoBlock() *Scenario {
 		radius = 60.0 // 12 mm
 		frames = 72
 		peak   = 50
+		static = 4 // static shots before loading, for the noise floor
 	)
 	sc := &Scenario{
 		Name: "demo", Width: size, Height: size, Frames: frames, FPS: 0.5,
 		Pattern:  Pattern{Radius: 2.2, Coverage: 0.5, Seed: 20261201},
 		Camera:   Camera{Depth: 8, Noise: 1.5, Oversample: 2, Seed: 77},
 		Openings: []Opening{Circle(cx, cy, radius)},
-		Load: Load{PeakStress: 32, PeakFrame: peak, Residual: 0.55, LogRate: 10,
+		Load: Load{StartFrame: static - 1, PeakStress: 32, PeakFrame: peak, Residual: 0.55, LogRate: 10,
 			ClockOffset: 3.5, StrokeRate: 0.002},
 		Specimen:  Specimen{MMPerPx: 0.2, WidthMM: 100, ThicknessMM: 50},
 		TruthStep: 16,

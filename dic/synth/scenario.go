@@ -30,6 +30,7 @@ type FieldSpec struct {
 	SineSweep   *SineSweep     `json:"sine_sweep,omitempty"`
 	Crack       *Crack         `json:"crack,omitempty"`
 	Band        *ShearBand     `json:"band,omitempty"`
+	Disc        *BrazilianDisc `json:"brazilian_disc,omitempty"`
 	Drive       Drive          `json:"drive"`
 	StartFrame  int            `json:"start_frame,omitempty"`
 	FullFrame   int            `json:"full_frame,omitempty"`
@@ -42,6 +43,7 @@ func (f FieldSpec) Kind() string {
 		"translation": f.Translation != nil, "rotation": f.Rotation != nil,
 		"strain": f.Strain != nil, "kirsch": f.Kirsch != nil,
 		"sine_sweep": f.SineSweep != nil, "crack": f.Crack != nil, "band": f.Band != nil,
+		"brazilian_disc": f.Disc != nil,
 	} {
 		if set {
 			kind, n = name, n+1
@@ -69,16 +71,22 @@ func (f FieldSpec) scalable() Scalable {
 		return *f.Crack
 	case f.Band != nil:
 		return *f.Band
+	case f.Disc != nil:
+		return *f.Disc
 	}
 	return nil
 }
 
-// Load is the nominal-stress history of the test: a smooth rise
-// σ = P·x(1.5 − 0.5x²), x = t/t_peak, which reaches the peak P with zero
+// Load is the nominal-stress history of the test: zero up to StartFrame,
+// then a smooth rise σ = P·x(1.5 − 0.5x²), x = (t − t_start)/(t_peak −
+// t_start), which reaches the peak P with zero
 // slope at PeakFrame, then a linear drop to Residual·P at the last frame
 // (post-peak softening). With PeakFrame at or after the last frame there is
 // no drop.
 type Load struct {
+	// StartFrame is the last frame before loading starts: frames up to it
+	// are static shots at zero load (for the noise floor).
+	StartFrame int     `json:"start_frame,omitempty"`
 	PeakStress float64 `json:"peak_stress_MPa"`
 	PeakFrame  int     `json:"peak_frame"`
 	Residual   float64 `json:"residual,omitempty"`
@@ -157,7 +165,7 @@ func (sc *Scenario) Validate() error {
 	}
 	for i, f := range sc.Fields {
 		if f.Kind() == "" {
-			errs = append(errs, fmt.Errorf("fields[%d]: set exactly one of translation, rotation, strain, kirsch, sine_sweep, crack, band", i))
+			errs = append(errs, fmt.Errorf("fields[%d]: set exactly one of translation, rotation, strain, kirsch, sine_sweep, crack, band, brazilian_disc", i))
 		}
 		switch f.Drive {
 		case DriveLoad, DriveRamp:
@@ -171,9 +179,15 @@ func (sc *Scenario) Validate() error {
 		if k := f.Kirsch; k != nil && (!(k.Radius > 0) || !(k.E > 0) || k.Nu < 0 || k.Nu >= 0.5) {
 			errs = append(errs, fmt.Errorf("fields[%d]: kirsch needs radius > 0, E > 0 and 0 ≤ ν < 0.5", i))
 		}
+		if d := f.Disc; d != nil && (!(d.Radius > 0) || !(d.Thickness > 0) || !(d.MMPerPx > 0) || !(d.E > 0) || d.Nu < 0 || d.Nu >= 0.5) {
+			errs = append(errs, fmt.Errorf("fields[%d]: brazilian_disc needs radius, thickness, mm_per_px and E > 0 and 0 ≤ ν < 0.5", i))
+		}
 		if f.Drive == DriveLoad && !(sc.Load.PeakStress > 0) {
 			errs = append(errs, fmt.Errorf("fields[%d]: drive load needs load.peak_stress_MPa > 0", i))
 		}
+	}
+	if sc.Load.StartFrame < 0 || (sc.Frames > 1 && sc.Load.StartFrame >= sc.Frames-1) {
+		errs = append(errs, fmt.Errorf("load: start_frame %d, expected 0 to %d", sc.Load.StartFrame, sc.Frames-2))
 	}
 	if sc.Load.PeakStress < 0 || sc.Load.Residual < 0 || sc.Load.Residual > 1 {
 		errs = append(errs, fmt.Errorf("load: peak %g MPa and residual %g, expected peak ≥ 0 and residual in [0, 1]", sc.Load.PeakStress, sc.Load.Residual))
@@ -196,16 +210,17 @@ func (sc *Scenario) Time(frame int) float64 { return float64(frame) / sc.FPS }
 // camera time t.
 func (sc *Scenario) StressAt(t float64) float64 {
 	l := sc.Load
-	if l.PeakStress == 0 || t <= 0 {
+	t0 := sc.Time(l.StartFrame)
+	if l.PeakStress == 0 || t <= t0 {
 		return 0
 	}
 	last := sc.Time(sc.Frames - 1)
 	tp := sc.Time(l.PeakFrame)
-	if l.PeakFrame <= 0 || l.PeakFrame >= sc.Frames-1 {
+	if l.PeakFrame <= l.StartFrame || l.PeakFrame >= sc.Frames-1 {
 		tp = last
 	}
 	if t <= tp {
-		x := t / tp
+		x := (t - t0) / (tp - t0)
 		return l.PeakStress * x * (1.5 - 0.5*x*x)
 	}
 	if tp >= last {

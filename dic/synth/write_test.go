@@ -99,8 +99,13 @@ func TestLoadCurve(t *testing.T) {
 	if s := sc.Stress(sc.Frames - 1); math.Abs(s-32*0.55) > 1e-9 {
 		t.Errorf("final stress %g, want %g", s, 32*0.55)
 	}
-	for f := 1; f < sc.Frames; f++ {
-		if (f <= p) != (sc.Stress(f) >= sc.Stress(f-1)) {
+	for f := 0; f <= sc.Load.StartFrame; f++ {
+		if sc.Stress(f) != 0 {
+			t.Errorf("static frame %d has stress %g", f, sc.Stress(f))
+		}
+	}
+	for f := sc.Load.StartFrame + 2; f < sc.Frames; f++ {
+		if (f <= p) != (sc.Stress(f) > sc.Stress(f-1)) {
 			t.Errorf("frame %d: stress %g after %g, rising until %d", f, sc.Stress(f), sc.Stress(f-1), p)
 		}
 	}
