@@ -21,6 +21,10 @@ type trackFlags struct {
 	order                      int
 	interp, reference          string
 	s                          dic.Settings
+	timesCSV                   string
+	fps                        float64
+	mtime                      bool
+	scale                      scaleFlags
 }
 
 func (f *trackFlags) register(cmd *cobra.Command) {
@@ -44,6 +48,36 @@ func (f *trackFlags) register(cmd *cobra.Command) {
 	fl.IntVar(&f.s.EdgeGuard, "edge-guard", d.EdgeGuard, "px along the rim of exclusions left out of subsets (negative: none)")
 	fl.Float64Var(&f.s.MinValidFraction, "min-valid", d.MinValidFraction, "smallest measured fraction of a subset's pixels")
 	fl.IntVar(&f.s.Workers, "workers", 0, "goroutines (default: all cores); results do not depend on it")
+	fl.StringVar(&f.timesCSV, "times", "", "frame times: CSV with columns frame,time_s")
+	fl.Float64Var(&f.fps, "fps", 0, "frame times: fixed rate in frames per second (default for video: its stated rate)")
+	fl.BoolVar(&f.mtime, "mtime", false, "frame times: file modification times")
+	f.scale.register(cmd)
+}
+
+// times returns the frame times the flags ask for (nil if none).
+func (f *trackFlags) times(seq frames.Sequence) ([]float64, error) {
+	n := 0
+	for _, set := range []bool{f.timesCSV != "", f.fps > 0, f.mtime} {
+		if set {
+			n++
+		}
+	}
+	switch {
+	case n > 1:
+		return nil, fmt.Errorf("give one of --times, --fps and --mtime")
+	case f.fps < 0:
+		return nil, fmt.Errorf("--fps %g, expected a positive frame rate", f.fps)
+	case f.timesCSV != "":
+		return frames.ReadTimes(f.timesCSV, seq)
+	case f.fps > 0:
+		return frames.FixedRate(seq.Len(), f.fps, 0)
+	case f.mtime:
+		return frames.ModTimes(seq)
+	}
+	if r, ok := frames.VideoFPS(seq); ok {
+		return frames.FixedRate(seq.Len(), r, 0)
+	}
+	return nil, nil
 }
 
 // settings completes the settings from the flags that need parsing.
@@ -215,7 +249,13 @@ read stops the run with an error naming it and keeps the fields written.`,
 			if err != nil {
 				return err
 			}
-			rec := runfolder.TrackRecord{Tool: "spallscope " + version, Images: tf.images, Reference: tf.ref}
+			rec := runfolder.TrackRecord{Tool: "spallscope " + version, Images: tf.images, Reference: tf.ref, Exclude: tf.exclude}
+			if rec.Times, err = tf.times(seq); err != nil {
+				return err
+			}
+			if rec.MMPerPx, err = tf.scale.scale(); err != nil {
+				return err
+			}
 			if rec.Reference == "" {
 				rec.Reference = "0"
 			}

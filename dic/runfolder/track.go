@@ -21,17 +21,25 @@ type TrackRecord struct {
 	Seconds   float64      `json:"seconds"`
 	// MMPerPx is the image scale when known (0: results in px only).
 	MMPerPx dic.Scale `json:"mm_per_px,omitempty"`
+	// Times are the frames' camera times in s (nil when not known).
+	Times []float64 `json:"times_s,omitempty"`
+	// Exclude lists the excluded shapes as given (openings and the like).
+	Exclude []string `json:"exclude,omitempty"`
 }
 
 // Track runs tracker over every frame of seq and writes each field to
 // dir/fields/<frame>.csv as soon as it is done, then the "track" section
 // of dir/run.json (rec, completed with frames and time). progress, if not
-// nil, is called after each frame with the frame count and the field. A
+// nil, is called after each frame with the frame count and the field.
+// rec.Times, when set, must hold one time per frame. A
 // frame that cannot be read stops the stage with an error naming it; the
 // fields already written stay.
 func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec TrackRecord, progress func(done int, f *dic.Field)) (TrackRecord, error) {
 	if err := os.MkdirAll(filepath.Join(dir, FieldsDir), 0o755); err != nil {
 		return rec, err
+	}
+	if rec.Times != nil && len(rec.Times) != seq.Len() {
+		return rec, fmt.Errorf("track: %d frame times for %d frames", len(rec.Times), seq.Len())
 	}
 	start := time.Now()
 	rec.Settings, rec.Grid, rec.Frames = tracker.Settings(), tracker.Grid(), nil

@@ -17,8 +17,8 @@ import (
 //
 // With 8-bit quantisation each photo also carries the rounding error, of
 // variance 1/12 level² when σ is a level or more (Widrow's quantisation
-// theorem), so the estimate is √(σ_sensor² + 1/12): the noise the
-// correlation actually sees.
+// theorem; Widrow & Kollár 2008, Quantization Noise, from memory), so the
+// estimate is √(σ_sensor² + 1/12): the noise the correlation actually sees.
 func staticPairNoise(a, b *subset.Image) (sigma float64, n int) {
 	clipped := func(v float32, m *subset.Image) bool {
 		return m.Depth != 0 && (v <= 0 || float64(v) >= m.MaxLevel())

@@ -68,6 +68,9 @@ func (o Options) validate(img *subset.Image) error {
 		if !o.Static.SameSize(img) {
 			return fmt.Errorf("static image is %dx%d, the image %dx%d: expected the same size", o.Static.Width, o.Static.Height, img.Width, img.Height)
 		}
+		if o.Static.Depth != img.Depth {
+			return fmt.Errorf("static image has bit depth %d, the image %d: expected the same camera settings", o.Static.Depth, img.Depth)
+		}
 		if len(o.Static.Pix) != o.Static.Width*o.Static.Height {
 			return fmt.Errorf("static %dx%d image has %d pixels", o.Static.Width, o.Static.Height, len(o.Static.Pix))
 		}

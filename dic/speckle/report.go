@@ -82,8 +82,8 @@ type Report struct {
 type SubsetNoise struct {
 	// Size is the subset side in px.
 	Size int `json:"subset_px"`
-	// Subsets is the number of subsets sampled.
-	Subsets int `json:"subsets"`
+	// Samples is the number of subsets sampled.
+	Samples int `json:"samples"`
 	// SSSIG is the median SSSIG of the subsets (gray levels² summed over
 	// the subset).
 	SSSIG float64 `json:"sssig_median"`

@@ -71,7 +71,7 @@ func subsetTable(t gradientTables, sizes []int, sigma, target float64) []SubsetN
 				vals = append(vals, t.sssig(x, y, r))
 			}
 		}
-		row := SubsetNoise{Size: size, Subsets: len(vals), SSSIG: median(vals)}
+		row := SubsetNoise{Size: size, Samples: len(vals), SSSIG: median(vals)}
 		if row.SSSIG > 0 {
 			row.PerGray = subset.PredictedNoise(1, row.SSSIG)
 			if sigma > 0 {

@@ -115,8 +115,10 @@ func (c Crack) At(x, y float64) Motion {
 
 // ShearBand is a continuous band of localized shear along the segment from
 // (X0, Y0) to (X1, Y1): material on the two sides slides past each other
-// along the band by up to Slip, u = (Slip/2)·tanh(d/HalfWidth)·p(ξ)·t, so the
-// shear strain inside the band is about Slip/(2·HalfWidth). The taper p is
+// along the band by up to Slip,
+// u = (Slip/2)·tanh(d/HalfWidth)·exp(−|d|/Decay)·p(ξ)·t, so the shear strain
+// inside the band is about Slip/(2·HalfWidth) and the slip fades away from
+// the band over Decay (default half the length). The taper p is
 // smooth: cos²(πξ/2L) from a mouth on a free surface (fading behind it as a
 // Gaussian of width HalfWidth), or sin²(πξ/L) for an Embedded band.
 // Scaled(g) grows the band's length and slip by g.
@@ -127,6 +129,7 @@ type ShearBand struct {
 	Y1        float64 `json:"y1_px"`
 	Slip      float64 `json:"slip_px"`
 	HalfWidth float64 `json:"half_width_px"`
+	Decay     float64 `json:"decay_px,omitempty"`
 	Embedded  bool    `json:"embedded,omitempty"`
 
 	seg *segment // cached geometry, set by Scaled
@@ -176,12 +179,27 @@ func (b ShearBand) At(x, y float64) Motion {
 	if p == 0 {
 		return Motion{}
 	}
+	decay := b.Decay
+	if decay <= 0 {
+		decay = seg.length / 2
+	}
+	if math.Abs(d) > 40*decay {
+		return Motion{}
+	}
 	th := math.Tanh(d / b.HalfWidth)
-	dth := (1 - th*th) / b.HalfWidth
-	a := b.Slip / 2 * th * p
-	// U = a·t; ∇a = (Slip/2)(th·p′·t + p·th′·n).
-	gx := b.Slip / 2 * (th*dp*seg.tx + p*dth*seg.nx)
-	gy := b.Slip / 2 * (th*dp*seg.ty + p*dth*seg.ny)
+	e := math.Exp(-math.Abs(d) / decay)
+	sgn := 1.0
+	if d < 0 {
+		sgn = -1
+	}
+	// T(d) = tanh(d/h)·exp(−|d|/L) and its derivative (continuous at 0,
+	// where tanh vanishes).
+	tt := th * e
+	dtt := (1-th*th)/b.HalfWidth*e - th*e*sgn/decay
+	a := b.Slip / 2 * tt * p
+	// U = a·t; ∇a = (Slip/2)(T·p′·t + p·T′·n).
+	gx := b.Slip / 2 * (tt*dp*seg.tx + p*dtt*seg.nx)
+	gy := b.Slip / 2 * (tt*dp*seg.ty + p*dtt*seg.ny)
 	return Motion{
 		U: a * seg.tx, V: a * seg.ty,
 		UX: seg.tx * gx, UY: seg.tx * gy,

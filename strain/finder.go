@@ -1,0 +1,146 @@
+package strain
+
+import (
+	"fmt"
+	"math"
+
+	"spallscope/dic"
+)
+
+// Frame is one frame's input to zone finding: its place in the test (time
+// and nominal stress from the load log, given as plain values) and its
+// strain and displacement fields.
+type Frame struct {
+	Index  int
+	Name   string
+	Time   float64
+	Stress float64 // MPa, compression positive; 0 without a load log
+	InSpan bool    // the load log covers the frame's time
+	Strain *Field
+	Disp   *dic.Field
+}
+
+// FinderConfig sets up zone finding.
+type FinderConfig struct {
+	Indicators  []Indicator
+	Thresholds  Thresholds
+	Sectors     Sectors
+	Scale       dic.Scale
+	Persistence int     // frames a zone must last to count as an onset (default 3)
+	Touch       float64 // px within which a zone reaches a wall (default 2 grid steps)
+	// SubsetHalf is half the correlation subset in px (default 10): points
+	// left unmeasured within reach of a subset of an opening are the
+	// opening's shadow, not a free edge.
+	SubsetHalf int
+}
+
+// Finder finds localized zones frame by frame, keeps their identities
+// across frames and times their onsets. Frames must be added in order.
+type Finder struct {
+	cfg      FinderConfig
+	baseline Baseline
+	ref      *dic.Field
+	geo      *geometry
+	grid     dic.Grid
+	nextID   int
+	prev     map[Indicator][]Zone
+	frames   []Frame // without fields
+	zones    []Zone  // every zone of every frame, in order
+}
+
+// NewFinder prepares zone finding on the grid of ref, the reference
+// frame's displacement field (which points were measured), with the
+// elastic baseline fitted on the calibration frames (see FitBaseline).
+func NewFinder(cfg FinderConfig, ref *dic.Field, baseline Baseline) (*Finder, error) {
+	if len(cfg.Indicators) == 0 {
+		cfg.Indicators = []Indicator{MaxPrincipal, MaxShear, Decorrelation}
+	}
+	if cfg.Persistence == 0 {
+		cfg.Persistence = 3
+	}
+	if cfg.Persistence < 1 {
+		return nil, fmt.Errorf("persistence %d frames, expected at least 1", cfg.Persistence)
+	}
+	if err := cfg.Sectors.Validate(); err != nil {
+		return nil, err
+	}
+	if cfg.Touch == 0 {
+		cfg.Touch = 2 * float64(ref.Grid.Step)
+	}
+	f := &Finder{cfg: cfg, baseline: baseline, ref: ref, grid: ref.Grid, prev: map[Indicator][]Zone{}}
+	if cfg.SubsetHalf == 0 {
+		cfg.SubsetHalf = 10
+	}
+	shadow := math.Sqrt2*float64(cfg.SubsetHalf) + cfg.Touch
+	f.geo = newGeometry(cfg.Sectors, ref.Grid, ref, cfg.Touch, shadow)
+	return f, nil
+}
+
+// Add finds the zones of the next frame, gives them stable IDs, and
+// returns them.
+func (f *Finder) Add(fr Frame) ([]Zone, error) {
+	if fr.Strain == nil || fr.Strain.Grid != f.grid || (fr.Disp != nil && fr.Disp.Grid != f.grid) {
+		return nil, fmt.Errorf("frame %s: its fields are not on the reference grid", fr.Name)
+	}
+	var out []Zone
+	for _, ind := range f.cfg.Indicators {
+		marked, value := f.cfg.Thresholds.marks(ind, f.baseline, fr.Strain, fr.Disp, f.ref, fr.Stress)
+		zones := f.cfg.Thresholds.describe(ind, f.grid, marked, value, fr.Index, f.geo, f.cfg.Scale)
+		f.identify(zones, f.prev[ind])
+		f.prev[ind] = zones
+		out = append(out, zones...)
+	}
+	f.zones = append(f.zones, out...)
+	fr.Strain, fr.Disp = nil, nil
+	f.frames = append(f.frames, fr)
+	return out, nil
+}
+
+// identify gives each zone the ID of the previous frame's zone it overlaps
+// most; when two zones claim one ID the larger overlap keeps it (a split:
+// the bigger part carries on), and a zone that overlaps none gets a new ID.
+func (f *Finder) identify(zones, prev []Zone) {
+	owner := map[int]int{} // cell → previous zone ID
+	for _, z := range prev {
+		for _, c := range z.Cells {
+			owner[c] = z.ID
+		}
+	}
+	claim := make([]int, len(zones))
+	overlap := make([]int, len(zones))
+	for k, z := range zones {
+		count := map[int]int{}
+		for _, c := range z.Cells {
+			if id, ok := owner[c]; ok {
+				count[id]++
+			}
+		}
+		claim[k] = -1
+		for id, n := range count {
+			if n > overlap[k] || (n == overlap[k] && id < claim[k]) {
+				claim[k], overlap[k] = id, n
+			}
+		}
+	}
+	for k := range zones {
+		if claim[k] >= 0 {
+			for j := range zones {
+				if j != k && claim[j] == claim[k] && (overlap[j] > overlap[k] || (overlap[j] == overlap[k] && j < k)) {
+					claim[k] = -1 // the other part keeps the ID
+					break
+				}
+			}
+		}
+		if claim[k] < 0 {
+			f.nextID++
+			claim[k] = f.nextID
+		}
+		zones[k].ID = claim[k]
+	}
+}
+
+// Zones returns every zone found so far, frame by frame.
+func (f *Finder) Zones() []Zone { return f.zones }
+
+// Frames returns the frames added so far (without their fields).
+func (f *Finder) Frames() []Frame { return f.frames }

@@ -1,0 +1,149 @@
+package strain
+
+import (
+	"slices"
+)
+
+// Onset classes.
+const (
+	Localization = "localization"
+	Decorrelated = "decorrelation"
+	ThroughGoing = "through-going"
+)
+
+// Onset is when and where one kind of fracturing began: the first frame of
+// a zone that then lasted Persistence frames in a row.
+type Onset struct {
+	Opening   int       `json:"opening_index"` // −1: away from every opening
+	Sector    Sector    `json:"sector"`
+	Class     string    `json:"class"`
+	Indicator Indicator `json:"indicator"`
+	Frame     int       `json:"frame_index"`
+	Name      string    `json:"frame"`
+	Time      float64   `json:"time_s"`
+	Stress    float64   `json:"stress_MPa"`
+	Percent   float64   `json:"percent_of_peak"`
+	InSpan    bool      `json:"in_load_log"`
+	Zone      int       `json:"zone"`
+	AreaMM2   float64   `json:"area_mm2,omitempty"`
+	AreaPx2   float64   `json:"area_px2"`
+	Peak      float64   `json:"peak"`
+	Cx        float64   `json:"cx_px"`
+	Cy        float64   `json:"cy_px"`
+	// ByIndicator gives the onset frame of each indicator that fired for
+	// this place and class (the earliest is the onset).
+	ByIndicator map[Indicator]int `json:"frame_by_indicator"`
+	// Touches names the openings a through-going zone links.
+	Touches []int `json:"touches,omitempty"`
+}
+
+// Onsets times the onsets from the zones found so far: for each opening,
+// sector and class (localization, decorrelation), and for through-going
+// zones, the first frame of a zone (one ID) present in Persistence
+// consecutive frames, placed where it was first seen. peak is the peak
+// stress for the percent-of-peak figure (0 = none). Zones seen in the last
+// Persistence−1 frames cannot be confirmed and give no onset.
+func (f *Finder) Onsets(peak float64) []Onset {
+	p := f.cfg.Persistence
+	type run struct {
+		first, last int // frame positions
+		zone        Zone
+		through     bool
+	}
+	pos := map[int]int{} // frame index → position
+	for k, fr := range f.frames {
+		pos[fr.Index] = k
+	}
+	// Runs of consecutive frames per zone ID (and per "through" state).
+	runs := map[string]map[int]*run{}
+	var done []run
+	key := func(z Zone, through bool) string {
+		if through {
+			return string(z.Indicator) + "/through"
+		}
+		return string(z.Indicator)
+	}
+	for _, z := range f.zones {
+		for _, through := range []bool{false, true} {
+			if through && !z.Through() {
+				continue
+			}
+			k := key(z, through)
+			if runs[k] == nil {
+				runs[k] = map[int]*run{}
+			}
+			at := pos[z.Frame]
+			r := runs[k][z.ID]
+			if r != nil && r.last == at-1 {
+				r.last = at
+				continue
+			}
+			if r != nil {
+				done = append(done, *r)
+			}
+			runs[k][z.ID] = &run{first: at, last: at, zone: z, through: through}
+		}
+	}
+	for _, m := range runs {
+		for _, r := range m {
+			done = append(done, *r)
+		}
+	}
+	type place struct {
+		op    int
+		sec   Sector
+		class string
+	}
+	best := map[place]*Onset{}
+	var order []place
+	rank := func(ind Indicator) int { return slices.Index(Indicators, ind) }
+	for _, r := range done {
+		if r.last-r.first+1 < p {
+			continue
+		}
+		z := r.zone
+		pl := place{z.Opening, z.Sector, z.Indicator.Class()}
+		if r.through {
+			pl = place{firstOf(z.Touches), "through", ThroughGoing}
+		}
+		fr := f.frames[r.first]
+		o := best[pl]
+		if o == nil {
+			order = append(order, pl)
+		}
+		if o == nil || fr.Index < o.Frame || (fr.Index == o.Frame && rank(z.Indicator) < rank(o.Indicator)) {
+			by := map[Indicator]int{}
+			if o != nil {
+				by = o.ByIndicator
+			}
+			o = &Onset{Opening: pl.op, Sector: pl.sec, Class: pl.class, Indicator: z.Indicator, Frame: fr.Index, Name: fr.Name,
+				Time: fr.Time, Stress: fr.Stress, InSpan: fr.InSpan, Zone: z.ID, AreaMM2: z.AreaMM2, AreaPx2: z.AreaPx2,
+				Peak: z.Peak, Cx: z.Cx, Cy: z.Cy, ByIndicator: by, Touches: z.Touches}
+			if peak > 0 {
+				o.Percent = 100 * fr.Stress / peak
+			}
+			best[pl] = o
+		}
+		if at, ok := o.ByIndicator[z.Indicator]; !ok || fr.Index < at {
+			o.ByIndicator[z.Indicator] = fr.Index
+		}
+	}
+	out := make([]Onset, 0, len(order))
+	for _, pl := range order {
+		out = append(out, *best[pl])
+	}
+	slices.SortStableFunc(out, func(a, b Onset) int {
+		if a.Frame != b.Frame {
+			return a.Frame - b.Frame
+		}
+		return rank(a.Indicator) - rank(b.Indicator)
+	})
+	return out
+}
+
+func firstOf(xs []int) int {
+	if len(xs) == 0 {
+		return -1
+	}
+	return xs[0]
+}

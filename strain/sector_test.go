@@ -1,0 +1,36 @@
+package strain
+
+import (
+	"testing"
+
+	"spallscope/dic/region"
+)
+
+// Sector geometry (the names of the trade, common practice, no source):
+// under a vertical load the crown is above an opening (smaller y, the
+// image is y-down), the invert below, the sidewalls left and right; the
+// rock between two openings side by side is pillar.
+func TestClassifySectors(t *testing.T) {
+	s := Sectors{Openings: []Opening{{Name: "A", Shape: region.Circle(200, 200, 50)}, {Name: "B", Shape: region.Circle(400, 200, 50)}}}
+	cases := []struct {
+		x, y float64
+		op   int
+		want Sector
+	}{
+		{200, 130, 0, Crown}, {200, 270, 0, Invert}, {130, 200, 0, LeftSidewall},
+		{300, 200, 0, Pillar}, {300, 230, 0, Pillar}, {470, 200, 1, RightSidewall},
+		{400, 120, 1, Crown}, {200, 20, -1, Other},
+		{245, 150, 0, Crown}, {255, 150, 0, RightSidewall}, // either side of the 45° line
+	}
+	for _, c := range cases {
+		op, sec := s.Classify(c.x, c.y)
+		if sec != c.want || (c.want != Pillar && op != c.op) {
+			t.Errorf("(%g,%g): opening %d sector %s, want %d %s", c.x, c.y, op, sec, c.op, c.want)
+		}
+	}
+	// A load axis turned to horizontal swaps crown and sidewall.
+	s.LoadAngleDeg = 180
+	if _, sec := s.Classify(130, 200); sec != Crown && sec != Invert {
+		t.Errorf("horizontal load: left of the opening is %s, want crown or invert", sec)
+	}
+}
