@@ -96,10 +96,11 @@ type Result struct {
 // correlation calculation without redundant computations", Experimental
 // Mechanics 53:1277–1289).
 //
-// The reference subset's intensities, gradients, steepest-descent images
-// and Hessian are computed once (Prepare); each iteration then only
-// samples the deformed image at the warped pixel positions, so an
-// iteration costs one interpolation and a few multiply-adds per pixel.
+// The reference subset's intensities, gradients, the sums of its
+// steepest-descent images and its Hessian are computed once (Prepare);
+// each iteration then only samples the deformed image at the warped pixel
+// positions, so an iteration costs one interpolation and a few
+// multiply-adds per pixel.
 //
 // A Solver owns all its scratch memory and does not allocate after
 // NewSolver. It is not safe for concurrent use: use one Solver per
@@ -108,20 +109,37 @@ type Solver struct {
 	cfg Config
 	np  int // number of shape parameters
 
-	// The prepared reference subset.
+	// The prepared reference subset. Its valid pixels are stored in
+	// row-major order, grouped in runs of consecutive pixels of one row.
 	ref    *Spline
 	status Status // outcome of the last Prepare
 	cx, cy float64
 	n      int       // valid pixels
-	offset []float64 // 2n local offsets (dx, dy)
+	runs   []run     // runs of valid pixels
+	square bool      // runs, dx and dy are those of the full square
+	dx, dy []float64 // n local offsets
 	fc     []float64 // n reference values minus fMean
-	jac    []float64 // n×np steepest-descent images
+	gx, gy []float64 // n reference gradients
 	fMean  float64
 	fNorm  float64 // ‖f - f̄‖
 	sumJ   [12]float64
 	sumJf  [12]float64  // Σ J·(f - f̄)
 	chol   [144]float64 // Cholesky factor of the Hessian, leading np×np
 	scale  [12]float64  // parameter scales for the rank test
+
+	// Scratch: the reference window (side² values and gradients), the
+	// stencil columns of centres, and the warped positions and deformed
+	// values of the current iteration (n each).
+	winV, winX, winY []float64
+	colV, colD       []float64
+	xs, ys, gs       []float64
+}
+
+// run is a maximal sequence of consecutive valid pixels in one subset row:
+// pixels k0 … k0+n-1 have offsets (dx0 + i, dy), i = 0 … n-1.
+type run struct {
+	k0, n   int
+	dx0, dy float64
 }
 
 // NewSolver returns a Solver for cfg. It panics if cfg.Validate fails.
@@ -131,13 +149,24 @@ func NewSolver(cfg Config) *Solver {
 	}
 	cfg = cfg.withDefaults()
 	side := 2*cfg.Radius + 1
+	area := side * side
 	np := cfg.Order.NumParams()
+	buf := make([]float64, 11*area+2*centreScratch(side))
+	next := func(m int) []float64 {
+		b := buf[:m:m]
+		buf = buf[m:]
+		return b
+	}
 	s := &Solver{
-		cfg:    cfg,
-		np:     np,
-		offset: make([]float64, 2*side*side),
-		fc:     make([]float64, side*side),
-		jac:    make([]float64, np*side*side),
+		cfg: cfg,
+		np:  np,
+		// A row of side pixels holds at most (side+1)/2 runs.
+		runs: make([]run, 0, side*((side+1)/2)),
+		dx:   next(area), dy: next(area),
+		fc: next(area), gx: next(area), gy: next(area),
+		winV: next(area), winX: next(area), winY: next(area),
+		xs: next(area), ys: next(area), gs: next(area),
+		colV: next(centreScratch(side)), colD: next(centreScratch(side)),
 	}
 	r := float64(cfg.Radius)
 	s.scale = [12]float64{1, r, r, 1, r, r, r * r / 2, r * r, r * r / 2, r * r / 2, r * r, r * r / 2}
@@ -177,34 +206,35 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	}
 	s.cx, s.cy = float64(x), float64(y)
 
-	// Intensities and gradients at the valid pixel centres; the
-	// steepest-descent images are filled in once the mean is known.
-	n := 0
-	var sum, sx, sy float64
-	for j := y - r; j <= y+r; j++ {
-		for i := x - r; i <= x+r; i++ {
-			if mask != nil && mask[j*ref.width+i] == 0 {
-				continue
-			}
-			v, gx, gy := ref.ValueGrad(float64(i), float64(j))
-			s.offset[2*n], s.offset[2*n+1] = float64(i-x), float64(j-y)
-			s.fc[n] = v
-			jac := s.jac[n*s.np : (n+1)*s.np]
-			jac[0], jac[3] = gx, gy // completed below
-			sum += v
-			sx += gx * gx
-			sy += gy * gy
-			n++
-		}
-	}
+	// Intensities and gradients at the pixel centres: straight into the
+	// subset arrays for a full square, else for the window and then
+	// gathered over the valid pixels.
 	side := 2*r + 1
+	var n int
+	if mask == nil {
+		n = side * side
+		ref.centres(x-r, y-r, side, s.fc, s.gx, s.gy, s.colV, s.colD)
+		if !s.square {
+			s.setSquare()
+		}
+	} else {
+		ref.centres(x-r, y-r, side, s.winV, s.winX, s.winY, s.colV, s.colD)
+		n = s.gather(mask[(y-r)*ref.width+x-r:], ref.width)
+	}
+	var sum, sx, sy float64
+	for k, v := range s.fc[:n] {
+		gx, gy := s.gx[k], s.gy[k]
+		sum += v
+		sx += gx * gx
+		sy += gy * gy
+	}
 	if float64(n) < s.cfg.MinValidFraction*float64(side*side) || n <= s.np {
 		return Masked
 	}
 	s.n = n
 	s.fMean = sum / float64(n)
 	var sff float64
-	for k := 0; k < n; k++ {
+	for k := range s.fc[:n] {
 		s.fc[k] -= s.fMean
 		sff += s.fc[k] * s.fc[k]
 	}
@@ -220,36 +250,58 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 
 	// Steepest-descent images J = ∇f·∂W/∂p at p = 0, their sums and the
 	// Gauss–Newton Hessian H = Σ J·Jᵀ (Pan, Li & Tong 2013).
-	s.sumJ, s.sumJf = [12]float64{}, [12]float64{}
-	h := &s.chol
-	*h = [144]float64{}
-	np := s.np
-	for k := 0; k < n; k++ {
-		dx, dy := s.offset[2*k], s.offset[2*k+1]
-		jac := s.jac[k*np : (k+1)*np]
-		gx, gy := jac[0], jac[3]
-		jac[1], jac[2] = gx*dx, gx*dy
-		jac[4], jac[5] = gy*dx, gy*dy
-		if np == 12 {
-			xx, xy, yy := 0.5*dx*dx, dx*dy, 0.5*dy*dy
-			jac[6], jac[7], jac[8] = gx*xx, gx*xy, gx*yy
-			jac[9], jac[10], jac[11] = gy*xx, gy*xy, gy*yy
-		}
-		f := s.fc[k]
-		for a, ja := range jac {
-			s.sumJ[a] += ja
-			s.sumJf[a] += ja * f
-			lower := jac[:a+1]
-			row := h[12*a : 12*a+len(lower)]
-			for b, jb := range lower {
-				row[b] += ja * jb
-			}
-		}
-	}
-	if !choleskyFactor(h, np, &s.scale) {
+	s.normal()
+	if !choleskyFactor(&s.chol, s.np, &s.scale) {
 		return LowTexture
 	}
 	return Converged
+}
+
+// setSquare lays out the full square subset: one run per row and the
+// offsets of every pixel in row-major order.
+func (s *Solver) setSquare() {
+	r := s.cfg.Radius
+	side := 2*r + 1
+	s.runs = s.runs[:0]
+	for j := 0; j < side; j++ {
+		s.runs = append(s.runs, run{k0: j * side, n: side, dx0: float64(-r), dy: float64(j - r)})
+		for i := 0; i < side; i++ {
+			s.dx[j*side+i], s.dy[j*side+i] = float64(i-r), float64(j-r)
+		}
+	}
+	s.square = true
+}
+
+// gather copies the values and gradients of the window's valid pixels
+// (those where mask, whose rows are stride apart and start at the
+// window's top-left pixel, is non-zero) into the subset arrays, records
+// their offsets and runs, and returns their number.
+func (s *Solver) gather(mask []uint8, stride int) int {
+	r := s.cfg.Radius
+	side := 2*r + 1
+	s.square = false
+	s.runs = s.runs[:0]
+	n := 0
+	for j := 0; j < side; j++ {
+		row := mask[j*stride : j*stride+side]
+		open := false
+		for i, m := range row {
+			if m == 0 {
+				open = false
+				continue
+			}
+			if !open {
+				s.runs = append(s.runs, run{k0: n, dx0: float64(i - r), dy: float64(j - r)})
+				open = true
+			}
+			s.runs[len(s.runs)-1].n++
+			w := j*side + i
+			s.fc[n], s.gx[n], s.gy[n] = s.winV[w], s.winX[w], s.winY[w]
+			s.dx[n], s.dy[n] = float64(i-r), float64(j-r)
+			n++
+		}
+	}
+	return n
 }
 
 // Iterate runs the IC-GN iterations for the subset of the last Prepare
@@ -271,7 +323,7 @@ func (s *Solver) Iterate(def *Spline, guess Params) Result {
 		return res
 	}
 	np, n := s.np, s.n
-	quad := s.cfg.Order == Quadratic
+	affine := s.cfg.Order == Affine
 	maxX, maxY := float64(def.width-1), float64(def.height-1)
 	drift := float64(s.cfg.Radius)
 	p := guess
@@ -280,33 +332,28 @@ func (s *Solver) Iterate(def *Spline, guess Params) Result {
 		return res
 	}
 	for it := 1; it <= s.cfg.MaxIterations; it++ {
-		// Sample the deformed subset and accumulate, in one pass, the sums
-		// that give its mean, its norm, the ZNSSD and the right-hand side
-		// Σ J·[(f - f̄) - (‖f - f̄‖/‖g - ḡ‖)(g - ḡ)]. Gray levels are
-		// offset by the reference mean to keep the sums well conditioned.
+		// Warp the subset, sample the deformed image there and accumulate
+		// the sums that give its mean, its norm, the ZNSSD and the
+		// right-hand side Σ J·[(f - f̄) - (‖f - f̄‖/‖g - ḡ‖)(g - ḡ)]. Gray
+		// levels are offset by the reference mean to keep the sums well
+		// conditioned.
+		var inside bool
+		if affine {
+			inside = s.affineWarp(&p, maxX, maxY)
+		} else {
+			inside = s.quadraticWarp(&p, maxX, maxY)
+		}
+		if !inside {
+			res.Status = OutOfImage
+			return res
+		}
+		def.values(s.xs[:n], s.ys[:n], s.gs[:n])
 		var sg, sgg, sfg float64
 		var sJg [12]float64
-		for k := 0; k < n; k++ {
-			dx, dy := s.offset[2*k], s.offset[2*k+1]
-			wx := s.cx + dx + p[PU] + p[PUx]*dx + p[PUy]*dy
-			wy := s.cy + dy + p[PV] + p[PVx]*dx + p[PVy]*dy
-			if quad {
-				xx, xy, yy := 0.5*dx*dx, dx*dy, 0.5*dy*dy
-				wx += p[PUxx]*xx + p[PUxy]*xy + p[PUyy]*yy
-				wy += p[PVxx]*xx + p[PVxy]*xy + p[PVyy]*yy
-			}
-			if !(wx >= 0 && wy >= 0 && wx <= maxX && wy <= maxY) {
-				res.Status = OutOfImage
-				return res
-			}
-			g := def.Value(wx, wy) - s.fMean
-			sg += g
-			sgg += g * g
-			sfg += s.fc[k] * g
-			jac := s.jac[k*np : (k+1)*np]
-			for a, ja := range jac {
-				sJg[a] += ja * g
-			}
+		if affine {
+			sg, sgg, sfg = s.affineSums(&sJg)
+		} else {
+			sg, sgg, sfg = s.quadraticSums(&sJg)
 		}
 		gm := sg / float64(n)
 		gvar := sgg - sg*gm

@@ -1,0 +1,76 @@
+package loadlog
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+)
+
+// parseNumber reads a cell as a finite decimal number with '.' as the
+// decimal point ("12.5", "-3", "1.2e3").
+func parseNumber(cell string) (float64, bool) {
+	v, err := strconv.ParseFloat(cell, 64)
+	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
+		return 0, false
+	}
+	return v, true
+}
+
+// parseClock reads a cell written h:mm:ss[.fff] or mm:ss[.fff] as seconds:
+// "0:01:02.5" and "01:02.5" are 62.5 s. Hours, and minutes in mm:ss, may
+// have any number of digits; minutes after hours and seconds must be below
+// 60. A leading '-' makes the time negative.
+func parseClock(cell string) (float64, bool) {
+	s, sign := cell, 1.0
+	if strings.HasPrefix(s, "-") {
+		s, sign = s[1:], -1
+	}
+	parts := strings.Split(s, ":")
+	if len(parts) != 2 && len(parts) != 3 {
+		return 0, false
+	}
+	total := 0.0
+	for i, p := range parts[:len(parts)-1] {
+		if p == "" || strings.Trim(p, "0123456789") != "" {
+			return 0, false
+		}
+		v, err := strconv.ParseFloat(p, 64)
+		if err != nil || (i == 1 && v >= 60) {
+			return 0, false
+		}
+		total = total*60 + v
+	}
+	sec := parts[len(parts)-1]
+	if sec == "" || sec[0] == '.' || strings.Trim(sec, "0123456789.") != "" || strings.Count(sec, ".") > 1 {
+		return 0, false
+	}
+	v, err := strconv.ParseFloat(sec, 64)
+	if err != nil || v >= 60 {
+		return 0, false
+	}
+	return sign * (total*60 + v), true
+}
+
+// cellProblem explains why a cell could not be read as a value of its
+// column, with a hint when the cause is a common one.
+func cellProblem(cell string, clock bool) error {
+	if cell == "" {
+		return fmt.Errorf("empty cell, expected a number")
+	}
+	if clock {
+		return fmt.Errorf("%q is not a time; expected h:mm:ss[.fff] or mm:ss (time_unit \"hms\")", cell)
+	}
+	if _, err := strconv.ParseFloat(cell, 64); err == nil {
+		return fmt.Errorf("%q is not a finite number", cell)
+	}
+	if strings.Count(cell, ",") == 1 {
+		if _, ok := parseNumber(strings.Replace(cell, ",", ".", 1)); ok {
+			return fmt.Errorf("%q is not a number: the decimal separator must be '.', not ','", cell)
+		}
+	}
+	if _, ok := parseClock(cell); ok {
+		return fmt.Errorf("%q is not a number; for h:mm:ss times set time_unit \"hms\"", cell)
+	}
+	return fmt.Errorf("%q is not a number", cell)
+}
