@@ -38,6 +38,9 @@ type ZoneStage struct {
 	// CalibrateBelow is the fraction of the peak stress up to which frames
 	// calibrate each point's elastic response (default 0.2).
 	CalibrateBelow float64
+	// CalibrateFrames is the number of first frames that calibrate when
+	// there is no load (no stress above zero): default 3.
+	CalibrateFrames int
 	// K is the lateral to vertical far-field stress ratio and UCS the
 	// rock's uniaxial compressive strength (MPa, 0 = unknown), for the
 	// Kirsch context of sidewall and crown onsets.
@@ -118,8 +121,12 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*OnsetRe
 	// Calibration: the elastic part of the test.
 	var calib []*strain.Field
 	var calibStress []float64
+	if st.CalibrateFrames == 0 {
+		st.CalibrateFrames = 3
+	}
 	for k, name := range names {
-		if frames[k].Stress <= st.CalibrateBelow*peak.Stress {
+		loaded := peak.Stress > 0
+		if (loaded && frames[k].Stress <= st.CalibrateBelow*peak.Stress) || (!loaded && k < st.CalibrateFrames) {
 			sf, err := ReadStrain(StrainPath(dir, name))
 			if err != nil {
 				return nil, err

@@ -32,17 +32,18 @@ func DemoBlock() *Scenario {
 	}
 	elastic := Kirsch{Cx: cx, Cy: cy, Radius: radius, Stress: 32, K: 0.25, E: 12000, Nu: 0.22}
 	sc.Fields = append(sc.Fields, FieldSpec{Kirsch: &elastic, Drive: DriveLoad})
-	// V-notches: two bands from each sidewall, growing from frame 22.
+	// V-notches: two bands from each sidewall, growing from frame 9 (the
+	// boundary stress then is about 0.3 UCS of the demo rock's 60 MPa).
 	for _, side := range []float64{1, -1} {
 		wx := cx + side*radius
 		for _, up := range []float64{-1, 1} {
 			b := ShearBand{X0: wx, Y0: cy, X1: wx + side*48, Y1: cy + up*30, Slip: 1.2, HalfWidth: 3.5}
-			sc.Fields = append(sc.Fields, FieldSpec{Band: &b, Drive: DriveGrowth, StartFrame: 22, FullFrame: peak + 6})
+			sc.Fields = append(sc.Fields, FieldSpec{Band: &b, Drive: DriveGrowth, StartFrame: 9, FullFrame: 33})
 		}
 	}
 	// Tensile crack from the crown, running up parallel to the load.
 	crack := Crack{X0: cx, Y0: cy - radius, X1: cx + 6, Y1: cy - radius - 110, Opening: 1.6, Decay: 18}
-	sc.Fields = append(sc.Fields, FieldSpec{Crack: &crack, Drive: DriveGrowth, StartFrame: 34, FullFrame: frames - 1})
+	sc.Fields = append(sc.Fields, FieldSpec{Crack: &crack, Drive: DriveGrowth, StartFrame: 24, FullFrame: frames - 1})
 	sc.Spalls = []Spall{
 		{Region: Opening{Cx: cx + radius + 6, Cy: cy, Rx: 11, Ry: 24}, Frame: peak + 4},
 		{Region: Opening{Cx: cx - radius - 5, Cy: cy + 2, Rx: 9, Ry: 20}, Frame: peak + 9},
