@@ -1,6 +1,8 @@
 package main
 
 import (
+	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -170,5 +172,65 @@ func TestStrainAfterTrack(t *testing.T) {
 	os.WriteFile(runfolder.FieldPath(out, "kirsch_0001"), []byte(runfolder.FieldHeader+"\n0,0,1,x,0,0,0,0,1,1,converged\n"), 0o644)
 	if _, err := run(t, "strain", "--fields", out); err == nil || !strings.Contains(err.Error(), "kirsch_0001.csv line 2 column v") {
 		t.Errorf("malformed field file: %v", err)
+	}
+}
+
+// The whole chain on our small synthetic block (testdata/band_small.json:
+// a shear band appears at the right sidewall at frame 7 of 14): track,
+// strain and zones with the synthetic load log read as a test frame's log
+// (clock 2 s ahead, loaded area 24 × 20 mm²) report a localization onset
+// at the right sidewall at frame 7 ± 1, with the log's stress there.
+func TestZonesOnSyntheticBand(t *testing.T) {
+	dir := t.TempDir()
+	if _, err := run(t, "synth", "--spec", filepath.Join("..", "..", "testdata", "band_small.json"), "--out", dir); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(t.TempDir(), "run")
+	steps := [][]string{
+		{"track", "--images", filepath.Join(dir, "frames"), "--exclude", "circle:119.5,119.5,40", "--step", "5", "--fps", "1", "--scale", "0.1", "--out", out},
+		{"strain", "--fields", out, "--window", "5"},
+	}
+	for _, s := range steps {
+		if _, err := run(t, s...); err != nil {
+			t.Fatalf("%v: %v", s, err)
+		}
+	}
+	msg, err := run(t, "zones", "--strain", out, "--load", filepath.Join(dir, "loadlog.csv"), "--area", "480", "--clock-offset", "2", "--calibrate-below", "0.35")
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Log("\n" + msg)
+	data, err := os.ReadFile(filepath.Join(out, "onset.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rep runfolder.OnsetReport
+	if err := json.Unmarshal(data, &rep); err != nil {
+		t.Fatal(err)
+	}
+	var found *runfolder.OnsetRecord
+	for i, o := range rep.Onsets {
+		if o.Class == "localization" && o.Sector == "right-sidewall" {
+			found = &rep.Onsets[i]
+			break
+		}
+	}
+	if found == nil {
+		t.Fatalf("no right-sidewall localization onset in %s", data)
+	}
+	if found.Frame < 6 || found.Frame > 8 || found.OpeningName != "A" {
+		t.Errorf("onset at frame %d (opening %q), band appears at 7", found.Frame, found.OpeningName)
+	}
+	// σ(t) = P·x(1.5 − 0.5x²), x = t/13 s, P = 40 MPa (the fixture's load).
+	x := float64(found.Frame) / 13
+	if want := 40 * x * (1.5 - 0.5*x*x); math.Abs(found.Stress-want) > 0.01*want {
+		t.Errorf("onset stress %.3f MPa, load history %.3f MPa", found.Stress, want)
+	}
+	zones, _ := os.ReadFile(filepath.Join(out, "zones.csv"))
+	if !strings.HasPrefix(string(zones), "frame,time_s,zone,sector,opening,area_mm2,peak,cx,cy") {
+		t.Errorf("zones.csv header: %q", strings.SplitN(string(zones), "\n", 2)[0])
+	}
+	if len(rep.Cautions) == 0 {
+		t.Error("onset.json carries no cautions")
 	}
 }

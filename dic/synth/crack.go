@@ -4,15 +4,16 @@ import "math"
 
 // Crack is a displacement jump (an opening crack) along the straight segment
 // from the mouth (X0, Y0) to the tip (X1, Y1). The two faces move apart
-// along the segment's normal by ±w(ξ)/2, and the motion decays away from
-// the faces as exp(−|d|/Decay), so the rock beside the crack unloads
-// smoothly while the jump stays sharp.
+// along the segment's normal by ±w(ξ)/2, and the motion decays with the
+// distance ρ from the crack as exp(−ρ/Decay), so the rock beside the crack
+// unloads smoothly while the jump stays sharp.
 //
 // Opening profile w(ξ) over the length L: an edge crack whose mouth lies on
 // a free surface (an opening's wall or the specimen edge) opens as
 // w = Opening·√(1−(ξ/L)²), widest at the mouth; behind the mouth (ξ < 0,
-// inside the opening) the jump fades as exp(ξ/MouthFade). An Embedded
-// crack has both ends closed and the elliptical Griffith profile
+// where the opening is) ρ is the distance to the mouth, so the rock beside
+// the mouth moves with its face and the motion dies out radially. An
+// Embedded crack has both ends closed and the elliptical Griffith profile
 // w = Opening·√(1−(2ξ/L−1)²) (the opening shape of a Griffith crack under
 // uniform tension, e.g. Anderson, Fracture Mechanics, §2.5).
 //
@@ -26,8 +27,6 @@ type Crack struct {
 	Opening  float64 `json:"opening_px"`
 	Decay    float64 `json:"decay_px"`
 	Embedded bool    `json:"embedded,omitempty"`
-	// MouthFade is the fade length behind the mouth in px (default 2).
-	MouthFade float64 `json:"mouth_fade_px,omitempty"`
 
 	seg *segment // cached geometry, set by Scaled
 }
@@ -59,15 +58,7 @@ func (c Crack) profile(xi, l float64) (w, dw float64) {
 		return r, -s / r * 2 / l
 	}
 	if xi < 0 {
-		fade := c.MouthFade
-		if fade <= 0 {
-			fade = 2
-		}
-		if xi < -40*fade { // e^−40: nothing left
-			return 0, 0
-		}
-		e := math.Exp(xi / fade)
-		return e, e / fade
+		return 1, 0 // behind the mouth: as at the mouth, fading with ρ
 	}
 	if xi >= l {
 		return 0, 0
@@ -93,19 +84,22 @@ func (c Crack) At(x, y float64) Motion {
 	if decay <= 0 {
 		decay = seg.length / 2
 	}
-	if math.Abs(d) > 40*decay { // e^−40: nothing left
+	rho, rx, rd := seg.distance(xi, d)
+	if rho > 40*decay { // e^−40: nothing left
 		return Motion{}
 	}
 	sgn := 1.0
 	if d < 0 {
 		sgn = -1
 	}
-	e := math.Exp(-math.Abs(d) / decay)
+	e := math.Exp(-rho / decay)
 	a := c.Opening / 2 * p * e // |displacement| of this point
-	// Displacement U = sgn·a·n; ∇(sgn·a) = sgn·∂a/∂ξ·t − (a/decay)·n.
-	daXi := sgn * c.Opening / 2 * dp * e
-	gx := daXi*seg.tx - a/decay*seg.nx
-	gy := daXi*seg.ty - a/decay*seg.ny
+	// Displacement U = sgn·a·n with a = (W/2)·p(ξ)·e^(−ρ/L):
+	// ∇(sgn·a) = sgn·[(W/2)p′e − a·ρ_ξ/L]·t − sgn·a·ρ_d/L·n.
+	daXi := sgn * (c.Opening/2*dp*e - a*rx/decay)
+	daD := -sgn * a * rd / decay
+	gx := daXi*seg.tx + daD*seg.nx
+	gy := daXi*seg.ty + daD*seg.ny
 	return Motion{
 		U: sgn * a * seg.nx, V: sgn * a * seg.ny,
 		UX: seg.nx * gx, UY: seg.nx * gy,
@@ -116,11 +110,13 @@ func (c Crack) At(x, y float64) Motion {
 // ShearBand is a continuous band of localized shear along the segment from
 // (X0, Y0) to (X1, Y1): material on the two sides slides past each other
 // along the band by up to Slip,
-// u = (Slip/2)·tanh(d/HalfWidth)·exp(−|d|/Decay)·p(ξ)·t, so the shear strain
-// inside the band is about Slip/(2·HalfWidth) and the slip fades away from
-// the band over Decay (default half the length). The taper p is
-// smooth: cos²(πξ/2L) from a mouth on a free surface (fading behind it as a
-// Gaussian of width HalfWidth), or sin²(πξ/L) for an Embedded band.
+// u = (Slip/2)·tanh(d/HalfWidth)·exp(−ρ/Decay)·p(ξ)·t, so the shear strain
+// inside the band is about Slip/(2·HalfWidth) and the slip fades with the
+// distance ρ from the band over Decay (default a quarter of the length).
+// The taper p is smooth: cos²(πξ/2L) from a mouth on a free surface (behind
+// it, where the opening is, p = 1 and ρ is the distance to the mouth, so
+// the rock beside the mouth moves with its side), or sin²(πξ/L) for an
+// Embedded band.
 // Scaled(g) grows the band's length and slip by g.
 type ShearBand struct {
 	X0        float64 `json:"x0_px"`
@@ -158,11 +154,8 @@ func (b ShearBand) taper(xi, l float64) (p, dp float64) {
 	case b.Embedded:
 		s, c := math.Sincos(math.Pi * xi / l)
 		return s * s, 2 * s * c * math.Pi / l
-	case xi < -9*b.HalfWidth: // Gaussian fade below e^−40
-		return 0, 0
 	case xi < 0:
-		e := math.Exp(-xi * xi / (2 * b.HalfWidth * b.HalfWidth))
-		return e, -xi / (b.HalfWidth * b.HalfWidth) * e
+		return 1, 0
 	}
 	s, c := math.Sincos(math.Pi * xi / (2 * l))
 	return c * c, -2 * c * s * math.Pi / (2 * l)
@@ -181,25 +174,21 @@ func (b ShearBand) At(x, y float64) Motion {
 	}
 	decay := b.Decay
 	if decay <= 0 {
-		decay = seg.length / 2
+		decay = seg.length / 4
 	}
-	if math.Abs(d) > 40*decay {
+	rho, rx, rd := seg.distance(xi, d)
+	if rho > 40*decay {
 		return Motion{}
 	}
 	th := math.Tanh(d / b.HalfWidth)
-	e := math.Exp(-math.Abs(d) / decay)
-	sgn := 1.0
-	if d < 0 {
-		sgn = -1
-	}
-	// T(d) = tanh(d/h)·exp(−|d|/L) and its derivative (continuous at 0,
-	// where tanh vanishes).
-	tt := th * e
-	dtt := (1-th*th)/b.HalfWidth*e - th*e*sgn/decay
-	a := b.Slip / 2 * tt * p
-	// U = a·t; ∇a = (Slip/2)(T·p′·t + p·T′·n).
-	gx := b.Slip / 2 * (tt*dp*seg.tx + p*dtt*seg.nx)
-	gy := b.Slip / 2 * (tt*dp*seg.ty + p*dtt*seg.ny)
+	e := math.Exp(-rho / decay)
+	// a = (Slip/2)·tanh(d/h)·e^(−ρ/L)·p(ξ); its derivatives along t and n
+	// (continuous where d = 0, where tanh vanishes).
+	a := b.Slip / 2 * th * e * p
+	daXi := b.Slip / 2 * th * e * (dp - p*rx/decay)
+	daD := b.Slip / 2 * p * e * ((1-th*th)/b.HalfWidth - th*rd/decay)
+	gx := daXi*seg.tx + daD*seg.nx
+	gy := daXi*seg.ty + daD*seg.ny
 	return Motion{
 		U: a * seg.tx, V: a * seg.ty,
 		UX: seg.tx * gx, UY: seg.tx * gy,

@@ -24,6 +24,23 @@ func (s segment) local(x, y float64) (xi, d float64) {
 	return dx*s.tx + dy*s.ty, dx*s.nx + dy*s.ny
 }
 
+// distance returns the distance ρ from local point (ξ, d) to the feature —
+// |d| beside it, the distance to the mouth behind it (ξ < 0) — and its
+// derivatives ∂ρ/∂ξ and ∂ρ/∂d (taking sgn 0 = +1).
+func (s segment) distance(xi, d float64) (rho, dxi, dd float64) {
+	if xi < 0 {
+		rho = math.Hypot(xi, d)
+		if rho == 0 {
+			return 0, 0, 0
+		}
+		return rho, xi / rho, d / rho
+	}
+	if d < 0 {
+		return -d, 0, -1
+	}
+	return d, 0, 1
+}
+
 // scaledTip returns the tip of the feature grown to fraction g of its length.
 func scaledTip(x0, y0, x1, y1, g float64) (float64, float64) {
 	return x0 + g*(x1-x0), y0 + g*(y1-y0)

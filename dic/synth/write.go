@@ -17,7 +17,7 @@ import (
 // Generator names what wrote a truth file, with the version of the
 // rendering model: it changes whenever the same scenario would render
 // differently, so a cached sequence is reused only when it matches.
-const Generator = "spallscope synth, model 2"
+const Generator = "spallscope synth, model 3"
 
 // FrameTruth is what is known exactly about one rendered frame.
 type FrameTruth struct {
