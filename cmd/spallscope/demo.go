@@ -104,6 +104,9 @@ a summary. A demo folder that is already complete is reused.`,
 			if err != nil {
 				return err
 			}
+			if err := runfolder.RecordLoad(runDir, sigma); err != nil {
+				return err
+			}
 			var states []runfolder.FrameState
 			for k, t := range rec.Times {
 				s, in := sigma.At(t)

@@ -233,4 +233,13 @@ func TestZonesOnSyntheticBand(t *testing.T) {
 	if len(rep.Cautions) == 0 {
 		t.Error("onset.json carries no cautions")
 	}
+	rows, err := runfolder.ReadZones(out)
+	if err != nil || len(rows) == 0 || len(rows[0].Cells) < 4 {
+		t.Fatalf("zones read back: %v, %d rows", err, len(rows))
+	}
+	var tl runfolder.TimelineRecord
+	var ld runfolder.LoadRecord
+	if runfolder.Section(out, "timeline", &tl) != nil || len(tl.Stress) != 14 || runfolder.Section(out, "load", &ld) != nil || ld.Peak != 40 {
+		t.Errorf("run.json timeline %+v, load peak %v", tl, ld.Peak)
+	}
 }

@@ -187,6 +187,14 @@ engineers under local codes.`,
 			if err != nil {
 				return err
 			}
+			if sigma != nil {
+				for _, n := range sigma.Log.Notes {
+					fmt.Fprintln(cmd.ErrOrStderr(), "load log:", n)
+				}
+				if err := runfolder.RecordLoad(run, sigma); err != nil {
+					return err
+				}
+			}
 			states := make([]runfolder.FrameState, len(names))
 			for k, name := range names {
 				states[k] = runfolder.FrameState{Name: name, Time: times[k]}

@@ -14,7 +14,34 @@ import (
 const (
 	ZonesCSV  = "zones.csv"
 	OnsetJSON = "onset.json"
+	// ZoneCellsCSV lists each zone's grid points (frame,zone,indicator,
+	// cells with cells the ';'-separated row-major grid indices), for
+	// drawing zone outlines.
+	ZoneCellsCSV = "zone_cells.csv"
 )
+
+// TimelineRecord is the run.json section of every frame's time and
+// nominal stress (written by the zones stage).
+type TimelineRecord struct {
+	Frames []string  `json:"frames"`
+	Times  []float64 `json:"times_s"`
+	Stress []float64 `json:"stress_MPa"`
+	InSpan []bool    `json:"in_load_log"`
+}
+
+// LoadRecord is the run.json section describing the load log used, with
+// its nominal-stress history on the camera's clock (at most a few thousand
+// samples) for plotting.
+type LoadRecord struct {
+	Path    string    `json:"path"`
+	AreaMM2 float64   `json:"area_mm2"`
+	Offset  float64   `json:"clock_offset_s"`
+	Times   []float64 `json:"times_s"`
+	Stress  []float64 `json:"stress_MPa"`
+	Peak    float64   `json:"peak_MPa"`
+	PeakAt  float64   `json:"peak_time_s"`
+	Notes   []string  `json:"notes,omitempty"`
+}
 
 // ZonesHeader is the header of zones.csv: the output contract's columns,
 // then the indicator, the onset class, the area in px², the orientation
@@ -174,6 +201,16 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*OnsetRe
 	if err := writeZones(filepath.Join(dir, ZonesCSV), finder, openingName); err != nil {
 		return nil, err
 	}
+	if err := writeZoneCells(filepath.Join(dir, ZoneCellsCSV), finder); err != nil {
+		return nil, err
+	}
+	tl := TimelineRecord{Frames: names}
+	for _, f := range frames {
+		tl.Times, tl.Stress, tl.InSpan = append(tl.Times, f.Time), append(tl.Stress, f.Stress), append(tl.InSpan, f.InSpan)
+	}
+	if err := SetSection(dir, "timeline", tl); err != nil {
+		return nil, err
+	}
 	for _, o := range finder.Onsets(peak.Stress) {
 		r := OnsetRecord{Onset: o, OpeningName: openingName(o.Opening)}
 		if c, ok := strain.NewContext(o.Sector, o.Stress, st.K, st.UCS); ok && o.Opening >= 0 {
@@ -225,4 +262,26 @@ func Scale(dir string) dic.Scale {
 		return sr.MMPerPx
 	}
 	return 0
+}
+
+// writeZoneCells writes the grid points of every zone.
+func writeZoneCells(path string, f *strain.Finder) error {
+	names := map[int]string{}
+	for _, fr := range f.Frames() {
+		names[fr.Index] = fr.Name
+	}
+	return WriteAtomic(path, func(w *bufio.Writer) error {
+		w.WriteString("frame,zone,indicator,cells\n")
+		for _, z := range f.Zones() {
+			fmt.Fprintf(w, "%s,%d,%s,", names[z.Frame], z.ID, z.Indicator)
+			for k, c := range z.Cells {
+				if k > 0 {
+					w.WriteByte(';')
+				}
+				fmt.Fprint(w, c)
+			}
+			w.WriteByte('\n')
+		}
+		return nil
+	})
 }
