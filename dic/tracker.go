@@ -217,6 +217,26 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 	return f, nil
 }
 
+// Resume continues tracking after frame f (read back from its file) as
+// if Track had just returned it: the next frame starts from f's solution.
+// Only the fixed reference can resume this way; an incremental run holds
+// its current reference image, so it is tracked again from the start.
+func (t *Tracker) Resume(f *Field) error {
+	if t.s.Reference != FixedReference {
+		return fmt.Errorf("resume: the %s reference strategy cannot resume mid-sequence", t.s.Reference)
+	}
+	if f.Grid != t.grid {
+		return fmt.Errorf("resume: frame %s is on another grid (%+v, expected %+v)", f.Name, f.Grid, t.grid)
+	}
+	t.prev = f
+	t.prevInc = make([]subset.Params, len(f.Points))
+	t.prevIncOK = make([]bool, len(f.Points))
+	for i := range f.Points {
+		t.prevInc[i], t.prevIncOK[i] = f.Points[i].P, f.Points[i].Valid()
+	}
+	return nil
+}
+
 // correlate runs one frame against the current reference.
 func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, prev []subset.Params, prevOK []bool) []subset.Result {
 	n := t.grid.Len()

@@ -2,7 +2,10 @@ package main
 
 import (
 	"fmt"
+	"math"
 	"os"
+	"strings"
+	"sync"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -61,3 +64,77 @@ func (r *rateLine) done(n, valid int) {
 		fmt.Fprintln(w, line)
 	}
 }
+
+// stageLines shows one progress line per test: stage, done/total, rate and
+// time left — redrawn in place on a terminal, printed about every tenth
+// otherwise. Safe for concurrent updates from a campaign's tests.
+type stageLines struct {
+	cmd   *cobra.Command
+	tty   bool
+	mu    sync.Mutex
+	order []string
+	state map[string]*stageState
+	drawn int
+}
+
+type stageState struct {
+	stage       string
+	done, total int
+	start       time.Time
+	lastTenth   int
+}
+
+func newStageLines(cmd *cobra.Command) *stageLines {
+	tty := false
+	if f, ok := cmd.ErrOrStderr().(*os.File); ok {
+		if st, err := f.Stat(); err == nil && st.Mode()&os.ModeCharDevice != 0 {
+			tty = true
+		}
+	}
+	return &stageLines{cmd: cmd, tty: tty, state: map[string]*stageState{}}
+}
+
+func (s *stageLines) update(test, stage string, done, total int) {
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	st := s.state[test]
+	if st == nil {
+		st = &stageState{}
+		s.state[test] = st
+		s.order = append(s.order, test)
+	}
+	if st.stage != stage {
+		st.stage, st.start, st.lastTenth = stage, time.Now(), -1
+	}
+	st.done, st.total = done, total
+	w := s.cmd.ErrOrStderr()
+	if !s.tty {
+		if tenth := done * 10 / max(total, 1); tenth != st.lastTenth || done == total {
+			st.lastTenth = tenth
+			fmt.Fprintln(w, s.line(test, st))
+		}
+		return
+	}
+	if s.drawn > 0 {
+		fmt.Fprintf(w, "\033[%dA", s.drawn)
+	}
+	for _, t := range s.order {
+		fmt.Fprintf(w, "\r\033[K%s\n", s.line(t, s.state[t]))
+	}
+	s.drawn = len(s.order)
+}
+
+func (s *stageLines) line(test string, st *stageState) string {
+	el := time.Since(st.start).Seconds()
+	rate := float64(st.done) / math.Max(el, 1e-9)
+	left := "?"
+	if st.done > 0 {
+		left = time.Duration(el / float64(st.done) * float64(st.total-st.done) * float64(time.Second)).Round(time.Second).String()
+	}
+	const width = 24
+	filled := width * st.done / max(st.total, 1)
+	bar := strings.Repeat("#", filled) + strings.Repeat(".", width-filled)
+	return fmt.Sprintf("%-16s %-7s [%s] %d/%d  %.1f/s  %s left", test, st.stage, bar, st.done, st.total, rate, left)
+}
+
+func (s *stageLines) finish() {}

@@ -3,14 +3,12 @@ package main
 import (
 	"fmt"
 	"path/filepath"
-	"strconv"
 
 	"github.com/spf13/cobra"
 
 	"spallscope/dic"
-	"spallscope/dic/frames"
-	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
+	"spallscope/dic/testrun"
 	"spallscope/subset"
 )
 
@@ -54,32 +52,6 @@ func (f *trackFlags) register(cmd *cobra.Command) {
 	f.scale.register(cmd)
 }
 
-// times returns the frame times the flags ask for (nil if none).
-func (f *trackFlags) times(seq frames.Sequence) ([]float64, error) {
-	n := 0
-	for _, set := range []bool{f.timesCSV != "", f.fps > 0, f.mtime} {
-		if set {
-			n++
-		}
-	}
-	switch {
-	case n > 1:
-		return nil, fmt.Errorf("give one of --times, --fps and --mtime")
-	case f.fps < 0:
-		return nil, fmt.Errorf("--fps %g, expected a positive frame rate", f.fps)
-	case f.timesCSV != "":
-		return frames.ReadTimes(f.timesCSV, seq)
-	case f.fps > 0:
-		return frames.FixedRate(seq.Len(), f.fps, 0)
-	case f.mtime:
-		return frames.ModTimes(seq)
-	}
-	if r, ok := frames.VideoFPS(seq); ok {
-		return frames.FixedRate(seq.Len(), r, 0)
-	}
-	return nil, nil
-}
-
 // settings completes the settings from the flags that need parsing.
 func (f *trackFlags) settings() (dic.Settings, error) {
 	s := f.s
@@ -119,72 +91,11 @@ func (f *trackFlags) settings() (dic.Settings, error) {
 }
 
 // open opens the sequence and the reference image, and builds the mask.
-func (f *trackFlags) open() (frames.Sequence, *subset.Image, int, *region.Mask, error) {
+func (f *trackFlags) open() (*testrun.Inputs, error) {
 	if f.images == "" {
-		return nil, nil, 0, nil, fmt.Errorf("--images is required (a folder, glob, list file or video)")
+		return nil, fmt.Errorf("--images is required (a folder, glob, list file or video)")
 	}
-	seq, err := frames.Open(f.images)
-	if err != nil {
-		return nil, nil, 0, nil, err
-	}
-	fail := func(err error) (frames.Sequence, *subset.Image, int, *region.Mask, error) {
-		seq.Close()
-		return nil, nil, 0, nil, err
-	}
-	var ref *subset.Image
-	refIndex := 0
-	if n, err := strconv.Atoi(f.ref); err == nil && f.ref != "" {
-		if n < 0 || n >= seq.Len() {
-			return fail(fmt.Errorf("--ref %d: the sequence has frames 0..%d", n, seq.Len()-1))
-		}
-		refIndex = n
-	} else if f.ref != "" {
-		if ref, err = frames.ReadImage(f.ref); err != nil {
-			return fail(fmt.Errorf("--ref: %w", err))
-		}
-		refIndex = -1
-	}
-	if ref == nil {
-		if ref, err = seq.Read(refIndex); err != nil {
-			return fail(fmt.Errorf("reference: %w", err))
-		}
-	}
-	seq.ExpectSize(ref.Width, ref.Height)
-	var layout region.Layout
-	if f.roi != "" {
-		shape, err := region.ParseShape(f.roi)
-		if err != nil {
-			if shape, err = region.ParseShape("rect:" + f.roi); err != nil {
-				return fail(fmt.Errorf("--roi %q: expected x0,y0,x1,y1 or a shape such as polygon:x1,y1,...", f.roi))
-			}
-		}
-		x0, y0, x1, y1 := shape.Bounds()
-		if x1 < 0 || y1 < 0 || x0 > float64(ref.Width-1) || y0 > float64(ref.Height-1) {
-			return fail(fmt.Errorf("--roi %q lies outside the %dx%d reference", f.roi, ref.Width, ref.Height))
-		}
-		layout.ROI = []region.Shape{shape}
-	}
-	for _, e := range f.exclude {
-		shape, err := region.ParseShape(e)
-		if err != nil {
-			return fail(fmt.Errorf("--exclude: %w", err))
-		}
-		layout.Exclude = append(layout.Exclude, shape)
-	}
-	mask, err := layout.Rasterise(ref.Width, ref.Height)
-	if err != nil {
-		return fail(err)
-	}
-	if f.maskFile != "" {
-		img, err := frames.ReadImage(f.maskFile)
-		if err != nil {
-			return fail(fmt.Errorf("--mask: %w", err))
-		}
-		if mask, err = mask.Intersect(region.FromImage(img.Width, img.Height, img.Pix)); err != nil {
-			return fail(fmt.Errorf("--mask %s: %w", f.maskFile, err))
-		}
-	}
-	return seq, ref, refIndex, mask, nil
+	return testrun.Open(f.images, f.ref, f.roi, f.exclude, f.maskFile)
 }
 
 func newTrackCmd() *cobra.Command {
@@ -240,17 +151,18 @@ read stops the run with an error naming it and keeps the fields written.`,
 			if err != nil {
 				return err
 			}
-			seq, ref, refIndex, mask, err := tf.open()
+			in, err := tf.open()
 			if err != nil {
 				return err
 			}
+			seq := in.Seq
 			defer seq.Close()
-			tracker, err := dic.NewTracker(ref, refIndex, mask, s)
+			tracker, err := dic.NewTracker(in.Ref, in.RefIndex, in.Mask, s)
 			if err != nil {
 				return err
 			}
 			rec := runfolder.TrackRecord{Tool: "spallscope " + version, Images: tf.images, Reference: tf.ref, Exclude: tf.exclude}
-			if rec.Times, err = tf.times(seq); err != nil {
+			if rec.Times, err = testrun.Times(seq, tf.timesCSV, tf.fps, tf.mtime); err != nil {
 				return err
 			}
 			if rec.MMPerPx, err = tf.scale.scale(); err != nil {
@@ -260,7 +172,7 @@ read stops the run with an error naming it and keeps the fields written.`,
 				rec.Reference = "0"
 			}
 			prog := newRateLine(cmd, "track", seq.Len(), tracker.Grid().Len())
-			rec, err = runfolder.Track(out, seq, tracker, rec, func(n int, f *dic.Field) { prog.done(n, f.Valid()) })
+			rec, err = runfolder.Track(out, seq, tracker, rec, 0, func(n int, f *dic.Field) { prog.done(n, f.Valid()) })
 			if err != nil {
 				return err
 			}

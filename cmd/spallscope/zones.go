@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
-	"strconv"
 	"strings"
 	"text/tabwriter"
 
@@ -14,6 +13,8 @@ import (
 	"spallscope/dic/loadlog"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
+	"spallscope/dic/testconfig"
+	"spallscope/dic/testrun"
 	"spallscope/strain"
 )
 
@@ -45,22 +46,17 @@ func (l *loadFlags) stress() (*loadlog.Stress, error) {
 		}
 		return nil, nil
 	}
-	lg, err := loadlog.Read(l.path, l.format)
-	if err != nil {
-		return nil, err
-	}
-	clock := loadlog.Clock{Offset: l.offset}
+	cfg := testconfig.Load{AreaMM2: l.area, TimeColumn: l.format.TimeColumn, ForceColumn: l.format.ForceColumn,
+		TimeUnit: l.format.TimeUnit, ForceUnit: l.format.ForceUnit, CompressionNegative: l.format.CompressionNegative,
+		ClockOffset: l.offset}
 	if l.sync != "" {
 		p, err := parsePoint("--sync", l.sync)
 		if err != nil {
 			return nil, err
 		}
-		if l.offset != 0 {
-			return nil, fmt.Errorf("give --clock-offset or --sync, not both")
-		}
-		clock = loadlog.Synced(p[0], p[1])
+		cfg.Sync = p[:]
 	}
-	return loadlog.NewStress(lg, l.area, clock)
+	return testrun.Stress(cfg, l.path)
 }
 
 func newZonesCmd() *cobra.Command {
@@ -144,7 +140,7 @@ engineers under local codes.`,
 			if st.Finder.Indicators, err = strain.ParseIndicators(indicators); err != nil {
 				return err
 			}
-			if err := parseThreshold(threshold, &st.Finder.Thresholds); err != nil {
+			if err := testrun.Threshold(threshold, &st.Finder.Thresholds); err != nil {
 				return err
 			}
 			specs := openings
@@ -252,32 +248,6 @@ func printOnsets(cmd *cobra.Command, rep *runfolder.OnsetReport, path string) {
 	}
 	w.Flush()
 	fmt.Fprintf(o, "peak %.2f MPa at %.1f s (%s); onsets in %s\n", rep.Peak.Stress, rep.Peak.Time, rep.Peak.Frame, path)
-}
-
-// parseThreshold reads "6mad", "500ue" or "6mad,500ue".
-func parseThreshold(s string, t *strain.Thresholds) error {
-	t.K, t.Absolute = 0, 0
-	for _, part := range strings.Split(s, ",") {
-		part = strings.TrimSpace(strings.ToLower(part))
-		var err error
-		switch {
-		case strings.HasSuffix(part, "mad"):
-			t.K, err = strconv.ParseFloat(strings.TrimSuffix(part, "mad"), 64)
-		case strings.HasSuffix(part, "ue"):
-			var ue float64
-			ue, err = strconv.ParseFloat(strings.TrimSuffix(part, "ue"), 64)
-			t.Absolute = ue * 1e-6
-		default:
-			err = fmt.Errorf("no unit")
-		}
-		if err != nil || t.K < 0 || t.Absolute < 0 {
-			return fmt.Errorf(`--threshold %q: expected "Kmad", "Nue" or both, such as 6mad,500ue`, s)
-		}
-	}
-	if t.K == 0 {
-		t.K = -1 // an absolute threshold alone: no relative bar
-	}
-	return nil
 }
 
 // parseNamedShape reads "NAME=SHAPE" or "SHAPE" (named A, B, ... by position).

@@ -51,7 +51,9 @@ func WriteField(path string, f *dic.Field, scale dic.Scale) error {
 			for _, k := range [...]int{subset.PU, subset.PV, subset.PUx, subset.PUy, subset.PVx, subset.PVy} {
 				buf = append(buf, ',')
 				if p.Valid() {
-					buf = strconv.AppendFloat(buf, p.P[k], 'g', 10, 64)
+					// Shortest form that reads back to the same float64: a
+					// resumed run continues from exactly what was written.
+					buf = strconv.AppendFloat(buf, p.P[k], 'g', -1, 64)
 				} else {
 					buf = append(buf, "NaN"...)
 				}

@@ -27,14 +27,16 @@ type TrackRecord struct {
 	Exclude []string `json:"exclude,omitempty"`
 }
 
-// Track runs tracker over every frame of seq and writes each field to
-// dir/fields/<frame>.csv as soon as it is done, then the "track" section
-// of dir/run.json (rec, completed with frames and time). progress, if not
-// nil, is called after each frame with the frame count and the field.
+// Track runs tracker over the frames of seq from index from on (the fields
+// of earlier frames are already in dir and the tracker resumed after them)
+// and writes each field to dir/fields/<frame>.csv as soon as it is done,
+// then the "track" section of dir/run.json (rec, completed with frames and
+// time). progress, if not nil, is called after each frame with the frame
+// count and the field.
 // rec.Times, when set, must hold one time per frame. A
 // frame that cannot be read stops the stage with an error naming it; the
 // fields already written stay.
-func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec TrackRecord, progress func(done int, f *dic.Field)) (TrackRecord, error) {
+func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec TrackRecord, from int, progress func(done int, f *dic.Field)) (TrackRecord, error) {
 	if err := os.MkdirAll(filepath.Join(dir, FieldsDir), 0o755); err != nil {
 		return rec, err
 	}
@@ -43,7 +45,10 @@ func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec TrackRecor
 	}
 	start := time.Now()
 	rec.Settings, rec.Grid, rec.Frames = tracker.Settings(), tracker.Grid(), nil
-	for i := 0; i < seq.Len(); i++ {
+	for i := 0; i < from && i < seq.Len(); i++ {
+		rec.Frames = append(rec.Frames, seq.Name(i))
+	}
+	for i := from; i < seq.Len(); i++ {
 		img, err := seq.Read(i)
 		if err != nil {
 			return rec, fmt.Errorf("track stopped; the fields of frames before %d are in %s: %w", i, filepath.Join(dir, FieldsDir), err)

@@ -1,0 +1,122 @@
+package main
+
+import (
+	"fmt"
+	"path/filepath"
+
+	"github.com/spf13/cobra"
+
+	"spallscope/dic/runfolder"
+	"spallscope/dic/testconfig"
+	"spallscope/dic/testrun"
+)
+
+func newRunCmd() *cobra.Command {
+	var out string
+	cmd := &cobra.Command{
+		Use:   "run TEST.yaml [--out DIR]",
+		Short: "Do the whole job for one test: track, strain, zones and onsets, from a test config",
+		Long: `run reads a test config (YAML; see testdata/example_test.yaml for every key,
+commented) and runs the stages into a run folder: track → strain → zones and
+onsets. Paths in the config are relative to its folder.
+
+Resume: every stage has a fingerprint of its inputs and settings in run.json.
+Running again skips stages whose fingerprint and outputs are complete; an
+interrupted tracking run (Ctrl-C, kill, power loss) continues after the last
+complete field file (fixed reference; an incremental run is tracked again).
+Changing a setting reruns exactly the stages it affects: a new strain window
+re-runs strain and zones, not tracking.
+
+run.json records the tool version, settings, input hashes, stage timings and
+the measurement resolution.`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			t, err := testconfig.Read(args[0])
+			if err != nil {
+				return err
+			}
+			bars := newStageLines(cmd)
+			s, err := testrun.Run(t, out, "spallscope "+version, func(stage string, done, total int) { bars.update(t.Name, stage, done, total) })
+			bars.finish()
+			if err != nil {
+				return err
+			}
+			printSummary(cmd, s)
+			return nil
+		},
+	}
+	cmd.Flags().StringVar(&out, "out", "", `run folder (default: "<name>_run" beside the config)`)
+	return cmd
+}
+
+// printSummary prints a run's outcome.
+func printSummary(cmd *cobra.Command, s *testrun.Summary) {
+	o := cmd.OutOrStdout()
+	fmt.Fprintf(o, "%s: %d frames in %.1f s -> %s", s.Name, s.Frames, s.Seconds, s.Out)
+	if len(s.Skipped) > 0 {
+		fmt.Fprintf(o, " (up to date: %v)", s.Skipped)
+	}
+	if s.Resumed > 0 {
+		fmt.Fprintf(o, " (resumed after %d frames)", s.Resumed)
+	}
+	fmt.Fprintln(o)
+	if s.Resolution != nil {
+		fmt.Fprintf(o, "resolution: u %.4f px, exx %.0f µε (VSG %d px)\n", s.Resolution.U, s.Resolution.Exx*1e6, s.Resolution.VSG)
+	}
+	rep := &runfolder.OnsetReport{Peak: s.Peak, Onsets: s.Onsets}
+	printOnsets(cmd, rep, filepath.Join(s.Out, runfolder.OnsetJSON))
+}
+
+func newBatchCmd() *cobra.Command {
+	var (
+		out  string
+		jobs int
+	)
+	cmd := &cobra.Command{
+		Use:   "batch CAMPAIGN.yaml|FOLDER [--jobs N] [--out DIR]",
+		Short: "Run a campaign of tests, with progress per test, and write a campaign summary",
+		Long: `batch runs every test of a campaign — a YAML file with keys name, out, jobs and
+tests (a list of test configs, relative to it), or a folder of test configs —
+at most --jobs at once, each into OUT/<test name>, resuming what is done.
+One failing test does not stop the others; the summary shows its error.
+
+Output: OUT/summary.csv and OUT/summary.html, one row per onset with the
+test's peak stress and resolution.`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			c, err := testconfig.ReadCampaign(args[0])
+			if err != nil {
+				return err
+			}
+			if out == "" {
+				out = c.Out
+			}
+			if out == "" {
+				out = filepath.Join(c.Dir, c.Name+"_runs")
+			}
+			bars := newStageLines(cmd)
+			results := testrun.RunCampaign(c, out, "spallscope "+version, jobs, bars.update)
+			bars.finish()
+			if err := testrun.WriteCampaignSummary(out, c.Name, results); err != nil {
+				return err
+			}
+			failed := 0
+			for _, r := range results {
+				if r.Err != "" {
+					failed++
+					fmt.Fprintf(cmd.ErrOrStderr(), "%s: %s\n", r.Config, r.Err)
+				} else {
+					printSummary(cmd, r.Summary)
+				}
+			}
+			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d tests, %d failed; summary in %s\n", c.Name, len(results), failed, filepath.Join(out, "summary.html"))
+			if failed > 0 {
+				return fmt.Errorf("%d of %d tests failed", failed, len(results))
+			}
+			return nil
+		},
+	}
+	cmd.Flags().StringVar(&out, "out", "", "folder for the runs and the summary")
+	cmd.Flags().IntVar(&jobs, "jobs", 0, "tests at once (default: the campaign's jobs, else 1)")
+	return cmd
+}

@@ -1,0 +1,285 @@
+// Package testconfig reads a test config: the YAML file that describes one
+// compression test for spallscope — where the photos and the load log are,
+// the specimen's geometry and openings, and the settings of every stage.
+// Paths in it are relative to the file's folder. An unknown key is an error
+// that lists the valid ones; malformed YAML is an error with its line.
+package testconfig
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"reflect"
+	"regexp"
+	"strconv"
+	"strings"
+
+	"github.com/goccy/go-yaml"
+)
+
+// Test is one test config.
+type Test struct {
+	// Name labels the test in campaign summaries (default: the file name).
+	Name string `yaml:"name"`
+	// Images is the photo sequence: a folder, a glob, a list file or a video.
+	Images string `yaml:"images"`
+	// Reference is the reference: a frame index (default 0) or an image file.
+	Reference string `yaml:"reference"`
+	Times     Times  `yaml:"times"`
+	Scale     Scale  `yaml:"scale"`
+	// ROI is the region of interest as a shape (rect:..., polygon:...);
+	// empty: the whole image.
+	ROI string `yaml:"roi"`
+	// Openings are the excavations in the face: excluded from correlation
+	// and the centres of sectors.
+	Openings []Opening `yaml:"openings"`
+	// Exclude lists other excluded shapes (labels, clamps, background).
+	Exclude []string `yaml:"exclude"`
+	// Mask is a mask image the size of the reference (nonzero = measured).
+	Mask        string      `yaml:"mask"`
+	Correlation Correlation `yaml:"correlation"`
+	Strain      Strain      `yaml:"strain"`
+	Zones       Zones       `yaml:"zones"`
+	Load        Load        `yaml:"load"`
+	Outputs     Outputs     `yaml:"outputs"`
+
+	// Dir is the folder of the config file (paths resolve against it).
+	Dir string `yaml:"-"`
+	// Path is the config file.
+	Path string `yaml:"-"`
+}
+
+// Times says when each frame was taken: give one of FPS, CSV or MTime.
+type Times struct {
+	FPS   float64 `yaml:"fps"`
+	CSV   string  `yaml:"csv"`
+	MTime bool    `yaml:"mtime"`
+}
+
+// Scale is the image scale: a factor, or a known distance between two
+// reference points [x1, y1, x2, y2, mm].
+type Scale struct {
+	MMPerPx float64   `yaml:"mm_per_px"`
+	Line    []float64 `yaml:"line"`
+}
+
+// Opening names an opening and its shape (circle:cx,cy,r,
+// ellipse:cx,cy,rx,ry[,deg], polygon:x1,y1,...).
+type Opening struct {
+	Name  string `yaml:"name"`
+	Shape string `yaml:"shape"`
+}
+
+// Correlation are the tracking settings (zero: defaults).
+type Correlation struct {
+	Subset        int     `yaml:"subset"`
+	Step          int     `yaml:"step"`
+	Order         string  `yaml:"order"`         // affine | quadratic
+	Interpolation string  `yaml:"interpolation"` // bicubic | biquintic
+	Reference     string  `yaml:"reference"`     // fixed | incremental
+	UpdateBelow   float64 `yaml:"update_below"`
+	MinZNCC       float64 `yaml:"min_zncc"`
+	SearchRadius  int     `yaml:"search_radius"`
+	EdgeGuard     int     `yaml:"edge_guard"`
+	Seeds         [][]int `yaml:"seeds"`
+}
+
+// Strain are the strain settings.
+type Strain struct {
+	Window       int    `yaml:"window"`
+	Order        int    `yaml:"order"`
+	Measure      string `yaml:"measure"`
+	StaticFrames int    `yaml:"static_frames"`
+}
+
+// Zones are the zone and onset settings.
+type Zones struct {
+	Indicators      []string `yaml:"indicators"`
+	Threshold       string   `yaml:"threshold"` // "6mad", "500ue" or both
+	MinCells        int      `yaml:"min_cells"`
+	MinZNCC         float64  `yaml:"min_zncc"`
+	Persistence     int      `yaml:"persistence"`
+	CalibrateBelow  float64  `yaml:"calibrate_below"`
+	CalibrateFrames int      `yaml:"calibrate_frames"`
+	K               float64  `yaml:"k"`
+	UCS             float64  `yaml:"ucs_mpa"`
+	LoadAngleDeg    float64  `yaml:"load_angle_deg"`
+	CrownHalfAngle  float64  `yaml:"crown_half_angle_deg"`
+	Reach           float64  `yaml:"reach"`
+}
+
+// Load maps the test frame's log.
+type Load struct {
+	File                string    `yaml:"file"`
+	AreaMM2             float64   `yaml:"area_mm2"`
+	TimeColumn          string    `yaml:"time_column"`
+	ForceColumn         string    `yaml:"force_column"`
+	TimeUnit            string    `yaml:"time_unit"`
+	ForceUnit           string    `yaml:"force_unit"`
+	CompressionNegative bool      `yaml:"compression_negative"`
+	ClockOffset         float64   `yaml:"clock_offset_s"`
+	Sync                []float64 `yaml:"sync"` // [camera_s, log_s]
+}
+
+// Outputs says what to produce beyond fields, strain, zones and onsets.
+type Outputs struct {
+	Overlays bool   `yaml:"overlays"`
+	Video    bool   `yaml:"video"`
+	Report   bool   `yaml:"report"`
+	VTK      bool   `yaml:"vtk"`
+	NPY      bool   `yaml:"npy"`
+	Field    string `yaml:"field"` // overlay quantity, default e1
+}
+
+// Read reads and checks a test config.
+func Read(path string) (*Test, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("test config: %w", err)
+	}
+	return Parse(data, path)
+}
+
+// Parse reads a config from data as if read from path.
+func Parse(data []byte, path string) (*Test, error) {
+	t := &Test{}
+	if err := yaml.UnmarshalWithOptions(data, t, yaml.DisallowUnknownField()); err != nil {
+		return nil, explain(path, data, err)
+	}
+	abs, _ := filepath.Abs(path)
+	t.Path, t.Dir = abs, filepath.Dir(abs)
+	if t.Name == "" {
+		t.Name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
+	}
+	if err := t.check(); err != nil {
+		return nil, fmt.Errorf("test config %s: %w", path, err)
+	}
+	return t, nil
+}
+
+// Resolve returns p relative to the config's folder (absolute paths and
+// globs stay as they are, made relative to the folder when relative).
+func (t *Test) Resolve(p string) string {
+	if p == "" || filepath.IsAbs(p) {
+		return p
+	}
+	return filepath.Join(t.Dir, p)
+}
+
+func (t *Test) check() error {
+	var errs []string
+	if t.Images == "" {
+		errs = append(errs, "images: required (a folder, a glob, a list file or a video)")
+	}
+	n := 0
+	for _, set := range []bool{t.Times.FPS != 0, t.Times.CSV != "", t.Times.MTime} {
+		if set {
+			n++
+		}
+	}
+	if n > 1 {
+		errs = append(errs, "times: give one of fps, csv and mtime")
+	}
+	if t.Times.FPS < 0 {
+		errs = append(errs, fmt.Sprintf("times.fps: %g, expected a positive rate", t.Times.FPS))
+	}
+	if len(t.Scale.Line) != 0 && len(t.Scale.Line) != 5 {
+		errs = append(errs, "scale.line: expected [x1, y1, x2, y2, mm]")
+	}
+	if t.Scale.MMPerPx != 0 && len(t.Scale.Line) != 0 {
+		errs = append(errs, "scale: give mm_per_px or line, not both")
+	}
+	for i, o := range t.Openings {
+		if o.Shape == "" {
+			errs = append(errs, fmt.Sprintf("openings[%d]: shape is required", i))
+		}
+	}
+	if t.Load.File != "" && !(t.Load.AreaMM2 > 0) {
+		errs = append(errs, "load.area_mm2: required with load.file (nominal stress = force / area)")
+	}
+	if len(t.Load.Sync) != 0 && len(t.Load.Sync) != 2 {
+		errs = append(errs, "load.sync: expected [camera_s, log_s]")
+	}
+	for i, s := range t.Correlation.Seeds {
+		if len(s) != 2 {
+			errs = append(errs, fmt.Sprintf("correlation.seeds[%d]: expected [x, y]", i))
+		}
+	}
+	if len(errs) > 0 {
+		return fmt.Errorf("%s", strings.Join(errs, "; "))
+	}
+	return nil
+}
+
+var unknownField = regexp.MustCompile(`\[(\d+):(\d+)\] unknown field "([^"]+)"`)
+
+// explain turns a YAML error into one that names the file and line and,
+// for an unknown key, lists the keys valid where it stands.
+func explain(path string, data []byte, err error) error {
+	msg := yaml.FormatError(err, false, false)
+	if m := unknownField.FindStringSubmatch(msg); m != nil {
+		line, _ := strconv.Atoi(m[1])
+		keys := validKeys(reflect.TypeOf(Test{}), sectionOf(data, line))
+		return fmt.Errorf("test config %s line %s: unknown key %q; valid keys here: %s", path, m[1], m[3], strings.Join(keys, ", "))
+	}
+	if m := position.FindStringSubmatch(msg); m != nil {
+		return fmt.Errorf("test config %s line %s column %s: %s", path, m[1], m[2], strings.TrimSpace(m[3]))
+	}
+	return fmt.Errorf("test config %s: %s", path, strings.TrimSpace(msg))
+}
+
+var position = regexp.MustCompile(`^\[(\d+):(\d+)\] ([^\n]*)`)
+
+// sectionOf returns the chain of parent keys of the given 1-based line, by
+// indentation.
+func sectionOf(data []byte, line int) []string {
+	lines := strings.Split(string(data), "\n")
+	if line < 1 || line > len(lines) {
+		return nil
+	}
+	indent := func(s string) int { return len(s) - len(strings.TrimLeft(s, " -")) }
+	var chain []string
+	cur := indent(lines[line-1])
+	for i := line - 2; i >= 0 && cur > 0; i-- {
+		l := lines[i]
+		if strings.TrimSpace(l) == "" || strings.HasPrefix(strings.TrimSpace(l), "#") {
+			continue
+		}
+		if d := indent(l); d < cur {
+			key, _, _ := strings.Cut(strings.TrimLeft(l, " -"), ":")
+			chain = append([]string{strings.TrimSpace(key)}, chain...)
+			cur = d
+		}
+	}
+	return chain
+}
+
+// validKeys lists the yaml keys of the struct reached from t by the chain.
+func validKeys(t reflect.Type, chain []string) []string {
+	for _, k := range chain {
+		for t.Kind() == reflect.Slice || t.Kind() == reflect.Pointer {
+			t = t.Elem()
+		}
+		if t.Kind() != reflect.Struct {
+			break
+		}
+		for i := 0; i < t.NumField(); i++ {
+			if tag, _, _ := strings.Cut(t.Field(i).Tag.Get("yaml"), ","); tag == k {
+				t = t.Field(i).Type
+				break
+			}
+		}
+	}
+	for t.Kind() == reflect.Slice || t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	var keys []string
+	if t.Kind() == reflect.Struct {
+		for i := 0; i < t.NumField(); i++ {
+			if tag, _, _ := strings.Cut(t.Field(i).Tag.Get("yaml"), ","); tag != "" && tag != "-" {
+				keys = append(keys, tag)
+			}
+		}
+	}
+	return keys
+}

@@ -1,0 +1,312 @@
+package testrun
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"time"
+
+	"spallscope/dic"
+	"spallscope/dic/region"
+	"spallscope/dic/runfolder"
+	"spallscope/dic/testconfig"
+	"spallscope/strain"
+)
+
+// Progress reports a stage's progress: done of total units.
+type Progress func(stage string, done, total int)
+
+// Summary is what a run produced, for the console and campaign tables.
+type Summary struct {
+	Name       string                      `json:"name"`
+	Out        string                      `json:"out"`
+	Frames     int                         `json:"frames"`
+	Peak       runfolder.PeakRecord        `json:"peak"`
+	Onsets     []runfolder.OnsetRecord     `json:"onsets"`
+	Resolution *runfolder.ResolutionRecord `json:"resolution,omitempty"`
+	Skipped    []string                    `json:"skipped_stages,omitempty"`
+	Resumed    int                         `json:"resumed_after_frames,omitempty"`
+	Seconds    float64                     `json:"seconds"`
+}
+
+// StageRecord is one stage's entry in the run.json "stages" section.
+type StageRecord struct {
+	Fingerprint string  `json:"fingerprint"`
+	Complete    bool    `json:"complete"`
+	Seconds     float64 `json:"seconds"`
+}
+
+// RunRecord is the run.json "run" section: what ran, on what.
+type RunRecord struct {
+	Tool    string             `json:"tool"`
+	Config  string             `json:"config"`
+	Hashes  map[string]string  `json:"input_sha256"`
+	Started string             `json:"started"`
+	Seconds map[string]float64 `json:"stage_seconds"`
+}
+
+// Stages in order.
+var Stages = []string{"track", "strain", "zones"}
+
+// Run does the whole job for test t into run folder out (default: a folder
+// named after the test beside its config). tool names the program and
+// version for the records.
+func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, error) {
+	start := time.Now()
+	if out == "" {
+		out = filepath.Join(t.Dir, t.Name+"_run")
+	}
+	if err := os.MkdirAll(out, 0o755); err != nil {
+		return nil, err
+	}
+	if progress == nil {
+		progress = func(string, int, int) {}
+	}
+	sum := &Summary{Name: t.Name, Out: out}
+	var stages map[string]StageRecord
+	if err := runfolder.Section(out, "stages", &stages); err != nil && !errors.Is(err, fs.ErrNotExist) {
+		return nil, err
+	}
+	if stages == nil {
+		stages = map[string]StageRecord{}
+	}
+	rr := RunRecord{Tool: tool, Config: t.Path, Hashes: map[string]string{}, Started: start.UTC().Format(time.RFC3339), Seconds: map[string]float64{}}
+	var err error
+	if rr.Hashes["config"], err = fileHash(t.Path); err != nil {
+		return nil, err
+	}
+
+	// Inputs.
+	var openings []string
+	for _, o := range t.Openings {
+		openings = append(openings, o.Shape)
+	}
+	exclude := append(append([]string{}, openings...), t.Exclude...)
+	in, err := Open(t.Resolve(t.Images), resolveRef(t), t.ROI, exclude, t.Resolve(t.Mask))
+	if err != nil {
+		return nil, fmt.Errorf("test %s: %w", t.Name, err)
+	}
+	defer in.Seq.Close()
+	sum.Frames = in.Seq.Len()
+	settings, err := Correlation(t.Correlation)
+	if err != nil {
+		return nil, fmt.Errorf("test %s: correlation: %w", t.Name, err)
+	}
+	scale, err := Scale(t.Scale)
+	if err != nil {
+		return nil, fmt.Errorf("test %s: %w", t.Name, err)
+	}
+	times, err := Times(in.Seq, t.Resolve(t.Times.CSV), t.Times.FPS, t.Times.MTime)
+	if err != nil {
+		return nil, fmt.Errorf("test %s: %w", t.Name, err)
+	}
+	maskHash, err := fileHash(t.Resolve(t.Mask))
+	if err != nil {
+		return nil, err
+	}
+	rr.Hashes["mask"] = maskHash
+	rr.Hashes["images"] = sequenceDigest(in.Seq)
+
+	// Track.
+	fpTrack := fingerprint("track", rr.Hashes["images"], resolveRef(t), t.ROI, exclude, maskHash, settings, scale)
+	stageStart := time.Now()
+	if st := stages["track"]; st.Fingerprint == fpTrack && st.Complete {
+		sum.Skipped = append(sum.Skipped, "track")
+	} else {
+		from := 0
+		tracker, err := dic.NewTracker(in.Ref, max(in.RefIndex, 0), in.Mask, settings)
+		if err != nil {
+			return nil, fmt.Errorf("test %s: %w", t.Name, err)
+		}
+		if st.Fingerprint == fpTrack && tracker.Settings().Reference == dic.FixedReference {
+			from = resumePoint(out, in)
+			if from > 0 {
+				f, err := runfolder.ReadField(runfolder.FieldPath(out, in.Seq.Name(from-1)))
+				if err == nil {
+					err = tracker.Resume(f)
+				}
+				if err != nil {
+					from = 0 // the last field cannot be used: start again
+					tracker, _ = dic.NewTracker(in.Ref, max(in.RefIndex, 0), in.Mask, settings)
+				}
+			}
+		}
+		if from == 0 {
+			clearFrom(out, "track")
+		}
+		sum.Resumed = from
+		stages["track"] = StageRecord{Fingerprint: fpTrack}
+		for _, s := range Stages[1:] {
+			delete(stages, s)
+		}
+		if err := runfolder.SetSection(out, "stages", stages); err != nil {
+			return nil, err
+		}
+		rec := runfolder.TrackRecord{Tool: tool, Images: t.Resolve(t.Images), Reference: resolveRef(t), MMPerPx: scale, Times: times, Exclude: exclude}
+		if _, err := runfolder.Track(out, in.Seq, tracker, rec, from, func(n int, _ *dic.Field) { progress("track", n, in.Seq.Len()) }); err != nil {
+			return nil, fmt.Errorf("test %s: %w", t.Name, err)
+		}
+		stages["track"] = StageRecord{Fingerprint: fpTrack, Complete: true, Seconds: time.Since(stageStart).Seconds()}
+		if err := runfolder.SetSection(out, "stages", stages); err != nil {
+			return nil, err
+		}
+	}
+	rr.Seconds["track"] = time.Since(stageStart).Seconds()
+
+	// Strain.
+	win, err := Window(t.Strain)
+	if err != nil {
+		return nil, fmt.Errorf("test %s: strain: %w", t.Name, err)
+	}
+	fpStrain := fingerprint("strain", fpTrack, win, t.Strain.StaticFrames, scale)
+	stageStart = time.Now()
+	if st := stages["strain"]; st.Fingerprint == fpStrain && st.Complete {
+		sum.Skipped = append(sum.Skipped, "strain")
+	} else {
+		clearFrom(out, "strain")
+		if _, _, err := runfolder.Strain(out, win, 0, scale, t.Strain.StaticFrames, func(n, total int) { progress("strain", n, total) }); err != nil {
+			return nil, fmt.Errorf("test %s: %w", t.Name, err)
+		}
+		stages["strain"] = StageRecord{Fingerprint: fpStrain, Complete: true, Seconds: time.Since(stageStart).Seconds()}
+		delete(stages, "zones")
+		if err := runfolder.SetSection(out, "stages", stages); err != nil {
+			return nil, err
+		}
+	}
+	rr.Seconds["strain"] = time.Since(stageStart).Seconds()
+
+	// Zones and onsets.
+	loadPath := t.Resolve(t.Load.File)
+	if rr.Hashes["load_log"], err = fileHash(loadPath); err != nil {
+		return nil, err
+	}
+	fpZones := fingerprint("zones", fpStrain, t.Zones, t.Load, rr.Hashes["load_log"], times, t.Openings)
+	stageStart = time.Now()
+	if st := stages["zones"]; st.Fingerprint == fpZones && st.Complete {
+		sum.Skipped = append(sum.Skipped, "zones")
+	} else {
+		if err := zones(t, out, times, loadPath, scale, settings.Subset); err != nil {
+			return nil, fmt.Errorf("test %s: %w", t.Name, err)
+		}
+		stages["zones"] = StageRecord{Fingerprint: fpZones, Complete: true, Seconds: time.Since(stageStart).Seconds()}
+		if err := runfolder.SetSection(out, "stages", stages); err != nil {
+			return nil, err
+		}
+	}
+	rr.Seconds["zones"] = time.Since(stageStart).Seconds()
+	progress("zones", 1, 1)
+
+	var rep runfolder.OnsetReport
+	if err := readJSON(filepath.Join(out, runfolder.OnsetJSON), &rep); err != nil {
+		return nil, err
+	}
+	sum.Peak, sum.Onsets, sum.Resolution = rep.Peak, rep.Onsets, rep.Resolution
+	sum.Seconds = time.Since(start).Seconds()
+	if err := runfolder.SetSection(out, "run", rr); err != nil {
+		return nil, err
+	}
+	return sum, nil
+}
+
+// zones runs the zones stage with the config's load log and openings.
+func zones(t *testconfig.Test, out string, times []float64, loadPath string, scale dic.Scale, subsetSize int) error {
+	names, err := runfolder.Frames(out)
+	if err != nil {
+		return err
+	}
+	if len(times) != len(names) {
+		return fmt.Errorf("frame times are unknown: give times (fps, csv or mtime) in the test config")
+	}
+	st := runfolder.ZoneStage{CalibrateBelow: t.Zones.CalibrateBelow, CalibrateFrames: t.Zones.CalibrateFrames, K: t.Zones.K, UCS: t.Zones.UCS}
+	z := t.Zones
+	if len(z.Indicators) > 0 {
+		inds, err := strain.ParseIndicators(joinComma(z.Indicators))
+		if err != nil {
+			return err
+		}
+		st.Finder.Indicators = inds
+	}
+	if err := Threshold(z.Threshold, &st.Finder.Thresholds); err != nil {
+		return err
+	}
+	st.Finder.Thresholds.MinCells, st.Finder.Thresholds.MinZNCC = z.MinCells, z.MinZNCC
+	st.Finder.Persistence = z.Persistence
+	st.Finder.Sectors = strain.Sectors{LoadAngleDeg: z.LoadAngleDeg, CrownHalfAngle: z.CrownHalfAngle, Reach: z.Reach}
+	for i, o := range t.Openings {
+		shape, err := region.ParseShape(o.Shape)
+		if err != nil {
+			return fmt.Errorf("openings[%d]: %w", i, err)
+		}
+		st.Finder.Sectors.Openings = append(st.Finder.Sectors.Openings, strain.Opening{Name: o.Name, Shape: shape})
+		st.OpeningNames = append(st.OpeningNames, o.Name)
+	}
+	st.Finder.Scale, st.Finder.SubsetHalf = scale, subsetSize/2
+	sigma, err := Stress(t.Load, loadPath)
+	if err != nil {
+		return err
+	}
+	states := make([]runfolder.FrameState, len(names))
+	for k, name := range names {
+		states[k] = runfolder.FrameState{Name: name, Time: times[k]}
+		if sigma != nil {
+			states[k].Stress, states[k].InSpan = sigma.At(times[k])
+		}
+	}
+	if sigma != nil {
+		if err := runfolder.RecordLoad(out, sigma); err != nil {
+			return err
+		}
+	}
+	_, err = runfolder.Zones(out, st, states, "")
+	return err
+}
+
+// resumePoint is the index of the first frame without a complete field
+// file (files are renamed into place, so one that exists is whole).
+func resumePoint(out string, in *Inputs) int {
+	for i := 0; i < in.Seq.Len(); i++ {
+		if _, err := os.Stat(runfolder.FieldPath(out, in.Seq.Name(i))); err != nil {
+			return i
+		}
+	}
+	return in.Seq.Len()
+}
+
+// clearFrom removes the outputs of a stage and of every later one.
+func clearFrom(out, stage string) {
+	dirs := map[string][]string{
+		"track":  {runfolder.FieldsDir},
+		"strain": {runfolder.StrainDir},
+	}
+	files := []string{runfolder.ZonesCSV, runfolder.ZoneCellsCSV, runfolder.OnsetJSON}
+	on := false
+	for _, s := range Stages {
+		if s == stage {
+			on = true
+		}
+		if on {
+			for _, d := range dirs[s] {
+				os.RemoveAll(filepath.Join(out, d))
+			}
+		}
+	}
+	for _, f := range files {
+		os.Remove(filepath.Join(out, f))
+	}
+}
+
+func resolveRef(t *testconfig.Test) string {
+	if t.Reference == "" {
+		return "0"
+	}
+	if _, err := strconv.Atoi(t.Reference); err == nil {
+		return t.Reference
+	}
+	return t.Resolve(t.Reference)
+}
+
+func joinComma(xs []string) string { return strings.Join(xs, ",") }
