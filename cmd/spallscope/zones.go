@@ -191,13 +191,7 @@ engineers under local codes.`,
 					return err
 				}
 			}
-			states := make([]runfolder.FrameState, len(names))
-			for k, name := range names {
-				states[k] = runfolder.FrameState{Name: name, Time: times[k]}
-				if sigma != nil {
-					states[k].Stress, states[k].InSpan = sigma.At(times[k])
-				}
-			}
+			states := runfolder.FrameStates(names, times, sigma)
 			rep, err := runfolder.Zones(run, st, states, "spallscope "+version)
 			if err != nil {
 				return err

@@ -23,3 +23,17 @@ func RecordLoad(dir string, s *loadlog.Stress) error {
 	}
 	return SetSection(dir, "load", rec)
 }
+
+// FrameStates places frames on the test's timeline: each frame's camera
+// time and, with a load log (sigma not nil), its nominal stress and
+// whether the log covers it.
+func FrameStates(names []string, times []float64, sigma *loadlog.Stress) []FrameState {
+	states := make([]FrameState, len(names))
+	for k, name := range names {
+		states[k] = FrameState{Name: name, Time: times[k]}
+		if sigma != nil {
+			states[k].Stress, states[k].InSpan = sigma.At(times[k])
+		}
+	}
+	return states
+}

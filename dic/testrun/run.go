@@ -249,13 +249,7 @@ func zones(t *testconfig.Test, out string, times []float64, loadPath string, sca
 	if err != nil {
 		return err
 	}
-	states := make([]runfolder.FrameState, len(names))
-	for k, name := range names {
-		states[k] = runfolder.FrameState{Name: name, Time: times[k]}
-		if sigma != nil {
-			states[k].Stress, states[k].InSpan = sigma.At(times[k])
-		}
-	}
+	states := runfolder.FrameStates(names, times, sigma)
 	if sigma != nil {
 		if err := runfolder.RecordLoad(out, sigma); err != nil {
 			return err
