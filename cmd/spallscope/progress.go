@@ -75,6 +75,10 @@ type stageLines struct {
 	order []string
 	state map[string]*stageState
 	drawn int
+	// tests is the campaign's size (0 for a single run): with it an overall
+	// line counts the finished tests.
+	tests int
+	start time.Time
 }
 
 type stageState struct {
@@ -91,7 +95,23 @@ func newStageLines(cmd *cobra.Command) *stageLines {
 			tty = true
 		}
 	}
-	return &stageLines{cmd: cmd, tty: tty, state: map[string]*stageState{}}
+	return &stageLines{cmd: cmd, tty: tty, state: map[string]*stageState{}, start: time.Now()}
+}
+
+// overall describes the campaign's progress: tests whose last stage is done.
+func (s *stageLines) overall() string {
+	done := 0
+	for _, st := range s.state {
+		if st.stage == "zones" && st.done == st.total {
+			done++
+		}
+	}
+	el := time.Since(s.start)
+	left := "?"
+	if done > 0 {
+		left = time.Duration(float64(el) / float64(done) * float64(s.tests-done)).Round(time.Second).String()
+	}
+	return fmt.Sprintf("%-16s %d/%d tests done, %s elapsed, %s left", "campaign", done, s.tests, el.Round(time.Second), left)
 }
 
 func (s *stageLines) update(test, stage string, done, total int) {
@@ -112,6 +132,9 @@ func (s *stageLines) update(test, stage string, done, total int) {
 		if tenth := done * 10 / max(total, 1); tenth != st.lastTenth || done == total {
 			st.lastTenth = tenth
 			fmt.Fprintln(w, s.line(test, st))
+			if s.tests > 0 && stage == "zones" && done == total {
+				fmt.Fprintln(w, s.overall())
+			}
 		}
 		return
 	}
@@ -122,6 +145,10 @@ func (s *stageLines) update(test, stage string, done, total int) {
 		fmt.Fprintf(w, "\r\033[K%s\n", s.line(t, s.state[t]))
 	}
 	s.drawn = len(s.order)
+	if s.tests > 0 {
+		fmt.Fprintf(w, "\r\033[K%s\n", s.overall())
+		s.drawn++
+	}
 }
 
 func (s *stageLines) line(test string, st *stageState) string {

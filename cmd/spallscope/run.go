@@ -95,6 +95,7 @@ test's peak stress and resolution.`,
 				out = filepath.Join(c.Dir, c.Name+"_runs")
 			}
 			bars := newStageLines(cmd)
+			bars.tests = len(c.Tests)
 			results := testrun.RunCampaign(c, out, "spallscope "+version, jobs, bars.update)
 			bars.finish()
 			if err := testrun.WriteCampaignSummary(out, c.Name, results); err != nil {
