@@ -1,0 +1,134 @@
+package render
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"spallscope/dic"
+	"spallscope/strain"
+)
+
+// Gauge is a virtual strain gauge: the mean of one strain component over
+// the grid points inside a rectangle of the specimen face (reference px,
+// edges included), as a bonded foil gauge of that size would read. The
+// zero rectangle means "not placed": DefaultGauge places it.
+type Gauge struct {
+	X0, Y0, X1, Y1 float64
+	// Component is a strain component of strain.Components (default eyy,
+	// along the usual vertical load axis).
+	Component string
+}
+
+// IsZero reports whether the rectangle was left unplaced.
+func (g Gauge) IsZero() bool { return g.X0 == 0 && g.Y0 == 0 && g.X1 == 0 && g.Y1 == 0 }
+
+// component returns the component, eyy when not given.
+func (g Gauge) component() string {
+	if g.Component == "" {
+		return "eyy"
+	}
+	return g.Component
+}
+
+// String gives the component and the rectangle, for legends and the
+// report.
+func (g Gauge) String() string { return g.component() + " over " + g.Rect() }
+
+// Rect gives the rectangle's corners.
+func (g Gauge) Rect() string {
+	return fmt.Sprintf("(%.0f, %.0f)–(%.0f, %.0f) px", g.X0, g.Y0, g.X1, g.Y1)
+}
+
+// Points returns the grid points of grid inside the rectangle. A
+// rectangle without grid points, or an unknown component, is an error.
+func (g Gauge) Points(grid dic.Grid) ([]int, error) {
+	if c := g.component(); c == "angle_deg" || !slices.Contains(strain.Components, c) {
+		return nil, fmt.Errorf("gauge component %q, expected a strain component: exx, eyy, exy, e1, e2, gamma_max or e_eq", g.Component)
+	}
+	x0, x1 := math.Min(g.X0, g.X1), math.Max(g.X0, g.X1)
+	y0, y1 := math.Min(g.Y0, g.Y1), math.Max(g.Y0, g.Y1)
+	var in []int
+	for i := range grid.Len() {
+		x, y := grid.Pos(i)
+		if fx, fy := float64(x), float64(y); fx >= x0 && fx <= x1 && fy >= y0 && fy <= y1 {
+			in = append(in, i)
+		}
+	}
+	if len(in) == 0 {
+		return nil, fmt.Errorf("gauge %s holds no grid point (grid every %d px from (%d, %d))", g, grid.Step, grid.X0, grid.Y0)
+	}
+	return in, nil
+}
+
+// Mean returns the mean of the gauge's component over its grid points that
+// hold a strain in f, and how many did (mean NaN when none did).
+func (g Gauge) Mean(f *strain.Field) (mean float64, n int, err error) {
+	pts, err := g.Points(f.Grid)
+	if err != nil {
+		return 0, 0, err
+	}
+	name := g.component()
+	sum := 0.0
+	for _, i := range pts {
+		p := &f.Points[i]
+		if !p.Valid {
+			continue
+		}
+		v, _ := p.Value(name)
+		sum += v
+		n++
+	}
+	if n == 0 {
+		return math.NaN(), 0, nil
+	}
+	return sum / float64(n), n, nil
+}
+
+// DefaultGauge places an eyy gauge of about a fifth of the grid's width
+// and height (at least 3×3 grid points) where its every point is measured
+// in the reference field and its farthest from the unmeasured points (the
+// openings, masked areas) and from the grid's edges: rock that stays
+// elastic longest, away from stress concentrations and end effects. Ties
+// go to the window nearest the grid centre.
+func DefaultGauge(ref *dic.Field) Gauge {
+	g := ref.Grid
+	w, h := max(3, g.Cols/5), max(3, g.Rows/5)
+	w, h = min(w, g.Cols), min(h, g.Rows)
+	// room[i]: distance in steps from point i to the nearest unmeasured
+	// point or to just beyond the grid's edge.
+	var holes [][2]int
+	for i := range ref.Points {
+		if !ref.Points[i].Valid() {
+			holes = append(holes, [2]int{i % g.Cols, i / g.Cols})
+		}
+	}
+	room := make([]float64, g.Len())
+	for i := range room {
+		c, r := i%g.Cols, i/g.Cols
+		d := float64(min(c+1, r+1, g.Cols-c, g.Rows-r))
+		for _, hp := range holes {
+			d = math.Min(d, math.Hypot(float64(c-hp[0]), float64(r-hp[1])))
+		}
+		room[i] = d
+	}
+	bestC, bestR, bestScore, bestCentre := 0, 0, -1.0, math.Inf(1)
+	cc, cr := float64(g.Cols-w)/2, float64(g.Rows-h)/2
+	for r := 0; r+h <= g.Rows; r++ {
+		for c := 0; c+w <= g.Cols; c++ {
+			score := math.Inf(1)
+			for dr := range h {
+				for dc := range w {
+					score = math.Min(score, room[g.Index(c+dc, r+dr)])
+				}
+			}
+			centre := math.Hypot(float64(c)-cc, float64(r)-cr)
+			if score > bestScore || (score == bestScore && centre < bestCentre) {
+				bestC, bestR, bestScore, bestCentre = c, r, score, centre
+			}
+		}
+	}
+	x0, y0 := g.Pos(g.Index(bestC, bestR))
+	x1, y1 := g.Pos(g.Index(bestC+w-1, bestR+h-1))
+	return Gauge{X0: float64(x0), Y0: float64(y0), X1: float64(x1), Y1: float64(y1), Component: "eyy"}
+}

@@ -1,0 +1,233 @@
+package render
+
+import (
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+	"time"
+)
+
+// reportVoid are the HTML elements without an end tag (the HTML standard's
+// void elements that the page uses).
+var reportVoid = map[string]bool{"meta": true, "img": true, "input": true, "br": true, "hr": true, "link": true}
+
+var (
+	reportTag     = regexp.MustCompile(`<(/?)([a-zA-Z][a-zA-Z0-9]*)\b[^>]*>`)
+	reportScript  = regexp.MustCompile(`(?s)<script>.*?</script>`)
+	reportComment = regexp.MustCompile(`(?s)<!--.*?-->`)
+)
+
+// checkReportStructure is a simple structural check of the page: it starts
+// with the doctype, has one html, head and body, and every element opened
+// is closed in order (the page closes every element it opens; void
+// elements excepted). Scripts and comments are set aside first.
+func checkReportStructure(t *testing.T, page string) {
+	t.Helper()
+	if !strings.HasPrefix(page, "<!DOCTYPE html>\n") {
+		t.Errorf("page does not start with the HTML doctype: %.40q", page)
+	}
+	body := reportComment.ReplaceAllString(reportScript.ReplaceAllString(page, "<script></script>"), "")
+	var stack []string
+	count := map[string]int{}
+	for _, m := range reportTag.FindAllStringSubmatch(body, -1) {
+		closing, name := m[1] == "/", strings.ToLower(m[2])
+		if reportVoid[name] {
+			continue
+		}
+		if !closing {
+			stack = append(stack, name)
+			count[name]++
+			continue
+		}
+		if len(stack) == 0 || stack[len(stack)-1] != name {
+			t.Fatalf("</%s> closes %v", name, stack)
+		}
+		stack = stack[:len(stack)-1]
+	}
+	if len(stack) != 0 {
+		t.Errorf("elements left open: %v", stack)
+	}
+	for _, name := range []string{"html", "head", "body", "main", "footer"} {
+		if count[name] != 1 {
+			t.Errorf("%d <%s> elements, want 1", count[name], name)
+		}
+	}
+}
+
+// writeFixtureReport writes the fixture run and its report.
+func writeFixtureReport(t *testing.T, opt ReportOptions) (dir, page string) {
+	t.Helper()
+	dir = filepath.Join(t.TempDir(), "run")
+	writeFixtureRun(t, dir)
+	if opt.Now.IsZero() {
+		opt.Now = time.Date(2025, 3, 4, 5, 6, 0, 0, time.UTC)
+	}
+	path, err := WriteReport(dir, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return dir, string(data)
+}
+
+// The report of the fixture run: well-formed, with the cautions, the job,
+// the settings and resolution, one onset row per onset with its
+// comparison, the frame slider over every overlay, every plot and the
+// pattern section, all by relative paths that exist.
+func TestReportContent(t *testing.T) {
+	dir, page := writeFixtureReport(t, ReportOptions{Tool: "spallscope test-1"})
+	checkReportStructure(t, page)
+	if n := strings.Count(page, `<tr class="onset">`); n != fixtureOnsetCount {
+		t.Errorf("%d onset rows, want %d", n, fixtureOnsetCount)
+	}
+	wants := []string{
+		`id="cautions"`, "eye protection", "not design values", "licensed engineers",
+		"Test report — run", "spallscope test-1", "2025-03-04 05:06 UTC",
+		// settings and resolution (fixture values)
+		"15 px (1.5 mm)", "affine", "bicubic", "3 × 3 grid points", "31 px (3.1 mm)", "engineering",
+		">0.004<", "0.4 µm", ">70<", "blk_0000, blk_0001",
+		// onsets: left sidewall at 18 MPa, 75 % of the 24 MPa peak; Kirsch 3σ = 54 MPa = 0.90 UCS
+		"left-sidewall", "blk_0003 (#3)", ">18.00<", ">75<", "1.92 mm²",
+		"σθ ≈ (3 − K)·σ = 3 × 18 MPa = 54 MPa (K = 0)", "0.90 UCS (UCS 60 MPa)",
+		"0.4 ± 0.1 UCS (Martin, Kaiser &amp; McCreath 1999)", "Approximation (single circular opening, elastic medium)",
+		"tensile at the boundary", "not in the load log: stress not measured",
+		// slider
+		`<input type="range" id="frame-slider" min="0" max="5"`, `data-src="overlays/blk_0005.png"`, "σ = 18 MPa (75 % of peak)",
+		// pattern
+		`id="pattern"`, "3.2 px", "fixture note: speckles are small",
+	}
+	for _, w := range wants {
+		if !strings.Contains(page, w) {
+			t.Errorf("report lacks %q", w)
+		}
+	}
+	for _, m := range regexp.MustCompile(`(?:src|href)="([^"]+)"`).FindAllStringSubmatch(page, -1) {
+		ref := m[1]
+		if strings.HasPrefix(ref, "#") {
+			continue
+		}
+		if strings.Contains(ref, "://") || strings.HasPrefix(ref, "//") {
+			t.Errorf("page refers to %q off the run folder", ref)
+			continue
+		}
+		if _, err := os.Stat(filepath.Join(dir, filepath.FromSlash(ref))); err != nil {
+			t.Errorf("page refers to %q: %v", ref, err)
+		}
+	}
+	if n := strings.Count(page, `<figure class="plot"`); n != 6 {
+		t.Errorf("%d plots on the page, want 6", n)
+	}
+}
+
+// Text from the run folder is escaped: a title or a file name with markup
+// shows as text.
+func TestReportEscapes(t *testing.T) {
+	_, page := writeFixtureReport(t, ReportOptions{Title: `Block <script>alert("x")</script> & co`})
+	if strings.Contains(page, `<script>alert`) {
+		t.Error("title markup reached the page unescaped")
+	}
+	if !strings.Contains(page, "Block &lt;script&gt;alert(&#34;x&#34;)&lt;/script&gt; &amp; co") {
+		t.Error("escaped title missing")
+	}
+}
+
+// With Embed the page carries its images as data URIs and refers to no
+// file; written elsewhere without Embed it refers to the run folder's
+// files by relative paths from its own folder.
+func TestReportEmbedAndOut(t *testing.T) {
+	_, page := writeFixtureReport(t, ReportOptions{Embed: true})
+	checkReportStructure(t, page)
+	if n := strings.Count(page, ` src="data:image/png;base64,`); n != 6+1+1 {
+		t.Errorf("%d embedded images, want 8: 6 plots, the first overlay and the pattern map", n)
+	}
+	if n := strings.Count(page, `data-src="data:image/png;base64,`); n != len(fixtureNames) {
+		t.Errorf("%d embedded overlays, want %d", n, len(fixtureNames))
+	}
+	if regexp.MustCompile(`(?:src|href)="(?:plots|overlays)/`).MatchString(page) {
+		t.Error("embedded page still refers to files")
+	}
+
+	dir := filepath.Join(t.TempDir(), "run")
+	writeFixtureRun(t, dir)
+	out := filepath.Join(filepath.Dir(dir), "share", "r.html")
+	if _, err := WriteReport(dir, ReportOptions{Out: out}); err != nil {
+		t.Fatal(err)
+	}
+	data, _ := os.ReadFile(out)
+	if !strings.Contains(string(data), `src="../run/plots/stress_time.png"`) {
+		t.Error("report written elsewhere does not refer to ../run/plots/")
+	}
+	if _, err := os.Stat(filepath.Join(dir, ReportFile)); err == nil {
+		t.Error("report written into the run folder despite Out")
+	}
+}
+
+// A run folder with fields only: the page still renders and says what is
+// missing (no resolution, no zones, no overlays) instead of failing.
+func TestReportOnPartialRun(t *testing.T) {
+	dir := t.TempDir()
+	writeFixtureRun(t, dir)
+	for _, f := range []string{"onset.json", "zones.csv", "zone_cells.csv", "run.json"} {
+		fixtureMust(t, os.Remove(filepath.Join(dir, f)))
+	}
+	fixtureMust(t, os.RemoveAll(filepath.Join(dir, OverlaysDir)))
+	fixtureMust(t, os.RemoveAll(filepath.Join(dir, "pattern")))
+	path, err := WriteReport(dir, ReportOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, _ := os.ReadFile(path)
+	page := string(data)
+	checkReportStructure(t, page)
+	for _, w := range []string{`id="resolution-missing"`, "Zones have not been found", `id="frames-missing"`, "What this run lacks", "eye protection"} {
+		if !strings.Contains(page, w) {
+			t.Errorf("partial report lacks %q", w)
+		}
+	}
+	if strings.Contains(page, `id="frame-slider"`) || strings.Contains(page, `<tr class="onset">`) {
+		t.Error("partial report shows a slider or onsets it has no data for")
+	}
+	// A pattern file that was asked for must exist.
+	if _, err := WriteReport(dir, ReportOptions{Pattern: filepath.Join(dir, "none.json")}); err == nil || !strings.Contains(err.Error(), "none.json") {
+		t.Errorf("missing pattern file: %v", err)
+	}
+}
+
+// Overlays are matched to frames by name, and several overlays of a frame
+// (one suffix per kind) make one slider list per kind.
+func TestReportOverlayKinds(t *testing.T) {
+	names := []string{"f_1", "f_10", "f_2"}
+	cases := []struct {
+		stem  string
+		frame int
+		kind  string
+	}{{"f_1", 0, ""}, {"f_10", 1, ""}, {"f_10_e1", 1, "_e1"}, {"f_1-eyy", 0, "-eyy"}, {"f_100", -1, ""}, {"g_1", -1, ""}}
+	for _, c := range cases {
+		if k, kind := matchFrame(names, c.stem); k != c.frame || kind != c.kind {
+			t.Errorf("matchFrame(%q) = %d, %q, want %d, %q", c.stem, k, kind, c.frame, c.kind)
+		}
+	}
+	dir := t.TempDir()
+	writeFixtureRun(t, dir)
+	for _, name := range fixtureNames[:3] {
+		src, _ := os.ReadFile(filepath.Join(dir, OverlaysDir, name+".png"))
+		fixtureMust(t, os.WriteFile(filepath.Join(dir, OverlaysDir, name+"_e1.png"), src, 0o644))
+	}
+	path, err := WriteReport(dir, ReportOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, _ := os.ReadFile(path)
+	page := string(data)
+	if !strings.Contains(page, `<select id="frame-kind">`) || !strings.Contains(page, `>e1</option>`) {
+		t.Error("no overlay kind selector for two kinds of overlay")
+	}
+	if n := strings.Count(page, `<ol class="frame-list"`); n != 2 {
+		t.Errorf("%d frame lists, want 2", n)
+	}
+}

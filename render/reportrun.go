@@ -1,0 +1,215 @@
+package render
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+
+	"spallscope/dic"
+	"spallscope/dic/runfolder"
+)
+
+// runRecords is what a run folder says about its test, read once for the
+// plots and the report. A stage that has not run leaves its record nil;
+// Missing says, for people, what is absent and what that costs.
+type runRecords struct {
+	Dir        string
+	Track      *runfolder.TrackRecord
+	Strain     *runfolder.StrainRecord
+	Resolution *runfolder.ResolutionRecord
+	Timeline   *runfolder.TimelineRecord
+	Load       *runfolder.LoadRecord
+	Onset      *runfolder.OnsetReport
+	Zones      []runfolder.ZoneRow
+	Scale      dic.Scale
+	Axis       frameAxis
+	Missing    []string
+}
+
+// frameAxis places the frames of a run along the horizontal axis of the
+// history plots: at their camera times when the run knows them, else at
+// their positions in the sequence.
+type frameAxis struct {
+	Names []string
+	// X is each frame's place: time in s when Timed, else the frame index.
+	X     []float64
+	Timed bool
+	// Stress is each frame's nominal stress in MPa (NaN when unknown).
+	Stress []float64
+	index  map[string]int
+}
+
+// Label is the axis label.
+func (a frameAxis) Label() string {
+	if a.Timed {
+		return "time, s"
+	}
+	return "frame"
+}
+
+// Of returns the place of a frame by name, and whether it is known.
+func (a frameAxis) Of(name string) (float64, bool) {
+	k, ok := a.index[name]
+	if !ok {
+		return 0, false
+	}
+	return a.X[k], true
+}
+
+// HasStress reports whether some frame has a known stress.
+func (a frameAxis) HasStress() bool {
+	for _, s := range a.Stress {
+		if !math.IsNaN(s) {
+			return true
+		}
+	}
+	return false
+}
+
+// readRunRecords reads every record of run folder dir. Only a folder
+// without displacement fields and without a manifest is an error; a record
+// that exists but cannot be read is an error naming its file.
+func readRunRecords(dir string) (*runRecords, error) {
+	if st, err := os.Stat(dir); err != nil {
+		return nil, fmt.Errorf("run folder: %w", err)
+	} else if !st.IsDir() {
+		return nil, fmt.Errorf("run folder %s is not a folder", dir)
+	}
+	r := &runRecords{Dir: dir}
+	var tr runfolder.TrackRecord
+	var sr runfolder.StrainRecord
+	var res runfolder.ResolutionRecord
+	var tl runfolder.TimelineRecord
+	var ld runfolder.LoadRecord
+	sections := []struct {
+		name, missing string
+		v             any
+		keep          func()
+	}{
+		{"track", "no track record: settings are unknown", &tr, func() { r.Track = &tr }},
+		{"strain", "no strain record: the strain window and VSG are unknown", &sr, func() { r.Strain = &sr }},
+		{"resolution", "no resolution record: no static frames were measured, so the results carry no stated noise floor", &res, func() { r.Resolution = &res }},
+		{"timeline", "no timeline: frame stresses are unknown (run zones with a load log)", &tl, func() { r.Timeline = &tl }},
+		{"load", "no load log record: the stress history is unknown", &ld, func() { r.Load = &ld }},
+	}
+	for _, s := range sections {
+		err := runfolder.Section(dir, s.name, s.v)
+		switch {
+		case err == nil:
+			s.keep()
+		case errors.Is(err, fs.ErrNotExist):
+			r.Missing = append(r.Missing, s.missing)
+		default:
+			return nil, err
+		}
+	}
+	onsetPath := filepath.Join(dir, runfolder.OnsetJSON)
+	data, err := os.ReadFile(onsetPath)
+	switch {
+	case err == nil:
+		var rep runfolder.OnsetReport
+		if err := json.Unmarshal(data, &rep); err != nil {
+			return nil, fmt.Errorf("%s: %w", onsetPath, err)
+		}
+		r.Onset = &rep
+	case errors.Is(err, fs.ErrNotExist):
+		r.Missing = append(r.Missing, "no onset.json: zones have not been found (run zones)")
+	default:
+		return nil, err
+	}
+	r.Zones, err = runfolder.ReadZones(dir)
+	if err != nil {
+		if !errors.Is(err, fs.ErrNotExist) {
+			return nil, err
+		}
+		r.Zones = nil
+		if r.Onset != nil {
+			r.Missing = append(r.Missing, fmt.Sprintf("zone histories not drawn: %v", err))
+		}
+	}
+	r.Scale = runfolder.Scale(dir)
+	if r.Axis, err = r.frameAxis(); err != nil {
+		return nil, err
+	}
+	return r, nil
+}
+
+// frameAxis builds the frames' places from the timeline, else the track
+// record, else the fields on disk.
+func (r *runRecords) frameAxis() (frameAxis, error) {
+	var a frameAxis
+	var times []float64
+	switch {
+	case r.Timeline != nil && len(r.Timeline.Frames) > 0:
+		a.Names, times = r.Timeline.Frames, r.Timeline.Times
+		if len(r.Timeline.Stress) == len(a.Names) {
+			a.Stress = r.Timeline.Stress
+		}
+	case r.Track != nil && len(r.Track.Frames) > 0:
+		a.Names, times = r.Track.Frames, r.Track.Times
+	default:
+		names, err := runfolder.Frames(r.Dir)
+		if err != nil {
+			if r.Onset == nil && r.Track == nil && r.Strain == nil {
+				return a, fmt.Errorf("%s holds no run: %w", r.Dir, err)
+			}
+			return a, nil
+		}
+		a.Names = names
+	}
+	if len(times) == len(a.Names) && len(times) > 1 {
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for _, t := range times {
+			lo, hi = math.Min(lo, t), math.Max(hi, t)
+		}
+		a.Timed = hi > lo
+	}
+	a.index = make(map[string]int, len(a.Names))
+	for k, name := range a.Names {
+		a.index[name] = k
+		if a.Timed {
+			a.X = append(a.X, times[k])
+		} else {
+			a.X = append(a.X, float64(k))
+		}
+	}
+	if a.Stress == nil {
+		a.Stress = make([]float64, len(a.Names))
+		for k := range a.Stress {
+			a.Stress[k] = math.NaN()
+		}
+	}
+	return a, nil
+}
+
+// OnsetX returns the place of an onset on the frame axis.
+func (r *runRecords) OnsetX(o runfolder.OnsetRecord) float64 {
+	if x, ok := r.Axis.Of(o.Name); ok {
+		return x
+	}
+	if r.Axis.Timed {
+		return o.Time
+	}
+	return float64(o.Frame)
+}
+
+// ZoneX returns the place of a zone row on the frame axis.
+func (r *runRecords) ZoneX(z runfolder.ZoneRow) float64 {
+	if x, ok := r.Axis.Of(z.Frame); ok {
+		return x
+	}
+	return z.Time
+}
+
+// ZoneFrame returns the position of a zone row's frame in the sequence,
+// −1 when the frame is not one of the run's.
+func (r *runRecords) ZoneFrame(z runfolder.ZoneRow) int {
+	if k, ok := r.Axis.index[z.Frame]; ok {
+		return k
+	}
+	return -1
+}
