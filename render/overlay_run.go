@@ -24,7 +24,6 @@ import (
 // OverlaysDir is the run-folder folder Run writes the overlay images to,
 // one PNG per frame named after it (the folder the report page reads).
 
-
 // Photos to draw on.
 const (
 	OnReference = "reference" // the reference photo, fields where measured
