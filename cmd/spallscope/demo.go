@@ -41,6 +41,7 @@ load:
   file: synth/loadlog.csv
   area_mm2: %g
   clock_offset_s: %g
+outputs: {overlays: true, video: true, report: true, field: gamma_max}
 `, sc.FPS, sc.Specimen.MMPerPx, o.Cx, o.Cy, o.Rx, sc.Load.StartFrame+1, demoK, demoUCS, sc.Specimen.LoadedArea(), sc.Load.ClockOffset)
 }
 
@@ -107,6 +108,9 @@ reused; an interrupted one resumes.`,
 			}
 			fmt.Fprintf(o, "  onsets (UCS %.0f MPa, K = %.2f assumed for the context):\n", demoUCS, demoK)
 			printOnsets(cmd, &runfolder.OnsetReport{Peak: sum.Peak, Onsets: sum.Onsets}, filepath.Join(runDir, runfolder.OnsetJSON))
+			if sum.Report != "" {
+				fmt.Fprintf(o, "report: %s\n", sum.Report)
+			}
 			fmt.Fprintf(o, "done in %.1f s\n", time.Since(start).Seconds())
 			return nil
 		},

@@ -65,6 +65,9 @@ func printSummary(cmd *cobra.Command, s *testrun.Summary) {
 	}
 	rep := &runfolder.OnsetReport{Peak: s.Peak, Onsets: s.Onsets}
 	printOnsets(cmd, rep, filepath.Join(s.Out, runfolder.OnsetJSON))
+	if s.Report != "" {
+		fmt.Fprintf(o, "report: %s\n", s.Report)
+	}
 }
 
 func newBatchCmd() *cobra.Command {

@@ -11,9 +11,11 @@ import (
 	"time"
 
 	"spallscope/dic"
+	"spallscope/dic/export"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/testconfig"
+	"spallscope/render"
 	"spallscope/strain"
 )
 
@@ -30,6 +32,7 @@ type Summary struct {
 	Resolution *runfolder.ResolutionRecord `json:"resolution,omitempty"`
 	Skipped    []string                    `json:"skipped_stages,omitempty"`
 	Resumed    int                         `json:"resumed_after_frames,omitempty"`
+	Report     string                      `json:"report,omitempty"`
 	Seconds    float64                     `json:"seconds"`
 }
 
@@ -50,7 +53,7 @@ type RunRecord struct {
 }
 
 // Stages in order.
-var Stages = []string{"track", "strain", "zones"}
+var Stages = []string{"track", "strain", "zones", "outputs"}
 
 // Run does the whole job for test t into run folder out (default: a folder
 // named after the test beside its config). tool names the program and
@@ -173,6 +176,7 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 		}
 		stages["strain"] = StageRecord{Fingerprint: fpStrain, Complete: true, Seconds: time.Since(stageStart).Seconds()}
 		delete(stages, "zones")
+		delete(stages, "outputs")
 		if err := runfolder.SetSection(out, "stages", stages); err != nil {
 			return nil, err
 		}
@@ -193,12 +197,33 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 			return nil, fmt.Errorf("test %s: %w", t.Name, err)
 		}
 		stages["zones"] = StageRecord{Fingerprint: fpZones, Complete: true, Seconds: time.Since(stageStart).Seconds()}
+		delete(stages, "outputs")
 		if err := runfolder.SetSection(out, "stages", stages); err != nil {
 			return nil, err
 		}
 	}
 	rr.Seconds["zones"] = time.Since(stageStart).Seconds()
 	progress("zones", 1, 1)
+
+	// Outputs: overlays, video, report, open formats.
+	fpOut := fingerprint("outputs", fpZones, t.Outputs.WantOverlays(), t.Outputs.WantVideo(), t.Outputs.WantReport(),
+		t.Outputs.WantVTK(), t.Outputs.WantNPY(), t.Outputs.Field)
+	stageStart = time.Now()
+	if st := stages["outputs"]; st.Fingerprint == fpOut && st.Complete {
+		sum.Skipped = append(sum.Skipped, "outputs")
+	} else {
+		if err := outputs(t, out, tool, progress); err != nil {
+			return nil, fmt.Errorf("test %s: %w", t.Name, err)
+		}
+		stages["outputs"] = StageRecord{Fingerprint: fpOut, Complete: true, Seconds: time.Since(stageStart).Seconds()}
+		if err := runfolder.SetSection(out, "stages", stages); err != nil {
+			return nil, err
+		}
+	}
+	rr.Seconds["outputs"] = time.Since(stageStart).Seconds()
+	if t.Outputs.WantReport() {
+		sum.Report = filepath.Join(out, render.ReportFile)
+	}
 
 	var rep runfolder.OnsetReport
 	if err := readJSON(filepath.Join(out, runfolder.OnsetJSON), &rep); err != nil {
@@ -304,3 +329,27 @@ func resolveRef(t *testconfig.Test) string {
 }
 
 func joinComma(xs []string) string { return strings.Join(xs, ",") }
+
+// outputs draws the overlays and the video, writes the report and the
+// open-format exports the config asks for.
+func outputs(t *testconfig.Test, out, tool string, progress Progress) error {
+	o := t.Outputs
+	if o.WantOverlays() || o.WantVideo() {
+		os.RemoveAll(filepath.Join(out, render.OverlaysDir))
+		if _, err := render.Run(out, render.Options{Field: o.Field, Video: o.WantVideo(),
+			Progress: func(n, total int) { progress("render", n, total) }}); err != nil {
+			return err
+		}
+	}
+	if o.WantReport() {
+		if _, err := render.WriteReport(out, render.ReportOptions{Tool: tool}); err != nil {
+			return err
+		}
+	}
+	if o.WantVTK() || o.WantNPY() {
+		if _, err := export.Export(out, export.Options{VTK: o.WantVTK(), NPY: o.WantNPY()}); err != nil {
+			return err
+		}
+	}
+	return nil
+}
