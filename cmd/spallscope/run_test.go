@@ -138,7 +138,7 @@ func TestSettingsChangeReruns(t *testing.T) {
 		t.Fatal(err)
 	}
 	msg, err := run(t, "run", cfg, "--out", out)
-	if err != nil || !strings.Contains(msg, "up to date: [track strain zones]") {
+	if err != nil || !strings.Contains(msg, "up to date: [track strain zones outputs]") {
 		t.Errorf("unchanged run: %q %v", msg, err)
 	}
 	field := runfolder.FieldPath(out, "band_0005")
