@@ -30,6 +30,8 @@ type Window struct {
 	Order     int
 	MinPoints int
 	Measure   Measure
+
+	general bool // always the general fit (tests of the full-window shortcut)
 }
 
 // Validate reports a window that cannot be used on grid g.
@@ -127,6 +129,22 @@ func (w Window) Strain(f *dic.Field) (*Field, error) {
 		if n < w.minPoints() {
 			continue
 		}
+		p := &out.Points[i]
+		if n == side*side && !w.general {
+			// A full window is symmetric, so its design is orthogonal and
+			// the fitted slope (for the plane and the quadratic alike) is
+			// Σ dx·u / Σ dx²: the Savitzky–Golay first-derivative filter.
+			var sux, suy, svx, svy float64
+			for k := 0; k < side*side; k++ {
+				dx, dy := float64(k%side-half), float64(k/side-half)
+				q := &f.Points[g.Index(c0+k%side-half, r0+k/side-half)]
+				u, v := q.P[subset.PU], q.P[subset.PV]
+				sux, suy, svx, svy = sux+dx*u, suy+dy*u, svx+dx*v, svy+dy*v
+			}
+			den := float64(side) * float64(side*(side*side-1)) / 12 * step // Σdx² over the window, times the step
+			w.finish(p, out.Measure, sux/den, suy/den, svx/den, svy/den)
+			continue
+		}
 		// Least squares in local coordinates scaled by the step (keeps the
 		// normal equations well conditioned); gradients are rescaled after.
 		rows := 0
@@ -161,12 +179,16 @@ func (w Window) Strain(f *dic.Field) (*Field, error) {
 		if !ok1 || !ok2 {
 			continue
 		}
-		p := &out.Points[i]
-		p.Exx, p.Eyy, p.Exy = out.Measure.Tensor(ux, uy, vx, vy)
-		p.E1, p.E2, p.AngleDeg = Principal(p.Exx, p.Eyy, p.Exy)
-		p.GammaMax = p.E1 - p.E2
-		p.Eeq = Equivalent(p.Exx, p.Eyy, p.Exy)
-		p.Valid = !math.IsNaN(p.Exx + p.Eyy + p.Exy)
+		w.finish(p, out.Measure, ux, uy, vx, vy)
 	}
 	return out, nil
+}
+
+// finish fills a strain point from its displacement gradient.
+func (w Window) finish(p *Point, m Measure, ux, uy, vx, vy float64) {
+	p.Exx, p.Eyy, p.Exy = m.Tensor(ux, uy, vx, vy)
+	p.E1, p.E2, p.AngleDeg = Principal(p.Exx, p.Eyy, p.Exy)
+	p.GammaMax = p.E1 - p.E2
+	p.Eeq = Equivalent(p.Exx, p.Eyy, p.Exy)
+	p.Valid = !math.IsNaN(p.Exx + p.Eyy + p.Exy)
 }
