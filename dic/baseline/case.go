@@ -25,7 +25,7 @@ const (
 	// image for subsets up to 2·(Margin − search) + 1 px.
 	Margin = 40
 	// GridStep is the spacing of the points in px.
-	GridStep = 16
+	GridStep = 8
 )
 
 // Case is one reference/deformed frame pair with measurement points and the
