@@ -7,14 +7,14 @@ import (
 
 // The grid keeps Margin px from every edge with GridStep spacing: on a
 // 160 px frame the last allowed coordinate is 119, so the points are at
-// 40, 56, 72, 88 and 104 on each axis (counted by hand).
+// 40, 48, …, 112 on each axis: 10 per axis (counted by hand).
 func TestGrid(t *testing.T) {
 	pts := Grid(160, 160)
-	if len(pts) != 25 {
-		t.Fatalf("%d points, want 25", len(pts))
+	if len(pts) != 100 {
+		t.Fatalf("%d points, want 100", len(pts))
 	}
-	if pts[0] != [2]int{40, 40} || pts[1] != [2]int{56, 40} || pts[24] != [2]int{104, 104} {
-		t.Errorf("points 0, 1, 24 are %v %v %v, want [40 40] [56 40] [104 104]", pts[0], pts[1], pts[24])
+	if pts[0] != [2]int{40, 40} || pts[1] != [2]int{48, 40} || pts[99] != [2]int{112, 112} {
+		t.Errorf("points 0, 1, 99 are %v %v %v, want [40 40] [48 40] [112 112]", pts[0], pts[1], pts[99])
 	}
 }
 
