@@ -76,6 +76,13 @@ func NewFinder(cfg FinderConfig, ref *dic.Field, baseline Baseline) (*Finder, er
 	return f, nil
 }
 
+// Config returns the configuration in use, defaults filled in.
+func (f *Finder) Config() FinderConfig {
+	c := f.cfg
+	c.Thresholds = c.Thresholds.Effective()
+	return c
+}
+
 // Add finds the zones of the next frame, gives them stable IDs, and
 // returns them.
 func (f *Finder) Add(fr Frame) ([]Zone, error) {

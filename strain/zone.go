@@ -55,6 +55,10 @@ type Thresholds struct {
 	MinCells int `json:"min_cells"`
 }
 
+// Effective returns the thresholds with defaults filled in (K 6, MinZNCC
+// 0.9, MinCells 4), as they are applied.
+func (t Thresholds) Effective() Thresholds { return t.withDefaults() }
+
 func (t Thresholds) withDefaults() Thresholds {
 	if t.K == 0 {
 		t.K = 6

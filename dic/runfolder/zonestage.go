@@ -184,7 +184,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*OnsetRe
 		}
 	}
 	rep := &OnsetReport{Tool: tool, Peak: peak, Cautions: Cautions,
-		Settings: ZoneSettings{Indicators: st.Finder.Indicators, Thresholds: st.Finder.Thresholds, Persistence: st.Finder.Persistence,
+		Settings: ZoneSettings{Indicators: finder.Config().Indicators, Thresholds: finder.Config().Thresholds, Persistence: finder.Config().Persistence,
 			CalibrateBelow: st.CalibrateBelow, CalibFrames: len(calib), K: st.K, UCS: st.UCS}}
 	openingName := func(i int) string {
 		switch {
