@@ -4,8 +4,8 @@
 // same inputs and settings and resuming an interrupted tracking run.
 //
 // Each stage has a fingerprint of everything that decides its output
-// (inputs, settings, and the fingerprint of the stage before it), stored in
-// run.json. A stage whose fingerprint is unchanged and whose outputs are
+// (the tool's version, inputs, settings, and the fingerprint of the stage
+// before it), stored in run.json. A stage whose fingerprint is unchanged and whose outputs are
 // complete is skipped; a changed fingerprint reruns that stage and every
 // stage after it, and nothing before it.
 package testrun

@@ -115,7 +115,7 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 	rr.Hashes["images"] = sequenceDigest(in.Seq)
 
 	// Track.
-	fpTrack := fingerprint("track", rr.Hashes["images"], resolveRef(t), t.ROI, exclude, maskHash, settings, scale)
+	fpTrack := fingerprint("track", tool, rr.Hashes["images"], resolveRef(t), t.ROI, exclude, maskHash, settings, scale)
 	stageStart := time.Now()
 	if st := stages["track"]; st.Fingerprint == fpTrack && st.Complete {
 		sum.Skipped = append(sum.Skipped, "track")
