@@ -2,10 +2,8 @@ package runfolder
 
 import (
 	"bufio"
-	"encoding/csv"
 	"errors"
 	"fmt"
-	"io"
 	"math"
 	"os"
 	"path/filepath"
@@ -88,47 +86,27 @@ func WriteField(path string, f *dic.Field, scale dic.Scale) error {
 // recovered from the positions, which must form a complete row-major
 // lattice; errors name the line.
 func ReadField(path string) (*dic.Field, error) {
-	fh, err := os.Open(path)
+	rows, err := readCSVFrom(path, FieldHeader, true)
 	if err != nil {
 		return nil, fmt.Errorf("field: %w", err)
 	}
-	defer fh.Close()
-	r := csv.NewReader(fh)
-	r.ReuseRecord = true
-	r.FieldsPerRecord = -1
-	head, err := r.Read()
-	if err != nil {
-		return nil, fmt.Errorf("field %s: reading header: %w", path, err)
-	}
-	if got := strings.Join(head, ","); !strings.HasPrefix(got, FieldHeader) {
-		return nil, fmt.Errorf("field %s: header %q, expected %q", path, got, FieldHeader)
-	}
-	f := &dic.Field{Name: strings.TrimSuffix(filepath.Base(path), ".csv")}
-	for {
-		rec, err := r.Read()
-		if errors.Is(err, io.EOF) {
-			break
-		}
-		line, _ := r.FieldPos(0)
-		if err != nil {
-			return nil, fmt.Errorf("field %s: %w", path, err)
-		}
-		if len(rec) < 11 {
-			return nil, fmt.Errorf("field %s line %d: %d columns, expected at least 11", path, line, len(rec))
-		}
+	cols := strings.Split(FieldHeader, ",")
+	f := &dic.Field{Name: strings.TrimSuffix(filepath.Base(path), ".csv"), Points: make([]dic.Point, 0, len(rows))}
+	for _, r := range rows {
+		rec := r.cells
 		var p dic.Point
 		var v [9]float64
 		for k := 0; k < 9; k++ {
 			if v[k], err = strconv.ParseFloat(rec[k], 64); err != nil {
-				return nil, fmt.Errorf("field %s line %d column %s: %q is not a number", path, line, strings.Split(FieldHeader, ",")[k], rec[k])
+				return nil, fmt.Errorf("field %s line %d column %s: %q is not a number", path, r.line, cols[k], rec[k])
 			}
 		}
 		it, err := strconv.Atoi(rec[9])
 		if err != nil {
-			return nil, fmt.Errorf("field %s line %d column iterations: %q is not an integer", path, line, rec[9])
+			return nil, fmt.Errorf("field %s line %d column iterations: %q is not an integer", path, r.line, rec[9])
 		}
 		if p.Status, err = subset.ParseStatus(rec[10]); err != nil {
-			return nil, fmt.Errorf("field %s line %d column status: %w", path, line, err)
+			return nil, fmt.Errorf("field %s line %d column status: %w", path, r.line, err)
 		}
 		p.X, p.Y, p.Iterations = int(v[0]), int(v[1]), it
 		if p.Valid() {

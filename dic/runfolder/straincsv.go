@@ -2,10 +2,7 @@ package runfolder
 
 import (
 	"bufio"
-	"encoding/csv"
-	"errors"
 	"fmt"
-	"io"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -78,40 +75,19 @@ func WriteStrain(path string, f *strain.Field, scale dic.Scale) error {
 // ReadStrain reads a strain file written by WriteStrain; errors name the
 // line and column.
 func ReadStrain(path string) (*strain.Field, error) {
-	fh, err := os.Open(path)
+	rows, err := readCSVFrom(path, StrainHeader, true)
 	if err != nil {
 		return nil, fmt.Errorf("strain: %w", err)
 	}
-	defer fh.Close()
-	r := csv.NewReader(fh)
-	r.ReuseRecord = true
-	r.FieldsPerRecord = -1
-	head, err := r.Read()
-	if err != nil {
-		return nil, fmt.Errorf("strain %s: reading header: %w", path, err)
-	}
-	if got := strings.Join(head, ","); !strings.HasPrefix(got, StrainHeader) {
-		return nil, fmt.Errorf("strain %s: header %q, expected %q", path, got, StrainHeader)
-	}
 	cols := strings.Split(StrainHeader, ",")
-	f := &strain.Field{Name: strings.TrimSuffix(filepath.Base(path), ".csv")}
-	var pts []dic.Point // positions only, to recover the grid
-	for {
-		rec, err := r.Read()
-		if errors.Is(err, io.EOF) {
-			break
-		}
-		line, _ := r.FieldPos(0)
-		if err != nil {
-			return nil, fmt.Errorf("strain %s: %w", path, err)
-		}
-		if len(rec) < len(cols) {
-			return nil, fmt.Errorf("strain %s line %d: %d columns, expected %d", path, line, len(rec), len(cols))
-		}
+	f := &strain.Field{Name: strings.TrimSuffix(filepath.Base(path), ".csv"), Points: make([]strain.Point, 0, len(rows))}
+	pts := make([]dic.Point, 0, len(rows)) // positions only, to recover the grid
+	for _, r := range rows {
+		rec := r.cells
 		var v [10]float64
 		for k := 0; k < 10; k++ {
 			if v[k], err = strconv.ParseFloat(rec[k], 64); err != nil {
-				return nil, fmt.Errorf("strain %s line %d column %s: %q is not a number", path, line, cols[k], rec[k])
+				return nil, fmt.Errorf("strain %s line %d column %s: %q is not a number", path, r.line, cols[k], rec[k])
 			}
 		}
 		p := strain.Point{X: int(v[0]), Y: int(v[1]), Exx: v[2], Eyy: v[3], Exy: v[4], E1: v[5], E2: v[6], AngleDeg: v[7], GammaMax: v[8], Eeq: v[9]}
@@ -120,7 +96,7 @@ func ReadStrain(path string) (*strain.Field, error) {
 			p.Valid = true
 		case "0":
 		default:
-			return nil, fmt.Errorf("strain %s line %d column valid: %q, expected 1 or 0", path, line, rec[10])
+			return nil, fmt.Errorf("strain %s line %d column valid: %q, expected 1 or 0", path, r.line, rec[10])
 		}
 		f.Points = append(f.Points, p)
 		pts = append(pts, dic.Point{X: p.X, Y: p.Y})

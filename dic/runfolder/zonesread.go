@@ -87,20 +87,28 @@ type csvRow struct {
 
 // readCSV reads a CSV file whose header must be header, every row with as
 // many cells.
-func readCSV(path, header string) ([]csvRow, error) {
+func readCSV(path, header string) ([]csvRow, error) { return readCSVFrom(path, header, false) }
+
+// readCSVFrom reads a CSV file whose header is header or, with extra, starts
+// with it (optional columns may follow); every row must hold at least the
+// header's cells. Errors name the file and line.
+func readCSVFrom(path, header string, extra bool) ([]csvRow, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
 	r := csv.NewReader(f)
+	r.FieldsPerRecord = -1
 	head, err := r.Read()
 	if err != nil {
 		return nil, fmt.Errorf("%s: reading header: %w", path, err)
 	}
-	if strings.Join(head, ",") != header {
-		return nil, fmt.Errorf("%s: header %q, expected %q", path, strings.Join(head, ","), header)
+	got := strings.Join(head, ",")
+	if got != header && !(extra && strings.HasPrefix(got, header+",")) {
+		return nil, fmt.Errorf("%s: header %q, expected %q", path, got, header)
 	}
+	want := len(strings.Split(header, ","))
 	var out []csvRow
 	for {
 		rec, err := r.Read()
@@ -110,6 +118,9 @@ func readCSV(path, header string) ([]csvRow, error) {
 		line, _ := r.FieldPos(0)
 		if err != nil {
 			return nil, fmt.Errorf("%s: %w", path, err)
+		}
+		if len(rec) < want {
+			return nil, fmt.Errorf("%s line %d: %d columns, expected %d", path, line, len(rec), want)
 		}
 		out = append(out, csvRow{line, rec})
 	}
