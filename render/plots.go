@@ -41,7 +41,7 @@ func writeRunPlots(r *runRecords, opt PlotOptions) ([]Figure, *virtualReadings, 
 		}
 		return err
 	}
-	for _, draw := range []func(*runRecords) (Figure, bool, error){plotStressTime, plotZoneAreas, plotZonePeaks, plotSectorHistories} {
+	for _, draw := range []func(*runRecords) (Figure, bool, error){plotStressTime, plotStressAE, plotZoneAreas, plotZonePeaks, plotSectorHistories} {
 		if err := add(draw(r)); err != nil {
 			return nil, nil, err
 		}

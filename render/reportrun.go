@@ -25,6 +25,7 @@ type runRecords struct {
 	Load       *runfolder.LoadRecord
 	Onset      *runfolder.OnsetReport
 	Zones      []runfolder.ZoneRow
+	AE         *runfolder.AERecord
 	Scale      dic.Scale
 	Axis       frameAxis
 	Missing    []string
@@ -85,6 +86,10 @@ func readRunRecords(dir string) (*runRecords, error) {
 	var res runfolder.ResolutionRecord
 	var tl runfolder.TimelineRecord
 	var ld runfolder.LoadRecord
+	var ae runfolder.AERecord
+	if runfolder.Section(dir, "ae", &ae) == nil {
+		r.AE = &ae // optional: no note when a test has no acoustic emission
+	}
 	sections := []struct {
 		name, missing string
 		v             any

@@ -1,43 +1,13 @@
 package loadlog
 
-import (
-	"errors"
-	"fmt"
-	"strings"
-)
+import "spallscope/dic/logtable"
 
 // ErrNoData is wrapped by the error Read returns for a file without data
 // rows.
-var ErrNoData = errors.New("no data rows")
+var ErrNoData = logtable.ErrNoData
 
-// ParseError reports a problem at one place in a load log file, in the way
-// encoding/csv's ParseError does: the file, the line, the column and what
-// was expected.
-type ParseError struct {
-	Path       string
-	Line       int    // 1-based line number in the file; 0 if not one line
-	Column     int    // 1-based column index; 0 if not one cell
-	ColumnName string // the column's header cell, "" without a header
-	Err        error
-}
-
-// Error returns "loadlog: path: line 57, column 1 "time_s": message".
-func (e *ParseError) Error() string {
-	var b strings.Builder
-	fmt.Fprintf(&b, "loadlog: %s: ", e.Path)
-	if e.Line > 0 {
-		fmt.Fprintf(&b, "line %d", e.Line)
-		if e.Column > 0 {
-			fmt.Fprintf(&b, ", column %d", e.Column)
-			if e.ColumnName != "" {
-				fmt.Fprintf(&b, " %q", e.ColumnName)
-			}
-		}
-		b.WriteString(": ")
-	}
-	b.WriteString(e.Err.Error())
-	return b.String()
-}
-
-// Unwrap returns the underlying error.
-func (e *ParseError) Unwrap() error { return e.Err }
+// ParseError reports a problem at one place in a load log file: the file,
+// the line, the column and what was expected. Read's ParseErrors have
+// Prefix "loadlog", so their messages read
+// "loadlog: path: line 57, column 1 "time_s": message".
+type ParseError = logtable.ParseError

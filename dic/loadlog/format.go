@@ -2,8 +2,9 @@ package loadlog
 
 import (
 	"fmt"
-	"strconv"
 	"strings"
+
+	"spallscope/dic/logtable"
 )
 
 // Format describes how a load log file is laid out. The zero Format reads
@@ -56,83 +57,22 @@ type Format struct {
 // Delimiter is the rune that separates cells; see Format.Delimiter. In JSON
 // and YAML it is written as the character itself or as "tab", "whitespace"
 // or "auto".
-type Delimiter rune
+type Delimiter = logtable.Delimiter
 
 // Whitespace is the Delimiter for cells separated by runs of blanks and
 // tabs.
-const Whitespace Delimiter = ' '
-
-// String returns the delimiter as it is written in a settings file.
-func (d Delimiter) String() string {
-	switch d {
-	case 0:
-		return "auto"
-	case '\t':
-		return "tab"
-	case Whitespace:
-		return "whitespace"
-	}
-	return string(rune(d))
-}
-
-// MarshalText writes the delimiter as String does.
-func (d Delimiter) MarshalText() ([]byte, error) { return []byte(d.String()), nil }
-
-// UnmarshalText reads a delimiter written as one character, "tab",
-// "whitespace" (or "space"), or "auto" (or empty).
-func (d *Delimiter) UnmarshalText(text []byte) error {
-	s := string(text)
-	switch strings.ToLower(s) {
-	case "", "auto":
-		*d = 0
-		return nil
-	case "tab", `\t`:
-		*d = '\t'
-		return nil
-	case "whitespace", "space", "blank", "blanks":
-		*d = Whitespace
-		return nil
-	}
-	r := []rune(s)
-	if len(r) != 1 {
-		return fmt.Errorf("delimiter %q: expected one character, \"tab\", \"whitespace\" or \"auto\"", s)
-	}
-	nd := Delimiter(r[0])
-	if err := nd.validate(); err != nil {
-		return err
-	}
-	*d = nd
-	return nil
-}
-
-// validate rejects runes that cannot separate cells.
-func (d Delimiter) validate() error {
-	switch d {
-	case '"', '\r', '\n', '.', '\uFFFD':
-		return fmt.Errorf("delimiter %q cannot separate cells", rune(d))
-	}
-	if d >= '0' && d <= '9' || d == '-' || d == '+' {
-		return fmt.Errorf("delimiter %q cannot separate cells of numbers", rune(d))
-	}
-	return nil
-}
+const Whitespace = logtable.Whitespace
 
 // layout is a Format checked and with its defaults filled in, ready to read
 // one file.
 type layout struct {
-	time, force, stroke columnSpec
-	timeUnit, forceUnit *unit // nil: not given, take from the header or the default
-	strokeUnit          *unit
+	time, force, stroke logtable.ColumnSpec
+	timeUnit, forceUnit *logtable.Unit // nil: not given, take from the header or the default
+	strokeUnit          *logtable.Unit
 	delim               Delimiter
 	skip                int
 	comment             string
 	flip                bool
-}
-
-// columnSpec is one of Format's column fields, parsed.
-type columnSpec struct {
-	text  string // as given, "" for the default
-	index int    // 1-based index, 0 if chosen by name or by default
 }
 
 // check validates f and returns its layout. Errors name the Format field.
@@ -144,26 +84,26 @@ func (f Format) check() (layout, error) {
 	if f.SkipLines < 0 {
 		return l, fmt.Errorf("skip_lines %d: expected zero or a positive number of lines", f.SkipLines)
 	}
-	if err := l.delim.validate(); err != nil {
+	if err := l.delim.Validate(); err != nil {
 		return l, err
 	}
 	var err error
 	for _, c := range []struct {
 		field, text string
-		dst         *columnSpec
+		dst         *logtable.ColumnSpec
 	}{
 		{"time_column", f.TimeColumn, &l.time},
 		{"force_column", f.ForceColumn, &l.force},
 		{"stroke_column", f.StrokeColumn, &l.stroke},
 	} {
-		if *c.dst, err = parseColumnSpec(c.field, c.text); err != nil {
+		if *c.dst, err = logtable.ParseColumnSpec(c.field, c.text); err != nil {
 			return l, err
 		}
 	}
 	for _, u := range []struct {
 		q    quantity
 		text string
-		dst  **unit
+		dst  **logtable.Unit
 	}{
 		{timeQuantity, f.TimeUnit, &l.timeUnit},
 		{forceQuantity, f.ForceUnit, &l.forceUnit},
@@ -179,18 +119,4 @@ func (f Format) check() (layout, error) {
 		*u.dst = &v
 	}
 	return l, nil
-}
-
-// parseColumnSpec reads a column field: a 1-based index when it is all
-// digits, else a header name.
-func parseColumnSpec(field, text string) (columnSpec, error) {
-	s := strings.TrimSpace(text)
-	if s == "" || strings.Trim(s, "0123456789") != "" {
-		return columnSpec{text: s}, nil
-	}
-	i, err := strconv.Atoi(s)
-	if err != nil || i < 1 {
-		return columnSpec{}, fmt.Errorf("%s %q: a column index is 1-based, expected 1 or more", field, text)
-	}
-	return columnSpec{text: s, index: i}, nil
 }

@@ -1,18 +1,16 @@
 package loadlog
 
 import (
-	"bufio"
-	"errors"
 	"fmt"
 	"io"
 	"math"
 	"os"
-	"strconv"
-	"strings"
+
+	"spallscope/dic/logtable"
 )
 
 // maxLine is the length in bytes of the longest line Read accepts.
-const maxLine = 1 << 20
+const maxLine = logtable.MaxLine
 
 // Read reads the load log file at path, laid out as f describes (see the
 // package documentation for the accepted layouts), and returns its rows in
@@ -38,20 +36,14 @@ func decode(r io.Reader, path string, f Format) (*Log, error) {
 	if err != nil {
 		return nil, fmt.Errorf("loadlog: %s: format: %w", path, err)
 	}
-	d := &decoder{layout: l, log: &Log{Path: path}}
-	sc := bufio.NewScanner(r)
-	sc.Buffer(make([]byte, 0, 64<<10), maxLine)
-	for sc.Scan() {
-		d.line++
-		if err := d.readLine(sc.Text()); err != nil {
-			return nil, err
-		}
+	d := &decoder{
+		layout: l,
+		log:    &Log{Path: path},
+		table: logtable.Reader{Prefix: "loadlog", Path: path, Kind: "load log",
+			Delimiter: l.delim, SkipLines: l.skip, Comment: l.comment},
 	}
-	if err := sc.Err(); err != nil {
-		if errors.Is(err, bufio.ErrTooLong) {
-			return nil, d.errAt(d.line+1, column{}, fmt.Errorf("line longer than %d bytes; expected a text load log", maxLine))
-		}
-		return nil, fmt.Errorf("loadlog: %s: %w", path, err)
+	if err := d.table.Read(r, d.setup, d.row); err != nil {
+		return nil, err
 	}
 	return d.finish()
 }
@@ -59,72 +51,39 @@ func decode(r io.Reader, path string, f Format) (*Log, error) {
 // decoder holds the state of reading one file.
 type decoder struct {
 	layout
-	log  *Log
-	line int // number of the line being read
+	log   *Log
+	table logtable.Reader
 
-	started    bool     // the header or first data row has been seen
-	header     []string // nil without a header
-	headerLine int
-
-	timeCol, forceCol, strokeCol column
+	timeCol, forceCol, strokeCol logtable.Column
 	hasStroke                    bool
-	tu, fu, su                   unit
+	tu, fu, su                   logtable.Unit
 
 	prevCell string // time cell of the previous row, as written
 	prevLine int
 	repeats  int // rows whose time equals the previous row's
 }
 
-// readLine reads one line of the file.
-func (d *decoder) readLine(text string) error {
-	if d.line == 1 {
-		text = strings.TrimPrefix(text, "\uFEFF")
-	}
-	if d.line <= d.skip {
-		return nil
-	}
-	if t := strings.TrimSpace(text); t == "" || strings.HasPrefix(t, d.comment) {
-		return nil
-	}
-	if d.delim == 0 {
-		d.delim = detectDelimiter(text)
-	}
-	cells := splitCells(text, d.delim)
-	if blank(cells) {
-		return nil
-	}
-	if !d.started {
-		d.started = true
-		if isHeader(cells) {
-			d.header, d.headerLine = cells, d.line
-			return d.setup()
-		}
-		if err := d.setup(); err != nil {
-			return err
-		}
-	}
-	return d.row(cells)
-}
-
 // setup resolves the columns and units once the header (or the first data
 // row of a file without one) is known.
 func (d *decoder) setup() error {
-	fail := func(err error) error { return d.errAt(d.line, column{}, err) }
+	fail := func(err error) error { return d.table.ErrAt(d.table.Line, logtable.Column{}, err) }
+	header := d.table.Header
 	var err error
-	if d.timeCol, _, err = resolveColumn(timeQuantity, "time_column", d.time, d.header, 1, true); err != nil {
+	if d.timeCol, err = resolveColumn(timeQuantity, d.time, header, 1, true); err != nil {
 		return fail(err)
 	}
-	if d.forceCol, _, err = resolveColumn(forceQuantity, "force_column", d.force, d.header, 2, true); err != nil {
+	if d.forceCol, err = resolveColumn(forceQuantity, d.force, header, 2, true); err != nil {
 		return fail(err)
 	}
-	if d.strokeCol, d.hasStroke, err = resolveColumn(strokeQuantity, "stroke_column", d.stroke, d.header, 0, d.stroke.text != ""); err != nil {
+	if d.strokeCol, err = resolveColumn(strokeQuantity, d.stroke, header, 0, d.stroke.Text != ""); err != nil {
 		return fail(err)
 	}
-	if d.timeCol.index == d.forceCol.index {
-		return fail(fmt.Errorf("time and force are both column %d; set time_column and force_column", d.timeCol.index))
+	d.hasStroke = d.strokeCol.Index != 0
+	if d.timeCol.Index == d.forceCol.Index {
+		return fail(fmt.Errorf("time and force are both column %d; set time_column and force_column", d.timeCol.Index))
 	}
-	if d.hasStroke && (d.strokeCol.index == d.timeCol.index || d.strokeCol.index == d.forceCol.index) {
-		return fail(fmt.Errorf("stroke is column %d, which is already the time or force column; set stroke_column", d.strokeCol.index))
+	if d.hasStroke && (d.strokeCol.Index == d.timeCol.Index || d.strokeCol.Index == d.forceCol.Index) {
+		return fail(fmt.Errorf("stroke is column %d, which is already the time or force column; set stroke_column", d.strokeCol.Index))
 	}
 	d.tu = d.unitOf(timeQuantity, d.timeUnit, d.timeCol)
 	d.fu = d.unitOf(forceQuantity, d.forceUnit, d.forceCol)
@@ -137,23 +96,23 @@ func (d *decoder) setup() error {
 // unitOf chooses the unit of a column: the Format's if given, else the one
 // the header names, else the default; it notes a disagreement between the
 // Format and the header, and a default assumed without either.
-func (d *decoder) unitOf(q quantity, given *unit, c column) unit {
-	var hu unit
+func (d *decoder) unitOf(q quantity, given *logtable.Unit, c logtable.Column) logtable.Unit {
+	var hu logtable.Unit
 	fromHeader := false
-	if c.name != "" {
-		hu, fromHeader = q.headerUnit(c.name)
+	if c.Name != "" {
+		hu, fromHeader = q.headerUnit(c.Name)
 	}
 	switch {
 	case given != nil:
-		if fromHeader && hu.name != given.name {
-			d.note("%s column %q names %s, but %s is %s: read as %s", q.name, c.name, hu.name, q.field, given.name, given.name)
+		if fromHeader && hu.Name != given.Name {
+			d.note("%s column %q names %s, but %s is %s: read as %s", q.name, c.Name, hu.Name, q.field, given.Name, given.Name)
 		}
 		return *given
 	case fromHeader:
 		return hu
 	}
-	def, _ := q.lookup(q.def)
-	d.note("%s unit given neither by %s nor by the header: assumed %s", q.name, q.field, def.name)
+	def, _ := q.units.Lookup(q.def)
+	d.note("%s unit given neither by %s nor by the header: assumed %s", q.name, q.field, def.Name)
 	return def
 }
 
@@ -163,12 +122,12 @@ func (d *decoder) row(cells []string) error {
 	if err != nil {
 		return err
 	}
-	cell := cells[d.timeCol.index-1]
+	cell := cells[d.timeCol.Index-1]
 	if n := len(d.log.Time); n > 0 {
 		switch prev := d.log.Time[n-1]; {
 		case t < prev:
-			return d.errAt(d.line, d.timeCol, fmt.Errorf("time %s is before the previous row's %s (line %d); times must not decrease",
-				d.timeText(cell, t), d.timeText(d.prevCell, prev), d.prevLine))
+			return d.table.ErrAt(d.table.Line, d.timeCol, fmt.Errorf("time %s is before the previous row's %s (line %d); times must not decrease",
+				d.tu.Describe(cell, t), d.tu.Describe(d.prevCell, prev), d.prevLine))
 		case t == prev:
 			d.repeats++
 		}
@@ -189,77 +148,31 @@ func (d *decoder) row(cells []string) error {
 	}
 	d.log.Time = append(d.log.Time, t)
 	d.log.Force = append(d.log.Force, force)
-	d.prevCell, d.prevLine = cell, d.line
+	d.prevCell, d.prevLine = cell, d.table.Line
 	return nil
 }
 
 // value reads the cell of column c in unit u and converts it to the base
 // unit.
-func (d *decoder) value(cells []string, c column, u unit) (float64, error) {
-	if c.index > len(cells) {
-		return 0, d.errAt(d.line, c, fmt.Errorf("the row has only %d cells, expected a value in column %d", len(cells), c.index))
+func (d *decoder) value(cells []string, c logtable.Column, u logtable.Unit) (float64, error) {
+	v, err := d.table.Number(cells, c, u.Name == logtable.ClockUnit)
+	if err != nil {
+		return 0, err
 	}
-	cell := cells[c.index-1]
-	var (
-		v  float64
-		ok bool
-	)
-	if u.name == clockUnit {
-		v, ok = parseClock(cell)
-	} else if v, ok = parseNumber(cell); ok {
-		v *= u.factor
-	}
-	if !ok {
-		err := cellProblem(cell, u.name == clockUnit)
-		if len(d.log.Time) == 0 && d.header != nil && !hasNumber(cells) {
-			err = fmt.Errorf("%w; this line, after the header on line %d, has no numbers: comment it out with %q", err, d.headerLine, d.comment)
-		}
-		return 0, d.errAt(d.line, c, err)
-	}
-	if math.IsInf(v, 0) {
-		return 0, d.errAt(d.line, c, fmt.Errorf("%q %s is out of range", cell, u.name))
+	if v *= u.Factor; math.IsInf(v, 0) {
+		return 0, d.table.ErrAt(d.table.Line, c, fmt.Errorf("%q %s is out of range", cells[c.Index-1], u.Name))
 	}
 	return v, nil
-}
-
-// hasNumber reports whether any cell is a number or an h:mm:ss time.
-func hasNumber(cells []string) bool {
-	for _, c := range cells {
-		if c == "" {
-			continue
-		}
-		if _, ok := parseNumber(c); ok {
-			return true
-		}
-		if _, ok := parseClock(c); ok {
-			return true
-		}
-	}
-	return false
-}
-
-// timeText writes a time cell for a message, as written and with its unit.
-func (d *decoder) timeText(cell string, seconds float64) string {
-	if d.tu.name == clockUnit {
-		return fmt.Sprintf("%s (%s s)", cell, strconv.FormatFloat(seconds, 'g', -1, 64))
-	}
-	return cell + " " + d.tu.name
 }
 
 // finish checks the rows read and adds the notes that need all of them.
 func (d *decoder) finish() (*Log, error) {
 	l := d.log
-	switch n := len(l.Time); {
-	case d.line == 0:
-		return nil, d.errAt(0, column{}, fmt.Errorf("%w: the file is empty", ErrNoData))
-	case !d.started && d.skip > 0:
-		return nil, d.errAt(0, column{}, fmt.Errorf("%w: after the %d skipped lines there are only comments and blank lines", ErrNoData, d.skip))
-	case !d.started:
-		return nil, d.errAt(0, column{}, fmt.Errorf("%w: the file has only comments and blank lines", ErrNoData))
-	case n == 0:
-		return nil, d.errAt(0, column{}, fmt.Errorf("%w after the header on line %d", ErrNoData, d.headerLine))
-	case n == 1:
-		return nil, d.errAt(d.prevLine, column{}, fmt.Errorf("only one data row; at least two are needed to interpolate"))
+	switch len(l.Time) {
+	case 0:
+		return nil, d.table.NoData()
+	case 1:
+		return nil, d.table.ErrAt(d.prevLine, logtable.Column{}, fmt.Errorf("only one data row; at least two are needed to interpolate"))
 	}
 	if d.repeats > 0 {
 		d.note("%d rows repeat the previous row's time; at a repeated time the later row's values are used", d.repeats)
@@ -286,10 +199,4 @@ func (d *decoder) finish() (*Log, error) {
 // note adds a note to the Log.
 func (d *decoder) note(format string, args ...any) {
 	d.log.Notes = append(d.log.Notes, fmt.Sprintf(format, args...))
-}
-
-// errAt returns a ParseError at the given line (0: the whole file) and
-// column (index 0: no column).
-func (d *decoder) errAt(line int, c column, err error) error {
-	return &ParseError{Path: d.log.Path, Line: line, Column: c.index, ColumnName: c.name, Err: err}
 }

@@ -82,33 +82,6 @@ func TestReadClockTimesByIndex(t *testing.T) {
 	}
 }
 
-func TestParseClock(t *testing.T) {
-	for _, c := range []struct {
-		in   string
-		want float64
-		ok   bool
-	}{
-		{"0:01:02.5", 62.5, true},
-		{"01:02.5", 62.5, true}, // mm:ss
-		{"75:30", 4530, true},   // minutes may pass 59 without hours
-		{"2:00:00", 7200, true}, // 1 h = 3600 s
-		{"-0:00:01.5", -1.5, true},
-		{"0:60:00", 0, false}, // minutes after hours below 60
-		{"0:00:60", 0, false}, // seconds below 60
-		{"1:2:3:4", 0, false},
-		{"12", 0, false},
-		{"a:00", 0, false},
-		{"1:1e1", 0, false},
-		{"1:.5", 0, false},
-		{"1:", 0, false},
-	} {
-		got, ok := parseClock(c.in)
-		if ok != c.ok || (ok && got != c.want) {
-			t.Errorf("parseClock(%q) = %g, %v; want %g, %v", c.in, got, ok, c.want, c.ok)
-		}
-	}
-}
-
 func TestReadSynthLog(t *testing.T) {
 	// The synthetic lab's layout (time_s,force_kN,stroke_mm after two
 	// comment lines), with invented numbers: a 10 MPa/s ramp on 5000 mm²

@@ -41,6 +41,7 @@ type Test struct {
 	Strain      Strain      `yaml:"strain"`
 	Zones       Zones       `yaml:"zones"`
 	Load        Load        `yaml:"load"`
+	AE          AE          `yaml:"ae"`
 	Outputs     Outputs     `yaml:"outputs"`
 
 	// Dir is the folder of the config file (paths resolve against it).
@@ -119,6 +120,26 @@ type Load struct {
 	CompressionNegative bool      `yaml:"compression_negative"`
 	ClockOffset         float64   `yaml:"clock_offset_s"`
 	Sync                []float64 `yaml:"sync"` // [camera_s, log_s]
+}
+
+// AE maps an acoustic-emission hit list recorded beside the load, and the
+// rule for its onset: the hit rate in Window-second windows first exceeds
+// K times the early-test background for Persistence windows in a row.
+type AE struct {
+	File            string    `yaml:"file"`
+	TimeColumn      string    `yaml:"time_column"`
+	AmplitudeColumn string    `yaml:"amplitude_column"`
+	EnergyColumn    string    `yaml:"energy_column"`
+	CountsColumn    string    `yaml:"counts_column"`
+	ChannelColumn   string    `yaml:"channel_column"`
+	TimeUnit        string    `yaml:"time_unit"`
+	ClockOffset     float64   `yaml:"clock_offset_s"` // AE time = camera time + offset
+	Sync            []float64 `yaml:"sync"`           // [camera_s, ae_s]
+	Window          float64   `yaml:"window_s"`
+	K               float64   `yaml:"k"`
+	Persistence     int       `yaml:"persistence"`
+	Background      []float64 `yaml:"background_s"` // [t0, t1] camera time; default the first 10 %
+	GapSeconds      float64   `yaml:"gap_s"`        // silence longer than this is a gap
 }
 
 // Outputs says what to produce beyond fields, strain, zones and onsets.
@@ -223,6 +244,12 @@ func (t *Test) check() error {
 	}
 	if len(t.Load.Sync) != 0 && len(t.Load.Sync) != 2 {
 		errs = append(errs, "load.sync: expected [camera_s, log_s]")
+	}
+	if len(t.AE.Sync) != 0 && len(t.AE.Sync) != 2 {
+		errs = append(errs, "ae.sync: expected [camera_s, ae_s]")
+	}
+	if len(t.AE.Background) != 0 && len(t.AE.Background) != 2 {
+		errs = append(errs, "ae.background_s: expected [t0, t1] in camera seconds")
 	}
 	for i, s := range t.Correlation.Seeds {
 		if len(s) != 2 {

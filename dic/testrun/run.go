@@ -33,6 +33,7 @@ type Summary struct {
 	Skipped    []string                    `json:"skipped_stages,omitempty"`
 	Resumed    int                         `json:"resumed_after_frames,omitempty"`
 	Report     string                      `json:"report,omitempty"`
+	AE         *runfolder.AERecord         `json:"ae,omitempty"`
 	Seconds    float64                     `json:"seconds"`
 }
 
@@ -188,13 +189,21 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 	if rr.Hashes["load_log"], err = fileHash(loadPath); err != nil {
 		return nil, err
 	}
-	fpZones := fingerprint("zones", fpStrain, t.Zones, t.Load, rr.Hashes["load_log"], times, t.Openings)
+	if rr.Hashes["ae_log"], err = fileHash(t.Resolve(t.AE.File)); err != nil {
+		return nil, err
+	}
+	fpZones := fingerprint("zones", fpStrain, t.Zones, t.Load, rr.Hashes["load_log"], times, t.Openings, t.AE, rr.Hashes["ae_log"])
 	stageStart = time.Now()
 	if st := stages["zones"]; st.Fingerprint == fpZones && st.Complete {
 		sum.Skipped = append(sum.Skipped, "zones")
 	} else {
 		if err := zones(t, out, times, loadPath, scale, settings.Subset); err != nil {
 			return nil, fmt.Errorf("test %s: %w", t.Name, err)
+		}
+		if t.AE.File != "" {
+			if _, err := ae(t, out); err != nil {
+				return nil, fmt.Errorf("test %s: acoustic emission: %w", t.Name, err)
+			}
 		}
 		stages["zones"] = StageRecord{Fingerprint: fpZones, Complete: true, Seconds: time.Since(stageStart).Seconds()}
 		delete(stages, "outputs")
@@ -230,6 +239,10 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 		return nil, err
 	}
 	sum.Peak, sum.Onsets, sum.Resolution = rep.Peak, rep.Onsets, rep.Resolution
+	var aer runfolder.AERecord
+	if t.AE.File != "" && runfolder.Section(out, "ae", &aer) == nil {
+		sum.AE = &aer
+	}
 	sum.Seconds = time.Since(start).Seconds()
 	if err := runfolder.SetSection(out, "run", rr); err != nil {
 		return nil, err

@@ -1,32 +1,15 @@
-package loadlog
+package logtable
 
 import (
 	"strings"
 	"unicode/utf8"
 )
 
-// detectDelimiter chooses the delimiter of a file from its first line that
-// is not a comment: tab if the line has one, else semicolon, else comma,
-// else runs of blanks. Semicolon goes before comma so that a file written
-// with decimal commas is read as semicolon-separated and its decimal commas
-// are reported, not silently split.
-func detectDelimiter(line string) Delimiter {
-	switch {
-	case strings.ContainsRune(line, '\t'):
-		return '\t'
-	case strings.ContainsRune(line, ';'):
-		return ';'
-	case strings.ContainsRune(line, ','):
-		return ','
-	}
-	return Whitespace
-}
-
-// splitCells splits a line into cells, each trimmed of surrounding blanks.
+// SplitCells splits a line into cells, each trimmed of surrounding blanks.
 // With Whitespace, cells are separated by runs of blanks and tabs. With any
 // other delimiter a cell may be quoted ("Force, kN"), with "" standing for a
 // quote inside it; an unterminated quote runs to the end of the line.
-func splitCells(line string, d Delimiter) []string {
+func SplitCells(line string, d Delimiter) []string {
 	if d == Whitespace {
 		return strings.Fields(line)
 	}
@@ -68,8 +51,8 @@ func splitCells(line string, d Delimiter) []string {
 	return append(cells, strings.TrimSpace(b.String()))
 }
 
-// blank reports whether every cell is empty (a line such as ",,,").
-func blank(cells []string) bool {
+// Blank reports whether every cell is empty (a line such as ",,,").
+func Blank(cells []string) bool {
 	for _, c := range cells {
 		if c != "" {
 			return false
@@ -78,20 +61,34 @@ func blank(cells []string) bool {
 	return true
 }
 
-// isHeader reports whether a line's cells are a header: some non-empty cell
+// IsHeader reports whether a line's cells are a header: some non-empty cell
 // is neither a number nor an h:mm:ss time.
-func isHeader(cells []string) bool {
+func IsHeader(cells []string) bool {
 	for _, c := range cells {
-		if c == "" {
-			continue
+		if c != "" && !isNumeric(c) {
+			return true
 		}
-		if _, ok := parseNumber(c); ok {
-			continue
-		}
-		if _, ok := parseClock(c); ok {
-			continue
-		}
-		return true
 	}
 	return false
+}
+
+// HasNumber reports whether any cell is a number or an h:mm:ss time. A
+// line after the header without one is most likely a second header line,
+// such as a row of units.
+func HasNumber(cells []string) bool {
+	for _, c := range cells {
+		if c != "" && isNumeric(c) {
+			return true
+		}
+	}
+	return false
+}
+
+// isNumeric reports whether a cell is a number or an h:mm:ss time.
+func isNumeric(cell string) bool {
+	if _, ok := ParseNumber(cell); ok {
+		return true
+	}
+	_, ok := ParseClock(cell)
+	return ok
 }

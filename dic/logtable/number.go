@@ -1,4 +1,4 @@
-package loadlog
+package logtable
 
 import (
 	"fmt"
@@ -7,9 +7,9 @@ import (
 	"strings"
 )
 
-// parseNumber reads a cell as a finite decimal number with '.' as the
+// ParseNumber reads a cell as a finite decimal number with '.' as the
 // decimal point ("12.5", "-3", "1.2e3").
-func parseNumber(cell string) (float64, bool) {
+func ParseNumber(cell string) (float64, bool) {
 	v, err := strconv.ParseFloat(cell, 64)
 	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
 		return 0, false
@@ -17,11 +17,11 @@ func parseNumber(cell string) (float64, bool) {
 	return v, true
 }
 
-// parseClock reads a cell written h:mm:ss[.fff] or mm:ss[.fff] as seconds:
+// ParseClock reads a cell written h:mm:ss[.fff] or mm:ss[.fff] as seconds:
 // "0:01:02.5" and "01:02.5" are 62.5 s. Hours, and minutes in mm:ss, may
 // have any number of digits; minutes after hours and seconds must be below
 // 60. A leading '-' makes the time negative.
-func parseClock(cell string) (float64, bool) {
+func ParseClock(cell string) (float64, bool) {
 	s, sign := cell, 1.0
 	if strings.HasPrefix(s, "-") {
 		s, sign = s[1:], -1
@@ -52,25 +52,28 @@ func parseClock(cell string) (float64, bool) {
 	return sign * (total*60 + v), true
 }
 
-// cellProblem explains why a cell could not be read as a value of its
-// column, with a hint when the cause is a common one.
-func cellProblem(cell string, clock bool) error {
+// CellProblem explains why a cell could not be read as a number (or, with
+// clock, as an h:mm:ss time), with a hint when the cause is a common one: a
+// decimal comma, or an h:mm:ss time in a column read as plain numbers. The
+// hints name the time_unit setting, which every reader of this package
+// calls so.
+func CellProblem(cell string, clock bool) error {
 	if cell == "" {
 		return fmt.Errorf("empty cell, expected a number")
 	}
 	if clock {
-		return fmt.Errorf("%q is not a time; expected h:mm:ss[.fff] or mm:ss (time_unit \"hms\")", cell)
+		return fmt.Errorf("%q is not a time; expected h:mm:ss[.fff] or mm:ss (time_unit %q)", cell, ClockUnit)
 	}
 	if _, err := strconv.ParseFloat(cell, 64); err == nil {
 		return fmt.Errorf("%q is not a finite number", cell)
 	}
 	if strings.Count(cell, ",") == 1 {
-		if _, ok := parseNumber(strings.Replace(cell, ",", ".", 1)); ok {
+		if _, ok := ParseNumber(strings.Replace(cell, ",", ".", 1)); ok {
 			return fmt.Errorf("%q is not a number: the decimal separator must be '.', not ','", cell)
 		}
 	}
-	if _, ok := parseClock(cell); ok {
-		return fmt.Errorf("%q is not a number; for h:mm:ss times set time_unit \"hms\"", cell)
+	if _, ok := ParseClock(cell); ok {
+		return fmt.Errorf("%q is not a number; for h:mm:ss times set time_unit %q", cell, ClockUnit)
 	}
 	return fmt.Errorf("%q is not a number", cell)
 }
