@@ -43,11 +43,70 @@ type Test struct {
 	Load        Load        `yaml:"load"`
 	AE          AE          `yaml:"ae"`
 	Outputs     Outputs     `yaml:"outputs"`
+	// Faces lists the camera views of a test filmed from several sides.
+	// Each face is tracked and analysed on its own, with its own photos,
+	// geometry, scale and camera clock, against the one load log; keys a
+	// face leaves out are taken from the test.
+	Faces []Face `yaml:"faces"`
 
 	// Dir is the folder of the config file (paths resolve against it).
 	Dir string `yaml:"-"`
 	// Path is the config file.
 	Path string `yaml:"-"`
+}
+
+// Face is one camera's view of the specimen.
+type Face struct {
+	Name      string    `yaml:"name"`
+	Images    string    `yaml:"images"`
+	Reference string    `yaml:"reference"`
+	Times     Times     `yaml:"times"`
+	Scale     Scale     `yaml:"scale"`
+	ROI       string    `yaml:"roi"`
+	Openings  []Opening `yaml:"openings"`
+	Exclude   []string  `yaml:"exclude"`
+	Mask      string    `yaml:"mask"`
+	// ClockOffset is the load log's clock minus this camera's, in s (unset:
+	// the test's load.clock_offset_s); Sync gives a sync pair instead.
+	ClockOffset *float64  `yaml:"clock_offset_s"`
+	Sync        []float64 `yaml:"sync"`
+}
+
+// FaceTest returns the test as seen by face i: the test with the face's
+// keys put in, and no faces of its own.
+func (t *Test) FaceTest(i int) *Test {
+	f := t.Faces[i]
+	c := *t
+	c.Faces = nil
+	c.Name = f.Name
+	set := func(dst *string, v string) {
+		if v != "" {
+			*dst = v
+		}
+	}
+	set(&c.Images, f.Images)
+	set(&c.Reference, f.Reference)
+	set(&c.ROI, f.ROI)
+	set(&c.Mask, f.Mask)
+	if f.Times != (Times{}) {
+		c.Times = f.Times
+	}
+	if f.Scale.MMPerPx != 0 || len(f.Scale.Line) != 0 {
+		c.Scale = f.Scale
+	}
+	if f.Openings != nil {
+		c.Openings = f.Openings
+	}
+	if f.Exclude != nil {
+		c.Exclude = f.Exclude
+	}
+	if f.ClockOffset != nil {
+		c.Load.ClockOffset, c.Load.Sync = *f.ClockOffset, nil
+	}
+	if len(f.Sync) == 2 {
+		c.Load.ClockOffset, c.Load.Sync = 0, f.Sync
+	}
+	return &c
 }
 
 // Times says when each frame was taken: give one of FPS, CSV or MTime.
@@ -213,8 +272,24 @@ func (t *Test) Resolve(p string) string {
 
 func (t *Test) check() error {
 	var errs []string
-	if t.Images == "" {
-		errs = append(errs, "images: required (a folder, a glob, a list file or a video)")
+	if t.Images == "" && len(t.Faces) == 0 {
+		errs = append(errs, "images: required (a folder, a glob, a list file or a video), or faces")
+	}
+	names := map[string]bool{}
+	for i, f := range t.Faces {
+		switch {
+		case f.Name == "":
+			errs = append(errs, fmt.Sprintf("faces[%d]: name is required", i))
+		case names[f.Name]:
+			errs = append(errs, fmt.Sprintf("faces[%d]: name %q used twice", i, f.Name))
+		}
+		names[f.Name] = true
+		if f.Images == "" && t.Images == "" {
+			errs = append(errs, fmt.Sprintf("faces[%d]: images is required", i))
+		}
+		if len(f.Sync) != 0 && len(f.Sync) != 2 {
+			errs = append(errs, fmt.Sprintf("faces[%d].sync: expected [camera_s, log_s]", i))
+		}
 	}
 	n := 0
 	for _, set := range []bool{t.Times.FPS != 0, t.Times.CSV != "", t.Times.MTime} {

@@ -70,6 +70,9 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 	if progress == nil {
 		progress = func(string, int, int) {}
 	}
+	if len(t.Faces) > 0 {
+		return runFaces(t, out, tool, progress)
+	}
 	sum := &Summary{Name: t.Name, Out: out}
 	var stages map[string]StageRecord
 	if err := runfolder.Section(out, "stages", &stages); err != nil && !errors.Is(err, fs.ErrNotExist) {
