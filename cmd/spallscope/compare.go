@@ -9,7 +9,11 @@ import (
 	"github.com/spf13/cobra"
 
 	"spallscope/dic"
+	"spallscope/dic/frames"
 	"spallscope/dic/runfolder"
+	"spallscope/dic/testrun"
+	"spallscope/render"
+	"spallscope/strain"
 	"spallscope/strain/model"
 )
 
@@ -96,6 +100,10 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 			if err := model.Write(out, c); err != nil {
 				return err
 			}
+			pics, err := drawComparison(run, out, c, disp, sf)
+			if err != nil {
+				return err
+			}
 			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
 			fmt.Fprintf(w, "frame %s against %s\n", frame, modelPath)
 			fmt.Fprintln(w, "quantity\tpoints\tbias\trms\tmax\tcorrelation\trms/resolution")
@@ -106,7 +114,7 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 			for _, warn := range c.Warnings() {
 				fmt.Fprintln(cmd.ErrOrStderr(), "warning:", warn)
 			}
-			fmt.Fprintf(cmd.OutOrStdout(), "written to %s\n", out)
+			fmt.Fprintf(cmd.OutOrStdout(), "written to %s (%d side-by-side images)\n", out, pics)
 			return nil
 		},
 	}
@@ -120,4 +128,71 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 	fl.BoolVar(&yUp, "y-up", false, "the model's y axis points up the image")
 	fl.BoolVar(&compressionPositive, "compression-positive", false, "the model's strains are compression positive")
 	return cmd
+}
+
+// drawComparison writes out/compare_<quantity>.png for every compared
+// quantity: model, measurement and difference side by side over the
+// reference photo. It returns how many it wrote; without the reference
+// photo (moved away) it writes none and says nothing went wrong.
+func drawComparison(run, out string, c *model.Comparison, disp *dic.Field, sf *strain.Field) (int, error) {
+	var tr runfolder.TrackRecord
+	if runfolder.Section(run, "track", &tr) != nil {
+		return 0, nil
+	}
+	in, err := testrun.Open(tr.Images, tr.Reference, "", tr.Exclude, "")
+	if err != nil {
+		return 0, nil
+	}
+	defer in.Seq.Close()
+	n := 0
+	for _, q := range c.Quantities {
+		rq, err := render.QuantityNamed(q.String())
+		if err != nil {
+			continue
+		}
+		g := disp.Grid
+		meas, mod, diff := make([]float64, g.Len()), make([]float64, g.Len()), make([]float64, g.Len())
+		for i, d := range c.Points {
+			m := measuredValue(q, disp, sf, i)
+			meas[i], diff[i] = m, d.Values[q]
+			mod[i] = m - d.Values[q]
+		}
+		img, err := render.ModelSideBySide(in.Ref, &render.GridValues{Grid: g, Values: mod}, &render.GridValues{Grid: g, Values: meas},
+			&render.GridValues{Grid: g, Values: diff}, rq, in.Mask, tr.MMPerPx, c.FrameName)
+		if err != nil {
+			continue
+		}
+		err = frames.WriteMat(filepath.Join(out, "compare_"+q.String()+".png"), img)
+		img.Close()
+		if err != nil {
+			return n, err
+		}
+		n++
+	}
+	return n, nil
+}
+
+// measuredValue is the measured value of quantity q at grid point i (NaN
+// where not measured).
+func measuredValue(q model.Quantity, disp *dic.Field, sf *strain.Field, i int) float64 {
+	p := &disp.Points[i]
+	switch q {
+	case model.U, model.V:
+		u, v := p.U()
+		if q == model.U {
+			return u
+		}
+		return v
+	}
+	if sf == nil || !sf.Points[i].Valid {
+		return math.NaN()
+	}
+	s := &sf.Points[i]
+	switch q {
+	case model.Exx:
+		return s.Exx
+	case model.Eyy:
+		return s.Eyy
+	}
+	return s.Exy
 }

@@ -50,7 +50,7 @@ func TestCompareWithKirschModel(t *testing.T) {
 	if corr < 0.95 {
 		t.Errorf("v correlation %.3f with the Kirsch model, want > 0.95:\n%s", corr, msg)
 	}
-	for _, f := range []string{"model-diff.csv", "model-summary.json"} {
+	for _, f := range []string{"model-diff.csv", "model-summary.json", "compare_u.png", "compare_v.png"} {
 		if _, err := os.Stat(filepath.Join(out, "model", f)); err != nil {
 			t.Error(err)
 		}
