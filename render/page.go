@@ -2,9 +2,12 @@ package render
 
 import (
 	"embed"
+	"fmt"
 	"html/template"
+	"math"
 	"path/filepath"
 	"slices"
+	"sort"
 	"time"
 
 	"spallscope/dic/runfolder"
@@ -47,6 +50,7 @@ type pageData struct {
 	StaticFrames                   string
 	Onsets                         []pageOnset
 	OnsetsRun                      bool
+	AE                             string
 	Overlays                       []pageFrameSet
 	Figures                        []pageFigure
 	Pattern                        *pagePattern
@@ -82,7 +86,7 @@ func newPage(r *runRecords, figs []Figure, gauges *virtualReadings, out string, 
 		Cautions:  slices.Clone(reportCautions),
 		Summary:   summaryRows(r), Settings: settingsRows(r),
 		Noise: noiseRows(r.Resolution), StaticFrames: staticFrames(r.Resolution),
-		Onsets: onsetRows(r), OnsetsRun: r.Onset != nil,
+		Onsets: onsetRows(r), OnsetsRun: r.Onset != nil, AE: aeLine(r),
 		Missing: r.Missing, Embedded: opt.Embed,
 	}
 	if p.Title == "" {
@@ -125,4 +129,41 @@ func newPage(r *runRecords, figs []Figure, gauges *virtualReadings, out string, 
 		return nil, err
 	}
 	return p, nil
+}
+
+// aeLine says when the acoustic-emission hit rate rose, by the run's rule,
+// at what stress, and how many gaps the record has ("" without a record).
+func aeLine(r *runRecords) string {
+	if r.AE == nil {
+		return ""
+	}
+	gaps := ""
+	if n := len(r.AE.Gaps); n > 0 {
+		gaps = fmt.Sprintf("; %d gap(s) in the record, shown on the AE plot", n)
+	}
+	if r.AE.Onset == nil {
+		return fmt.Sprintf("%d hits, no onset by the rule (%s)%s.", r.AE.Hits, r.AE.Rule, gaps)
+	}
+	o := r.AE.Onset
+	stress := ""
+	if r.Load != nil {
+		if s, ok := interpolate(r.Load.Times, r.Load.Stress, o.Time); ok {
+			stress = fmt.Sprintf(", %.2f MPa", s)
+		}
+	}
+	return fmt.Sprintf("hit-rate onset at t = %.1f s%s (rate above %.3g hits/s, %g × the early background of %.3g hits/s; %d hits in all)%s.",
+		o.Time, stress, o.Threshold, o.Threshold/math.Max(o.Background, 1e-12), o.Background, r.AE.Hits, gaps)
+}
+
+// interpolate returns ys at x by linear interpolation over increasing xs.
+func interpolate(xs, ys []float64, x float64) (float64, bool) {
+	if len(xs) < 2 || x < xs[0] || x > xs[len(xs)-1] {
+		return 0, false
+	}
+	k := sort.SearchFloat64s(xs, x)
+	if k == 0 {
+		return ys[0], true
+	}
+	t := (x - xs[k-1]) / (xs[k] - xs[k-1])
+	return ys[k-1] + t*(ys[k]-ys[k-1]), true
 }

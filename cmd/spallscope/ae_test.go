@@ -48,4 +48,8 @@ func TestRunWithAcousticEmission(t *testing.T) {
 	if _, err := os.Stat(filepath.Join(out, "plots", "stress_ae.png")); err != nil {
 		t.Errorf("no stress–AE plot: %v", err)
 	}
+	page, _ := os.ReadFile(filepath.Join(out, "report.html"))
+	if !strings.Contains(string(page), `id="ae-onset"`) || !strings.Contains(string(page), "hit-rate onset at t = 7") {
+		t.Error("the report does not state the AE onset beside the DIC onsets")
+	}
 }
