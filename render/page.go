@@ -51,6 +51,7 @@ type pageData struct {
 	Onsets                         []pageOnset
 	OnsetsRun                      bool
 	AE                             string
+	Model                          *pageModel
 	Overlays                       []pageFrameSet
 	Figures                        []pageFigure
 	Pattern                        *pagePattern
@@ -121,6 +122,9 @@ func newPage(r *runRecords, figs []Figure, gauges *virtualReadings, out string, 
 			}
 		}
 		p.Figures = append(p.Figures, pf)
+	}
+	if p.Model, err = modelSection(r.Dir, im); err != nil {
+		return nil, err
 	}
 	if p.Overlays, err = overlaySets(r, im); err != nil {
 		return nil, err

@@ -2,18 +2,13 @@ package main
 
 import (
 	"fmt"
-	"math"
 	"path/filepath"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
 
 	"spallscope/dic"
-	"spallscope/dic/frames"
-	"spallscope/dic/runfolder"
 	"spallscope/dic/testrun"
-	"spallscope/render"
-	"spallscope/strain"
 	"spallscope/strain/model"
 )
 
@@ -41,35 +36,7 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 			if modelPath == "" {
 				return fmt.Errorf("--model FILE is required")
 			}
-			names, err := runfolder.Frames(run)
-			if err != nil {
-				return err
-			}
-			if frame == "" {
-				var tl runfolder.TimelineRecord
-				if err := runfolder.Section(run, "timeline", &tl); err != nil || stress == 0 {
-					return fmt.Errorf("give --frame, or --stress with a run whose zones stage placed the frames on the load log")
-				}
-				best := math.Inf(1)
-				for k, s := range tl.Stress {
-					if d := math.Abs(s - stress); d < best {
-						best, frame = d, tl.Frames[k]
-					}
-				}
-			}
-			index := -1
-			for k, n := range names {
-				if n == frame {
-					index = k
-				}
-			}
-			if index < 0 {
-				return fmt.Errorf("--frame %q is not a frame of %s", frame, run)
-			}
-			f := model.Format{Units: model.Units(units), YUp: yUp, CompressionPositive: compressionPositive, Scale: runfolder.Scale(run)}
-			if scale > 0 {
-				f.Scale = dic.Scale(scale)
-			}
+			f := model.Format{Units: model.Units(units), YUp: yUp, CompressionPositive: compressionPositive, Scale: dic.Scale(scale)}
 			if origin != "" {
 				p, err := parsePoint("--origin", origin)
 				if err != nil {
@@ -77,33 +44,16 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 				}
 				f.OriginX, f.OriginY = p[0], p[1]
 			}
-			m, err := model.Read(modelPath, f)
+			if frame == "" && stress == 0 {
+				return fmt.Errorf("give --frame, or --stress with a run whose zones stage placed the frames on the load log")
+			}
+			c, err := testrun.CompareModel(run, modelPath, f, frame, stress)
 			if err != nil {
 				return err
 			}
-			disp, err := runfolder.ReadField(runfolder.FieldPath(run, frame))
-			if err != nil {
-				return err
-			}
-			disp.Index = index
-			sf, _ := runfolder.ReadStrain(runfolder.StrainPath(run, frame)) // strain is optional
-			opt := model.Options{}
-			var res runfolder.ResolutionRecord
-			if runfolder.Section(run, "resolution", &res) == nil {
-				opt.Resolution = &res.Resolution
-			}
-			c, err := model.Compare(disp, sf, m, opt)
-			if err != nil {
-				return err
-			}
-			out := filepath.Join(run, "model")
-			if err := model.Write(out, c); err != nil {
-				return err
-			}
-			pics, err := drawComparison(run, out, c, disp, sf)
-			if err != nil {
-				return err
-			}
+			frame = c.FrameName
+			out := filepath.Join(run, testrun.ModelDir)
+			pics, _ := filepath.Glob(filepath.Join(out, "compare_*.png"))
 			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
 			fmt.Fprintf(w, "frame %s against %s\n", frame, modelPath)
 			fmt.Fprintln(w, "quantity\tpoints\tbias\trms\tmax\tcorrelation\trms/resolution")
@@ -114,7 +64,7 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 			for _, warn := range c.Warnings() {
 				fmt.Fprintln(cmd.ErrOrStderr(), "warning:", warn)
 			}
-			fmt.Fprintf(cmd.OutOrStdout(), "written to %s (%d side-by-side images)\n", out, pics)
+			fmt.Fprintf(cmd.OutOrStdout(), "written to %s (%d side-by-side images)\n", out, len(pics))
 			return nil
 		},
 	}
@@ -128,71 +78,4 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 	fl.BoolVar(&yUp, "y-up", false, "the model's y axis points up the image")
 	fl.BoolVar(&compressionPositive, "compression-positive", false, "the model's strains are compression positive")
 	return cmd
-}
-
-// drawComparison writes out/compare_<quantity>.png for every compared
-// quantity: model, measurement and difference side by side over the
-// reference photo. It returns how many it wrote; without the reference
-// photo (moved away) it writes none and says nothing went wrong.
-func drawComparison(run, out string, c *model.Comparison, disp *dic.Field, sf *strain.Field) (int, error) {
-	var tr runfolder.TrackRecord
-	if runfolder.Section(run, "track", &tr) != nil {
-		return 0, nil
-	}
-	in, err := testrun.Open(tr.Images, tr.Reference, "", tr.Exclude, "")
-	if err != nil {
-		return 0, nil
-	}
-	defer in.Seq.Close()
-	n := 0
-	for _, q := range c.Quantities {
-		rq, err := render.QuantityNamed(q.String())
-		if err != nil {
-			continue
-		}
-		g := disp.Grid
-		meas, mod, diff := make([]float64, g.Len()), make([]float64, g.Len()), make([]float64, g.Len())
-		for i, d := range c.Points {
-			m := measuredValue(q, disp, sf, i)
-			meas[i], diff[i] = m, d.Values[q]
-			mod[i] = m - d.Values[q]
-		}
-		img, err := render.ModelSideBySide(in.Ref, &render.GridValues{Grid: g, Values: mod}, &render.GridValues{Grid: g, Values: meas},
-			&render.GridValues{Grid: g, Values: diff}, rq, in.Mask, tr.MMPerPx, c.FrameName)
-		if err != nil {
-			continue
-		}
-		err = frames.WriteMat(filepath.Join(out, "compare_"+q.String()+".png"), img)
-		img.Close()
-		if err != nil {
-			return n, err
-		}
-		n++
-	}
-	return n, nil
-}
-
-// measuredValue is the measured value of quantity q at grid point i (NaN
-// where not measured).
-func measuredValue(q model.Quantity, disp *dic.Field, sf *strain.Field, i int) float64 {
-	p := &disp.Points[i]
-	switch q {
-	case model.U, model.V:
-		u, v := p.U()
-		if q == model.U {
-			return u
-		}
-		return v
-	}
-	if sf == nil || !sf.Points[i].Valid {
-		return math.NaN()
-	}
-	s := &sf.Points[i]
-	switch q {
-	case model.Exx:
-		return s.Exx
-	case model.Eyy:
-		return s.Eyy
-	}
-	return s.Exy
 }

@@ -22,18 +22,21 @@ const (
 	demoK   = 0.25
 )
 
+// demoModelMPa is the load level of the demo's model file (an elastic
+// Kirsch solution), held against the front face's measurement.
+const demoModelMPa = 8.0
+
 // demoConfig is the demo test's config, written beside the synthetic
-// photos as a worked example of a test config.
-func demoConfig(sc *synth.Scenario) string {
-	o := sc.Openings[0]
+// photos as a worked example of a test config: two faces, one load log, an
+// acoustic-emission record and a model file.
+func demoConfig(front, back *synth.Scenario) string {
+	f, b := front.Openings[0], back.Openings[0]
 	return fmt.Sprintf(`# spallscope demo test: a synthetic mortar-analogue block (our own invention)
 name: demo
-images: synth/frames
-reference: 0
 times: {fps: %g}
-scale: {mm_per_px: %g}
-openings:
-  - {name: A, shape: "circle:%g,%g,%g"}
+faces:
+  - {name: front, images: synth/frames, scale: {mm_per_px: %g}, openings: [{name: A, shape: "circle:%g,%g,%g"}]}
+  - {name: back, images: back/frames, scale: {mm_per_px: %g}, openings: [{name: A, shape: "circle:%g,%g,%g"}]}
 correlation: {subset: 21, step: 8}
 strain: {window: 7, static_frames: %d}
 zones: {k: %g, ucs_mpa: %g}
@@ -41,8 +44,23 @@ load:
   file: synth/loadlog.csv
   area_mm2: %g
   clock_offset_s: %g
+ae: {file: synth/ae_hits.csv, clock_offset_s: %g, gap_s: 8}
+model: {file: synth/model.csv, load_mpa: %g, units: mm, origin_px: [%g, %g], y_up: true, face: front}
 outputs: {overlays: true, video: true, report: true, field: gamma_max}
-`, sc.FPS, sc.Specimen.MMPerPx, o.Cx, o.Cy, o.Rx, sc.Load.StartFrame+1, demoK, demoUCS, sc.Specimen.LoadedArea(), sc.Load.ClockOffset)
+`, front.FPS, front.Specimen.MMPerPx, f.Cx, f.Cy, f.Rx, back.Specimen.MMPerPx, b.Cx, b.Cy, b.Rx,
+		front.Load.StartFrame+1, demoK, demoUCS, front.Specimen.LoadedArea(), front.Load.ClockOffset, synth.DemoAEOffset,
+		demoModelMPa, f.Cx, f.Cy)
+}
+
+// renderFace writes a synthetic face into dir unless a complete one with the
+// same scenario and rendering model is there already.
+func renderFace(cmd *cobra.Command, sc *synth.Scenario, dir string) (*synth.Truth, error) {
+	truth, err := synth.ReadTruth(filepath.Join(dir, synth.TruthFile))
+	if err == nil && truth.Generator == synth.Generator && reflect.DeepEqual(truth.Scenario, *sc) {
+		fmt.Fprintln(cmd.ErrOrStderr(), "demo: reusing the synthetic face in", dir)
+		return truth, nil
+	}
+	return synth.Write(sc, dir, progressLine(cmd, "demo: rendered frame of "+sc.Name))
 }
 
 func newDemoCmd() *cobra.Command {
@@ -53,26 +71,38 @@ func newDemoCmd() *cobra.Command {
 		Long: `demo builds spallscope's own demo test with the synthetic speckle lab: a
 100 mm mortar-analogue block with a 24 mm circular opening, loaded vertically
 with lateral confinement to a peak of 32 MPa and beyond, with notches growing
-at both sidewalls, a crack from the crown and slabs spalling late in the test,
-plus the frame's load log. It writes the test config OUT/demo.yaml and runs
-it like any test (spallscope run), then checks the measured displacements
-against the exact field and prints the onsets. A complete demo folder is
-reused; an interrupted one resumes.`,
+at both sidewalls, a crack from the crown and slabs spalling late in the test.
+Two cameras film it (front 512 px, back 384 px, mirrored, its own paint), and
+the test comes with the frame's load log, an acoustic-emission hit list (with
+a stretch where the recording stopped) and a model file (the elastic Kirsch
+solution at 8 MPa). It writes the test config OUT/demo.yaml and runs it like
+any test (spallscope run): both faces tracked and analysed, onsets of both on
+the load log's clock, the AE onset, the model held against the front face,
+overlays, video and the report OUT/run/report.html. It checks the measured
+displacements against the exact field. Everything is invented for the demo.
+A complete demo folder is reused; an interrupted one resumes.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			start := time.Now()
-			sc := synth.DemoBlock()
+			front, back := synth.DemoBlock(), synth.DemoBack()
 			dir := filepath.Join(out, "synth")
-			truth, err := synth.ReadTruth(filepath.Join(dir, synth.TruthFile))
-			if err != nil || truth.Generator != synth.Generator || !reflect.DeepEqual(truth.Scenario, *sc) {
-				if truth, err = synth.Write(sc, dir, progressLine(cmd, "demo: rendered frame")); err != nil {
-					return err
-				}
-			} else {
-				fmt.Fprintln(cmd.ErrOrStderr(), "demo: reusing the synthetic test in", dir)
+			truth, err := renderFace(cmd, front, dir)
+			if err != nil {
+				return err
+			}
+			if _, err := renderFace(cmd, back, filepath.Join(out, "back")); err != nil {
+				return err
+			}
+			if err := synth.WriteDemoAE(filepath.Join(dir, "ae_hits.csv"), front); err != nil {
+				return err
+			}
+			k := *front.Fields[0].Kirsch
+			k.Stress = demoModelMPa
+			if err := synth.WriteKirschModel(filepath.Join(dir, "model.csv"), k, front.Specimen.MMPerPx, 48, 1); err != nil {
+				return err
 			}
 			cfgPath := filepath.Join(out, "demo.yaml")
-			if err := os.WriteFile(cfgPath, []byte(demoConfig(sc)), 0o644); err != nil {
+			if err := os.WriteFile(cfgPath, []byte(demoConfig(front, back)), 0o644); err != nil {
 				return err
 			}
 			t, err := testconfig.Read(cfgPath)
@@ -85,29 +115,35 @@ reused; an interrupted one resumes.`,
 			if err != nil {
 				return err
 			}
+			frontDir := filepath.Join(runDir, testrun.FacesDir, "front")
 			// Check against the exact field at the last frame before damage.
-			check := sc.Fields[1].StartFrame
-			f, err := runfolder.ReadField(runfolder.FieldPath(runDir, sc.FrameName(check)))
+			check := front.Fields[1].StartFrame
+			f, err := runfolder.ReadField(runfolder.FieldPath(frontDir, front.FrameName(check)))
 			if err != nil {
 				return err
 			}
-			acc := sc.Compare(f, check)
+			acc := front.Compare(f, check)
 			var tr runfolder.TrackRecord
-			runfolder.Section(runDir, "track", &tr)
+			runfolder.Section(frontDir, "track", &tr)
 			o := cmd.OutOrStdout()
+			sc := front
 			peak := truth.Frames[sc.Load.PeakFrame]
-			fmt.Fprintf(o, "demo test: %d frames of %dx%d px in %s, config %s\n", sum.Frames, sc.Width, sc.Height, filepath.Join(dir, synth.FramesDir), cfgPath)
+			fmt.Fprintf(o, "demo test: two faces, %dx%d px (front) and %dx%d px (back), %d frames each; config %s\n",
+				front.Width, front.Height, back.Width, back.Height, front.Frames, cfgPath)
 			fmt.Fprintf(o, "  load log: %s (peak %.1f MPa = %.0f kN at frame %s, t = %.0f s)\n",
 				filepath.Join(dir, synth.LoadLogCSV), peak.Stress, peak.Force, peak.Name, peak.Time)
-			fmt.Fprintf(o, "  displacements: %d points per frame (%d px subsets, %d px step) in %s\n", tr.Grid.Len(), tr.Settings.Subset, tr.Settings.Step, filepath.Join(runDir, runfolder.FieldsDir))
+			fmt.Fprintf(o, "  front face: %d points per frame (%d px subsets, %d px step) in %s\n", tr.Grid.Len(), tr.Settings.Subset, tr.Settings.Step, frontDir)
 			fmt.Fprintf(o, "  check against the exact field at frame %s (%.1f MPa, before damage): %d points, RMS error %.4f px, max %.4f px\n",
 				truth.Frames[check].Name, truth.Frames[check].Stress, acc.Points, acc.RMS, acc.Max)
 			if r := sum.Resolution; r != nil {
 				fmt.Fprintf(o, "  resolution from %d static frames: u %.4f px (%.1f µm), exx %.0f µε, eyy %.0f µε, e_eq %.0f µε; VSG %d px = %.1f mm\n",
 					r.Frames, r.U, 1000*r.UMM, r.Exx*1e6, r.Eyy*1e6, r.Eeq*1e6, r.VSG, r.VSGmm)
 			}
-			fmt.Fprintf(o, "  onsets (UCS %.0f MPa, K = %.2f assumed for the context):\n", demoUCS, demoK)
-			printOnsets(cmd, &runfolder.OnsetReport{Peak: sum.Peak, Onsets: sum.Onsets}, filepath.Join(runDir, runfolder.OnsetJSON))
+			printFaces(cmd, runDir)
+			if sum.AE != nil && sum.AE.Onset != nil {
+				fmt.Fprintf(o, "  acoustic emission: %d hits, hit-rate onset at camera time %.1f s, %d gap(s) in the record\n", sum.AE.Hits, sum.AE.Onset.Time, len(sum.AE.Gaps))
+			}
+			printModel(cmd, filepath.Join(frontDir, testrun.ModelDir))
 			if sum.Report != "" {
 				fmt.Fprintf(o, "report: %s\n", sum.Report)
 			}

@@ -42,6 +42,7 @@ type Test struct {
 	Zones       Zones       `yaml:"zones"`
 	Load        Load        `yaml:"load"`
 	AE          AE          `yaml:"ae"`
+	Model       Model       `yaml:"model"`
 	Outputs     Outputs     `yaml:"outputs"`
 	// Faces lists the camera views of a test filmed from several sides.
 	// Each face is tracked and analysed on its own, with its own photos,
@@ -79,6 +80,9 @@ func (t *Test) FaceTest(i int) *Test {
 	c := *t
 	c.Faces = nil
 	c.Name = f.Name
+	if t.Model.Face != f.Name && !(t.Model.Face == "" && i == 0) {
+		c.Model = Model{} // the model belongs to another face
+	}
 	set := func(dst *string, v string) {
 		if v != "" {
 			*dst = v
@@ -199,6 +203,23 @@ type AE struct {
 	Persistence     int       `yaml:"persistence"`
 	Background      []float64 `yaml:"background_s"` // [t0, t1] camera time; default the first 10 %
 	GapSeconds      float64   `yaml:"gap_s"`        // silence longer than this is a gap
+}
+
+// Model is a numerical model's field to hold against the measurement: a
+// CSV of points (x, y and any of u, v, exx, eyy, exy) at the load level
+// LoadMPa, compared at the frame whose nominal stress is nearest. Its
+// origin is at reference pixel Origin, its lengths in Units (mm with the
+// face's scale, or px), its y axis up the image when YUp. With several
+// faces it belongs to the face named Face (default the first).
+type Model struct {
+	File                string    `yaml:"file"`
+	LoadMPa             float64   `yaml:"load_mpa"`
+	Frame               string    `yaml:"frame"` // instead of load_mpa
+	Units               string    `yaml:"units"`
+	Origin              []float64 `yaml:"origin_px"`
+	YUp                 bool      `yaml:"y_up"`
+	CompressionPositive bool      `yaml:"compression_positive"`
+	Face                string    `yaml:"face"`
 }
 
 // Outputs says what to produce beyond fields, strain, zones and onsets.
@@ -322,6 +343,12 @@ func (t *Test) check() error {
 	}
 	if len(t.AE.Sync) != 0 && len(t.AE.Sync) != 2 {
 		errs = append(errs, "ae.sync: expected [camera_s, ae_s]")
+	}
+	if t.Model.File != "" && t.Model.LoadMPa == 0 && t.Model.Frame == "" {
+		errs = append(errs, "model: give load_mpa (the model's load level) or frame")
+	}
+	if len(t.Model.Origin) != 0 && len(t.Model.Origin) != 2 {
+		errs = append(errs, "model.origin_px: expected [x, y]")
 	}
 	if len(t.AE.Background) != 0 && len(t.AE.Background) != 2 {
 		errs = append(errs, "ae.background_s: expected [t0, t1] in camera seconds")

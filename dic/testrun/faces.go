@@ -11,6 +11,7 @@ import (
 
 	"spallscope/dic/runfolder"
 	"spallscope/dic/testconfig"
+	"spallscope/render"
 )
 
 // FacesDir is the run folder's subfolder of per-face run folders.
@@ -82,6 +83,31 @@ func runFaces(t *testconfig.Test, out, tool string, progress Progress) (*Summary
 		rep.First = &first
 	}
 	sum.Peak = rep.Peak
+	// The common timeline: the first face's load record (the log is shared)
+	// on the log's clock, every face's onsets, and the AE record if any.
+	var timeline string
+	var ld runfolder.LoadRecord
+	if len(rep.Faces) > 0 && runfolder.Section(filepath.Join(out, FacesDir, rep.Faces[0]), "load", &ld) == nil {
+		logTimes := make([]float64, len(ld.Times))
+		for i, t := range ld.Times {
+			logTimes[i] = t + ld.Offset
+		}
+		var marks []render.TimelineMark
+		for _, o := range rep.Onsets {
+			marks = append(marks, render.TimelineMark{Face: o.Face, Label: o.Class, Time: o.LogTime, Stress: o.Stress})
+		}
+		var aeT, aeH []float64
+		var aer runfolder.AERecord
+		if runfolder.Section(filepath.Join(out, FacesDir, rep.Faces[0]), "ae", &aer) == nil {
+			for i, t := range aer.Times {
+				aeT, aeH = append(aeT, t+ld.Offset), append(aeH, aer.Cumulative[i])
+			}
+			sum.AE = &aer
+		}
+		if fig, err := render.WriteTimeline(out, logTimes, ld.Stress, marks, aeT, aeH); err == nil {
+			timeline = fig.PNG
+		}
+	}
 	err := runfolder.WriteAtomic(filepath.Join(out, "faces.json"), func(w *bufio.Writer) error {
 		enc := json.NewEncoder(w)
 		enc.SetIndent("", "  ")
@@ -93,9 +119,10 @@ func runFaces(t *testconfig.Test, out, tool string, progress Progress) (*Summary
 	if t.Outputs.WantReport() {
 		err = runfolder.WriteAtomic(filepath.Join(out, "report.html"), func(w *bufio.Writer) error {
 			return facesPage.Execute(w, struct {
-				Name string
+				Name     string
+				Timeline string
 				FacesReport
-			}{t.Name, rep})
+			}{t.Name, timeline, rep})
 		})
 		if err != nil {
 			return nil, err
@@ -123,6 +150,7 @@ th{background:#eef2f6}
 log time {{printf "%.1f" .LogTime}} s, {{printf "%.2f" .Stress}} MPa ({{printf "%.0f" .Percent}} % of peak).</p>{{end}}
 <table id="onsets"><thead><tr><th>face</th><th>class</th><th>opening</th><th>sector</th><th>indicator</th><th>frame</th><th>log time, s</th><th>stress, MPa</th><th>% of peak</th></tr></thead>
 <tbody>{{range .Onsets}}<tr><td>{{.Face}}</td><td>{{.Class}}</td><td>{{.OpeningName}}</td><td>{{.Sector}}</td><td>{{.Indicator}}</td><td>{{.Name}}</td><td>{{printf "%.1f" .LogTime}}</td><td>{{printf "%.2f" .Stress}}</td><td>{{printf "%.0f" .Percent}}</td></tr>{{end}}</tbody></table>
+{{with .Timeline}}<figure><img id="timeline" src="{{.}}" alt="all faces on the load log's clock" style="max-width:100%"><figcaption>All faces' onsets on the load log's clock over the nominal stress{{if $.First}}; the first onset over all faces is listed above{{end}}.</figcaption></figure>{{end}}
 <div class="faces">{{range .Faces}}<iframe title="face {{.}}" src="faces/{{.}}/report.html"></iframe>{{end}}</div>
 </body></html>
 `))

@@ -17,6 +17,7 @@ import (
 	"spallscope/dic/testconfig"
 	"spallscope/render"
 	"spallscope/strain"
+	"spallscope/strain/model"
 )
 
 // Progress reports a stage's progress: done of total units.
@@ -218,8 +219,11 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 	progress("zones", 1, 1)
 
 	// Outputs: overlays, video, report, open formats.
+	if rr.Hashes["model"], err = fileHash(t.Resolve(t.Model.File)); err != nil {
+		return nil, err
+	}
 	fpOut := fingerprint("outputs", fpZones, t.Outputs.WantOverlays(), t.Outputs.WantVideo(), t.Outputs.WantReport(),
-		t.Outputs.WantVTK(), t.Outputs.WantNPY(), t.Outputs.Field)
+		t.Outputs.WantVTK(), t.Outputs.WantNPY(), t.Outputs.Field, t.Model, rr.Hashes["model"])
 	stageStart = time.Now()
 	if st := stages["outputs"]; st.Fingerprint == fpOut && st.Complete {
 		sum.Skipped = append(sum.Skipped, "outputs")
@@ -350,6 +354,18 @@ func joinComma(xs []string) string { return strings.Join(xs, ",") }
 // open-format exports the config asks for.
 func outputs(t *testconfig.Test, out, tool string, progress Progress) error {
 	o := t.Outputs
+	if m := t.Model; m.File != "" {
+		f := model.Format{Units: model.Units(m.Units), YUp: m.YUp, CompressionPositive: m.CompressionPositive}
+		if f.Units == "" {
+			f.Units = model.MM
+		}
+		if len(m.Origin) == 2 {
+			f.OriginX, f.OriginY = m.Origin[0], m.Origin[1]
+		}
+		if _, err := CompareModel(out, t.Resolve(m.File), f, m.Frame, m.LoadMPa); err != nil {
+			return err
+		}
+	}
 	if o.WantOverlays() || o.WantVideo() {
 		os.RemoveAll(filepath.Join(out, render.OverlaysDir))
 		if _, err := render.Run(out, render.Options{Field: o.Field, Video: o.WantVideo(),

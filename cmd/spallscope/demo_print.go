@@ -1,0 +1,64 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"os"
+	"path/filepath"
+	"text/tabwriter"
+
+	"github.com/spf13/cobra"
+
+	"spallscope/dic/testrun"
+	"spallscope/strain/model"
+)
+
+// printFaces prints the onsets of every face on the load log's clock.
+func printFaces(cmd *cobra.Command, run string) {
+	data, err := os.ReadFile(filepath.Join(run, "faces.json"))
+	if err != nil {
+		return
+	}
+	var rep testrun.FacesReport
+	if json.Unmarshal(data, &rep) != nil {
+		return
+	}
+	o := cmd.OutOrStdout()
+	fmt.Fprintf(o, "  onsets of both faces on the load log's clock (UCS %.0f MPa, K = %.2f assumed for the context):\n", demoUCS, demoK)
+	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
+	fmt.Fprintln(w, "    face\tclass\tsector\tindicator\tframe\tlog_time_s\tstress_MPa\tpct_of_peak")
+	for _, on := range rep.Onsets {
+		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%.1f\t%.2f\t%.0f\n", on.Face, on.Class, on.Sector, on.Indicator, on.Name, on.LogTime, on.Stress, on.Percent)
+	}
+	w.Flush()
+	if f := rep.First; f != nil {
+		fmt.Fprintf(o, "  first onset over all faces: %s, %s at the %s, log time %.1f s, %.2f MPa (%.0f %% of peak)\n", f.Face, f.Class, f.Sector, f.LogTime, f.Stress, f.Percent)
+	}
+}
+
+// printModel prints the model comparison's summary, if there is one.
+func printModel(cmd *cobra.Command, dir string) {
+	data, err := os.ReadFile(filepath.Join(dir, model.SummaryFile))
+	if err != nil {
+		return
+	}
+	var s struct {
+		FrameName  string `json:"frame_name"`
+		Quantities []struct {
+			Quantity    any      `json:"quantity"`
+			RMS         *float64 `json:"rms"`
+			Correlation *float64 `json:"correlation"`
+			Ratio       *float64 `json:"rms_over_resolution"`
+		} `json:"quantities"`
+	}
+	if json.Unmarshal(data, &s) != nil {
+		return
+	}
+	fmt.Fprintf(cmd.OutOrStdout(), "  model (elastic Kirsch at %g MPa) against the front face at %s:", demoModelMPa, s.FrameName)
+	for _, q := range s.Quantities {
+		if q.RMS != nil && q.Correlation != nil && q.Ratio != nil {
+			fmt.Fprintf(cmd.OutOrStdout(), " %v RMS %.2g (%.1f× resolution, r = %.3f);", q.Quantity, *q.RMS, *q.Ratio, *q.Correlation)
+		}
+	}
+	fmt.Fprintln(cmd.OutOrStdout())
+}
