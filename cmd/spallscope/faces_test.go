@@ -53,3 +53,14 @@ func TestTwoFacesOnOneClock(t *testing.T) {
 		t.Error("the faces page lacks the two face reports or the first onset")
 	}
 }
+
+// A face whose photo folder holds no frames stops the run with an error
+// that names the face and the folder, never a silent skip.
+func TestFaceWithoutFrames(t *testing.T) {
+	cfg := bandTest(t, "faces:\n  - {name: front}\n  - {name: side, images: empty/}\n")
+	os.MkdirAll(filepath.Join(filepath.Dir(cfg), "empty"), 0o755)
+	_, err := run(t, "run", cfg, "--out", filepath.Join(t.TempDir(), "run"))
+	if err == nil || !strings.Contains(err.Error(), "face side") || !strings.Contains(err.Error(), "empty") {
+		t.Errorf("error %v, want it to name the face and its folder", err)
+	}
+}
