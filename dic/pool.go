@@ -13,6 +13,17 @@ import (
 type job struct {
 	I, X, Y int
 	Guess   subset.Params
+	// Full says every pixel of the subset is measured, so the solver may
+	// take its unmasked path (the same result, faster).
+	Full bool
+}
+
+// maskFor returns the mask a job's solve needs: none for a full subset.
+func (j job) maskFor(mask []uint8) []uint8 {
+	if j.Full {
+		return nil
+	}
+	return mask
 }
 
 // pool solves batches of independent subsets on a fixed set of goroutines,
@@ -41,7 +52,7 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 	}
 	if len(jobs) < 8 || len(p.solvers) == 1 {
 		for _, j := range jobs {
-			out[j.I] = p.solvers[0].Solve(ref, def, mask, j.X, j.Y, j.Guess)
+			out[j.I] = p.solvers[0].Solve(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess)
 		}
 		return
 	}
@@ -57,7 +68,7 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 					return
 				}
 				j := jobs[k]
-				out[j.I] = s.Solve(ref, def, mask, j.X, j.Y, j.Guess)
+				out[j.I] = s.Solve(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess)
 			}
 		}(s)
 	}

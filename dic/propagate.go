@@ -55,7 +55,7 @@ func (c *correlation) run(prev []subset.Params, prevOK []bool) []subset.Result {
 				g := prev[i]
 				g[subset.PU] += offset[0]
 				g[subset.PV] += offset[1]
-				c.jobs = append(c.jobs, job{I: i, X: c.centres[i][0], Y: c.centres[i][1], Guess: g})
+				c.jobs = append(c.jobs, job{I: i, X: c.centres[i][0], Y: c.centres[i][1], Guess: g, Full: c.full(i)})
 			}
 		}
 		c.solveJobs()
@@ -139,7 +139,7 @@ func (c *correlation) seed(cands []int, prev []subset.Params, prevOK []bool) ([2
 		}
 		start := g
 		start[subset.PU], start[subset.PV] = float64(m.U), float64(m.V)
-		c.jobs = append(c.jobs[:0], job{I: i, X: x, Y: y, Guess: start})
+		c.jobs = append(c.jobs[:0], job{I: i, X: x, Y: y, Guess: start, Full: c.full(i)})
 		c.solveJobs()
 		if c.state[i] == accepted {
 			p := c.res[i].P
@@ -181,12 +181,17 @@ func (c *correlation) propagate() {
 				c.state[q] = failed // claimed for this batch; solveJobs files it
 				dx := float64(c.centres[q][0] - c.centres[p][0])
 				dy := float64(c.centres[q][1] - c.centres[p][1])
-				c.jobs = append(c.jobs, job{I: q, X: c.centres[q][0], Y: c.centres[q][1], Guess: carry(c.res[p].P, dx, dy)})
+				c.jobs = append(c.jobs, job{I: q, X: c.centres[q][0], Y: c.centres[q][1], Guess: carry(c.res[p].P, dx, dy), Full: c.full(q)})
 			}
 		}
 		c.solveJobs()
 	}
 }
+
+// full reports whether point i's subset has every pixel measured, so it
+// can be solved without the mask: known for the original reference only
+// (after a reference update the subsets sit elsewhere).
+func (c *correlation) full(i int) bool { return c.tr.base == nil && c.tr.full[i] }
 
 // carry moves a first-order shape by (dx, dy) in the reference: the
 // displacement changes by the gradient times the offset.

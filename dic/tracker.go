@@ -23,6 +23,7 @@ type Tracker struct {
 	pool   *pool
 
 	static []subset.Status // per point, against the original reference
+	full   []bool          // per point: every pixel of its subset is measured (original reference)
 	comp   []int           // connected part of the trackable grid, −1 if none
 	seeds  [][]int         // seed candidates per part, best first
 
@@ -89,8 +90,12 @@ func (t *Tracker) classify() {
 	r := t.s.Subset / 2
 	side := 2*r + 1
 	area := newSummedArea(t.pixels)
+	t.full = make([]bool, n)
 	for i := 0; i < n; i++ {
 		x, y := t.grid.Pos(i)
+		if x-r >= 0 && y-r >= 0 && x+r < t.mask.Width && y+r < t.mask.Height {
+			t.full[i] = area.count(x-r, y-r, x+r, y+r) == side*side
+		}
 		switch {
 		case !t.mask.At(x, y):
 			t.static[i] = subset.Masked
