@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"os"
 	"path/filepath"
 	"strings"
@@ -11,20 +10,6 @@ import (
 	"spallscope/dic/runfolder"
 	"spallscope/subset"
 )
-
-// runExport runs the export command alone (it is registered with the root
-// elsewhere) and returns stdout and the error.
-func runExport(t *testing.T, args ...string) (string, error) {
-	t.Helper()
-	cmd := newExportCmd()
-	var out, errOut bytes.Buffer
-	cmd.SetOut(&out)
-	cmd.SetErr(&errOut)
-	cmd.SetArgs(args)
-	cmd.SilenceUsage, cmd.SilenceErrors = true, true
-	err := cmd.Execute()
-	return out.String(), err
-}
 
 // The command exports a two-frame run folder to the formats asked for and
 // says where; bad fields and a missing folder are refused.
@@ -48,7 +33,7 @@ func TestExportCommand(t *testing.T) {
 		t.Fatal(err)
 	}
 
-	out, err := runExport(t, dir, "--npy", "--fields", "u,v", "--scale", "0.1")
+	out, err := run(t, "export", dir, "--npy", "--fields", "u,v", "--scale", "0.1")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -64,18 +49,18 @@ func TestExportCommand(t *testing.T) {
 		t.Error("--npy alone wrote the vtk folder")
 	}
 
-	out, err = runExport(t, dir)
+	out, err = run(t, "export", dir)
 	if err != nil || !strings.Contains(out, filepath.Join(dir, "vtk", "series.pvd")) || !strings.Contains(out, "u,v,zncc,status;") {
 		t.Errorf("default export: %v\n%s", err, out)
 	}
 
-	if _, err := runExport(t, dir, "--fields", "u,bogus"); err == nil || !strings.Contains(err.Error(), `unknown field "bogus"`) {
+	if _, err := run(t, "export", dir, "--fields", "u,bogus"); err == nil || !strings.Contains(err.Error(), `unknown field "bogus"`) {
 		t.Errorf("bad field: %v", err)
 	}
-	if _, err := runExport(t, dir, "--fields", ""); err == nil || !strings.Contains(err.Error(), "no fields named") {
+	if _, err := run(t, "export", dir, "--fields", ""); err == nil || !strings.Contains(err.Error(), "no fields named") {
 		t.Errorf("empty --fields: %v", err)
 	}
-	if _, err := runExport(t, filepath.Join(dir, "nope")); err == nil || !strings.Contains(err.Error(), "nope") {
+	if _, err := run(t, "export", filepath.Join(dir, "nope")); err == nil || !strings.Contains(err.Error(), "nope") {
 		t.Errorf("missing run folder: %v", err)
 	}
 }

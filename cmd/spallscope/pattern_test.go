@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"encoding/json"
 	"os"
 	"path/filepath"
@@ -11,20 +10,6 @@ import (
 	"spallscope/dic/frames"
 	"spallscope/dic/synth"
 )
-
-// runPattern executes the pattern command on its own (it is registered in
-// root.go separately) and returns stdout and the error.
-func runPattern(t *testing.T, args ...string) (string, error) {
-	t.Helper()
-	cmd := newPatternCmd()
-	var out, errOut bytes.Buffer
-	cmd.SetOut(&out)
-	cmd.SetErr(&errOut)
-	cmd.SetArgs(args)
-	cmd.SilenceUsage, cmd.SilenceErrors = true, true
-	err := cmd.Execute()
-	return out.String(), err
-}
 
 // writeSpeckles renders a still synthetic pattern (frame selects its
 // noise) and writes it as an 8-bit PNG.
@@ -51,7 +36,7 @@ func TestPatternCommand(t *testing.T) {
 	writeSpeckles(t, a, 0)
 	writeSpeckles(t, b, 1)
 	outDir := filepath.Join(dir, "check")
-	out, err := runPattern(t, a, "--static", b, "--subset", "15", "--out", outDir)
+	out, err := run(t, "pattern", a, "--static", b, "--subset", "15", "--out", outDir)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -105,7 +90,7 @@ func TestPatternBadInput(t *testing.T) {
 		{[]string{a, "--interp", "linear", "--out", dir}, `--interp "linear"`},
 	}
 	for _, c := range cases {
-		if _, err := runPattern(t, c.args...); err == nil || !strings.Contains(err.Error(), c.want) {
+		if _, err := run(t, append([]string{"pattern"}, c.args...)...); err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%v: error %v, want it to say %q", c.args, err, c.want)
 		}
 	}

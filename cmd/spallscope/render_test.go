@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -10,20 +9,6 @@ import (
 
 	"gocv.io/x/gocv"
 )
-
-// runRender executes the render command alone (whether or not the root
-// registers it) and returns stdout and the error.
-func runRender(t *testing.T, args ...string) (string, error) {
-	t.Helper()
-	cmd := newRenderCmd()
-	var out, errOut bytes.Buffer
-	cmd.SetOut(&out)
-	cmd.SetErr(&errOut)
-	cmd.SetArgs(args)
-	cmd.SilenceUsage, cmd.SilenceErrors = true, true
-	err := cmd.Execute()
-	return out.String(), err
-}
 
 // The small Kirsch fixture, tracked and differentiated on the command line,
 // renders one overlay per frame and a video that OpenCV reads back with one
@@ -38,7 +23,7 @@ func TestRenderRunFolder(t *testing.T) {
 	if _, err := run(t, "strain", "--fields", out, "--window", "5"); err != nil {
 		t.Fatal(err)
 	}
-	text, err := runRender(t, out, "--field", "e1", "--video", "--fps", "3", "--format", "avi")
+	text, err := run(t, "render", out, "--field", "e1", "--video", "--fps", "3", "--format", "avi")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -69,7 +54,7 @@ func TestRenderRunFolder(t *testing.T) {
 // Bad requests are refused before anything is drawn, saying what was
 // expected; --help documents fields, units and conventions.
 func TestRenderHelpAndErrors(t *testing.T) {
-	text, err := runRender(t, "--help")
+	text, err := run(t, "render", "--help")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -78,18 +63,18 @@ func TestRenderHelpAndErrors(t *testing.T) {
 			t.Errorf("help does not mention %q", want)
 		}
 	}
-	run := t.TempDir()
+	dir := t.TempDir()
 	for _, c := range []struct {
 		args []string
 		want string
 	}{
-		{[]string{run, "--field", "stress"}, "expected one of exx"},
-		{[]string{run, "--on", "sideways"}, "expected reference or current"},
-		{[]string{run, "--alpha", "0"}, "opacity in (0, 1]"},
-		{[]string{run, "--percentiles", "1"}, "LOW,HIGH"},
-		{[]string{filepath.Join(run, "none")}, "none"},
+		{[]string{dir, "--field", "stress"}, "expected one of exx"},
+		{[]string{dir, "--on", "sideways"}, "expected reference or current"},
+		{[]string{dir, "--alpha", "0"}, "opacity in (0, 1]"},
+		{[]string{dir, "--percentiles", "1"}, "LOW,HIGH"},
+		{[]string{filepath.Join(dir, "none")}, "none"},
 	} {
-		if _, err := runRender(t, c.args...); err == nil || !strings.Contains(err.Error(), c.want) {
+		if _, err := run(t, append([]string{"render"}, c.args...)...); err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("render %v: error %v, expected one saying %q", c.args, err, c.want)
 		}
 	}

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"encoding/json"
 	"image/png"
 	"os"
@@ -11,18 +10,6 @@ import (
 
 	"spallscope/dic/runfolder"
 )
-
-// runReport runs the report command alone (it needs no root flags).
-func runReport(t *testing.T, args ...string) (string, error) {
-	t.Helper()
-	cmd := newReportCmd()
-	var out, errOut bytes.Buffer
-	cmd.SetOut(&out)
-	cmd.SetErr(&errOut)
-	cmd.SetArgs(args)
-	err := cmd.Execute()
-	return out.String(), err
-}
 
 // report on the run folder of the whole pipeline over the small band
 // fixture (synth, track, strain, zones, as TestZonesOnSyntheticBand): the
@@ -44,7 +31,7 @@ func TestReportCommandOnPipelineRun(t *testing.T) {
 			t.Fatalf("%v: %v", s, err)
 		}
 	}
-	msg, err := runReport(t, out)
+	msg, err := run(t, "report", out)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -85,7 +72,7 @@ func TestReportCommandOnPipelineRun(t *testing.T) {
 	}
 
 	alone := filepath.Join(t.TempDir(), "share", "band.html")
-	if _, err := runReport(t, out, "--embed", "--out", alone, "--extensometer", "40,20,40,220", "--gauge", "20,20,60,60", "--gauge-component", "exx"); err != nil {
+	if _, err := run(t, "report", out, "--embed", "--out", alone, "--extensometer", "40,20,40,220", "--gauge", "20,20,60,60", "--gauge-component", "exx"); err != nil {
 		t.Fatal(err)
 	}
 	page, err = os.ReadFile(alone)
@@ -109,7 +96,7 @@ func TestReportCommandBadInput(t *testing.T) {
 		{[]string{dir, "--gauge", "1,2,x,4"}, `"x" is not a number`},
 	}
 	for _, c := range cases {
-		if _, err := runReport(t, c.args...); err == nil || !strings.Contains(err.Error(), c.want) {
+		if _, err := run(t, append([]string{"report"}, c.args...)...); err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%v: error %v, want it to contain %q", c.args, err, c.want)
 		}
 	}
