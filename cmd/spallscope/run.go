@@ -6,6 +6,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/dic/cluster"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/testconfig"
 	"spallscope/dic/testrun"
@@ -72,11 +73,11 @@ func printSummary(cmd *cobra.Command, s *testrun.Summary) {
 
 func newBatchCmd() *cobra.Command {
 	var (
-		out  string
-		jobs int
+		out, shardFlag   string
+		jobs, shardCount int
 	)
 	cmd := &cobra.Command{
-		Use:   "batch CAMPAIGN.yaml|FOLDER [--jobs N] [--out DIR]",
+		Use:   "batch CAMPAIGN.yaml|FOLDER [--jobs N] [--out DIR] [--shard i/n]",
 		Short: "Run a campaign of tests, with progress per test, and write a campaign summary",
 		Long: `batch runs every test of a campaign — a YAML file with keys name, out, jobs and
 tests (a list of test configs, relative to it), or a folder of test configs —
@@ -84,7 +85,14 @@ at most --jobs at once, each into OUT/<test name>, resuming what is done.
 One failing test does not stop the others; the summary shows its error.
 
 Output: OUT/summary.csv and OUT/summary.html, one row per onset with the
-test's peak stress and resolution.`,
+test's peak stress and resolution; each test's OUT/<name>/outcome.json says
+how it ended.
+
+Shards: with --shard i/n (or inside a Slurm array task, SLURM_ARRAY_TASK_ID
+of SLURM_ARRAY_TASK_COUNT; or a Kubernetes Indexed Job's
+JOB_COMPLETION_INDEX with --shard-count) only the tests whose index modulo n
+is i run, and no summary is written: 'spallscope cluster merge' assembles it
+once every task is done.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			c, err := testconfig.ReadCampaign(args[0])
@@ -97,12 +105,24 @@ test's peak stress and resolution.`,
 			if out == "" {
 				out = filepath.Join(c.Dir, c.Name+"_runs")
 			}
+			shard, sharded, err := cluster.FromEnv(shardCount)
+			if err != nil {
+				return err
+			}
+			if shardFlag != "" {
+				if shard, err = cluster.ParseShard(shardFlag); err != nil {
+					return err
+				}
+				sharded = shard.N > 1
+			}
 			bars := newStageLines(cmd)
 			bars.tests = len(c.Tests)
-			results := testrun.RunCampaign(c, out, "spallscope "+version, jobs, bars.update)
+			results := testrun.RunCampaign(c, out, "spallscope "+version, jobs, shard.Has, bars.update)
 			bars.finish()
-			if err := testrun.WriteCampaignSummary(out, c.Name, results); err != nil {
-				return err
+			if !sharded {
+				if err := testrun.WriteCampaignSummary(out, c.Name, results); err != nil {
+					return err
+				}
 			}
 			failed := 0
 			for _, r := range results {
@@ -113,7 +133,11 @@ test's peak stress and resolution.`,
 					printSummary(cmd, r.Summary)
 				}
 			}
-			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d tests, %d failed; summary in %s\n", c.Name, len(results), failed, filepath.Join(out, "summary.html"))
+			where := filepath.Join(out, "summary.html")
+			if sharded {
+				where = fmt.Sprintf("(shard %d/%d: no summary; run spallscope cluster merge)", shard.I, shard.N)
+			}
+			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d tests, %d failed; summary %s\n", c.Name, len(results), failed, where)
 			if failed > 0 {
 				return fmt.Errorf("%d of %d tests failed", failed, len(results))
 			}
@@ -122,5 +146,7 @@ test's peak stress and resolution.`,
 	}
 	cmd.Flags().StringVar(&out, "out", "", "folder for the runs and the summary")
 	cmd.Flags().IntVar(&jobs, "jobs", 0, "tests at once (default: the campaign's jobs, else 1)")
+	cmd.Flags().StringVar(&shardFlag, "shard", "", "run only share i of n of the tests (i/n); the summary is left to 'cluster merge'")
+	cmd.Flags().IntVar(&shardCount, "shard-count", 0, "number of shards when the index comes from JOB_COMPLETION_INDEX")
 	return cmd
 }

@@ -173,7 +173,7 @@ func TestBatchOfThree(t *testing.T) {
 	if err == nil || !strings.Contains(err.Error(), "1 of 3 tests failed") {
 		t.Errorf("batch error %v", err)
 	}
-	if !strings.Contains(msg, "campaign trial: 3 tests, 1 failed") {
+	if !strings.Contains(msg, "campaign trial: 3 tests, 1 failed; summary") {
 		t.Errorf("batch output %q", msg)
 	}
 	csv, _ := os.ReadFile(filepath.Join(out, "summary.csv"))

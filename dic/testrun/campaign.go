@@ -3,6 +3,7 @@ package testrun
 import (
 	"bufio"
 	"encoding/csv"
+	"encoding/json"
 	"fmt"
 	"html/template"
 	"os"
@@ -26,23 +27,34 @@ type Result struct {
 // CampaignProgress reports progress of one test of a campaign.
 type CampaignProgress func(test, stage string, done, total int)
 
-// RunCampaign runs every test of campaign c, at most jobs at once, each
-// into <out>/<test name>. A failing test does not stop the others; its
-// Result carries the error. Results are in the campaign's order.
-func RunCampaign(c *testconfig.Campaign, out, tool string, jobs int, progress CampaignProgress) []Result {
+// RunCampaign runs the tests of campaign c that include selects (nil: all;
+// a cluster task's share), at most jobs at once, each into <out>/<test
+// name>, and records each test's outcome there (OutcomeFile). A failing
+// test does not stop the others; its Result carries the error. Results are
+// in the campaign's order, for the selected tests only.
+func RunCampaign(c *testconfig.Campaign, out, tool string, jobs int, include func(k int) bool, progress CampaignProgress) []Result {
 	if jobs <= 0 {
 		jobs = max(c.Jobs, 1)
 	}
-	results := make([]Result, len(c.Tests))
+	var picked []string
+	for k, path := range c.Tests {
+		if include == nil || include(k) {
+			picked = append(picked, path)
+		}
+	}
+	results := make([]Result, len(picked))
 	sem := make(chan struct{}, jobs)
 	var wg sync.WaitGroup
-	for i, path := range c.Tests {
+	for i, path := range picked {
 		wg.Add(1)
 		go func(i int, path string) {
 			defer wg.Done()
 			sem <- struct{}{}
 			defer func() { <-sem }()
 			results[i] = runOne(path, out, tool, progress)
+			if err := WriteOutcome(out, results[i]); err != nil && results[i].Err == "" {
+				results[i].Err = err.Error()
+			}
 		}(i, path)
 	}
 	wg.Wait()
@@ -150,3 +162,55 @@ td.failed{color:#a01818}
 <tbody>{{range .Rows}}<tr>{{range .}}<td>{{.}}</td>{{end}}</tr>{{end}}</tbody></table>
 </body></html>
 `))
+
+// OutcomeFile is the file in a test's run folder that says how its last
+// campaign run ended: written at the end, so a task that died leaves none.
+const OutcomeFile = "outcome.json"
+
+// Outcome is the content of OutcomeFile.
+type Outcome struct {
+	Config string `json:"config"`
+	OK     bool   `json:"ok"`
+	Error  string `json:"error,omitempty"`
+}
+
+// TestName is the run folder name of a campaign test: its config's name,
+// or the config file's stem when the config cannot be read.
+func TestName(config string) string {
+	if t, err := testconfig.Read(config); err == nil {
+		return t.Name
+	}
+	return strings.TrimSuffix(filepath.Base(config), filepath.Ext(config))
+}
+
+// WriteOutcome records how test r ended in its run folder under out.
+func WriteOutcome(out string, r Result) error {
+	dir := filepath.Join(out, TestName(r.Config))
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	return runfolder.WriteAtomic(filepath.Join(dir, OutcomeFile), func(w *bufio.Writer) error {
+		return json.NewEncoder(w).Encode(Outcome{Config: r.Config, OK: r.Err == "", Error: r.Err})
+	})
+}
+
+// ReadOutcome reads a test's outcome; fs.ErrNotExist when it has none yet.
+func ReadOutcome(out, config string) (Outcome, error) {
+	var o Outcome
+	err := readJSON(filepath.Join(out, TestName(config), OutcomeFile), &o)
+	return o, err
+}
+
+// SummaryOf rebuilds a finished test's summary from its run folder.
+func SummaryOf(dir string) (*Summary, error) {
+	var rep runfolder.OnsetReport
+	if err := readJSON(filepath.Join(dir, runfolder.OnsetJSON), &rep); err != nil {
+		return nil, err
+	}
+	s := &Summary{Name: filepath.Base(dir), Out: dir, Peak: rep.Peak, Onsets: rep.Onsets, Resolution: rep.Resolution}
+	var tr runfolder.TrackRecord
+	if runfolder.Section(dir, "track", &tr) == nil {
+		s.Frames = len(tr.Frames)
+	}
+	return s, nil
+}
