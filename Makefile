@@ -5,7 +5,7 @@ GO      ?= go
 BIN     := bin/spallscope
 DEMO    ?= out/demo
 
-.PHONY: deps build test vet bench demo clean
+.PHONY: deps build test vet bench demo bundle clean
 
 deps:
 	./scripts/deps.sh
@@ -26,5 +26,8 @@ bench: deps
 demo: build
 	./$(BIN) demo --out $(DEMO)
 
+bundle: build
+	./scripts/bundle.sh
+
 clean:
-	rm -rf bin out
+	rm -rf bin out bundle
