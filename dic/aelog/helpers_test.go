@@ -1,25 +1,17 @@
 package aelog
 
 import (
-	"errors"
+	"spallscope/dic/logtable/logtabletest"
+
 	"math"
-	"os"
-	"path/filepath"
-	"strings"
 	"testing"
 
 	"spallscope/dic/loadlog"
 )
 
-// writeList writes content to a file named name in a fresh temporary
-// directory and returns its path.
+// writeList writes a hit list for a test (see logtabletest.WriteFile).
 func writeList(t *testing.T, name, content string) string {
-	t.Helper()
-	path := filepath.Join(t.TempDir(), name)
-	if err := os.WriteFile(path, []byte(content), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	return path
+	return logtabletest.WriteFile(t, name, content)
 }
 
 // mustRead reads a list written by writeList and fails the test on error.
@@ -32,24 +24,8 @@ func mustRead(t *testing.T, name, content string, f Format) *Log {
 	return l
 }
 
-// wantParseError checks that err is a *ParseError at line and column (0:
-// none) whose message contains every one of parts.
-func wantParseError(t *testing.T, name string, err error, line, col int, parts ...string) {
-	t.Helper()
-	var pe *ParseError
-	if !errors.As(err, &pe) {
-		t.Errorf("%s: error %v, want a *ParseError", name, err)
-		return
-	}
-	if pe.Line != line || pe.Column != col {
-		t.Errorf("%s: error at line %d column %d, want line %d column %d: %v", name, pe.Line, pe.Column, line, col, err)
-	}
-	for _, p := range parts {
-		if !strings.Contains(err.Error(), p) {
-			t.Errorf("%s: error %q does not contain %q", name, err, p)
-		}
-	}
-}
+// wantParseError checks an error's place (see logtabletest.WantParseError).
+var wantParseError = logtabletest.WantParseError
 
 // logAt returns a Log with one hit of energy 1 at each time, for tests of
 // the derived series.

@@ -7,25 +7,6 @@ import (
 	"testing"
 )
 
-// wantParseError checks that err is a *ParseError at line and column (0:
-// none) whose message contains every one of parts.
-func wantParseError(t *testing.T, name string, err error, line, col int, parts ...string) {
-	t.Helper()
-	var pe *ParseError
-	if !errors.As(err, &pe) {
-		t.Errorf("%s: error %v, want a *ParseError", name, err)
-		return
-	}
-	if pe.Line != line || pe.Column != col {
-		t.Errorf("%s: error at line %d column %d, want line %d column %d: %v", name, pe.Line, pe.Column, line, col, err)
-	}
-	for _, p := range parts {
-		if !strings.Contains(err.Error(), p) {
-			t.Errorf("%s: error %q does not contain %q", name, err, p)
-		}
-	}
-}
-
 func TestReadDecreasingTime(t *testing.T) {
 	content := "# invented\n# log\ntime_s,force_kN\n12.0,1\n12.2,2\n12.4,3\n12.3,4\n"
 	path := writeLog(t, "dec.csv", content)

@@ -1,22 +1,19 @@
 package loadlog
 
 import (
+	"spallscope/dic/logtable/logtabletest"
+
 	"math"
-	"os"
-	"path/filepath"
 	"testing"
 )
 
-// writeLog writes content to a file named name in a fresh temporary
-// directory and returns its path.
+// writeLog writes a log file for a test (see logtabletest.WriteFile).
 func writeLog(t *testing.T, name, content string) string {
-	t.Helper()
-	path := filepath.Join(t.TempDir(), name)
-	if err := os.WriteFile(path, []byte(content), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	return path
+	return logtabletest.WriteFile(t, name, content)
 }
+
+// wantParseError checks an error's place (see logtabletest.WantParseError).
+var wantParseError = logtabletest.WantParseError
 
 // mustRead reads a log written by writeLog and fails the test on error.
 func mustRead(t *testing.T, name, content string, f Format) *Log {

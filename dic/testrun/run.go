@@ -269,7 +269,7 @@ func zones(t *testconfig.Test, out string, times []float64, loadPath string, sca
 	st := runfolder.ZoneStage{CalibrateBelow: t.Zones.CalibrateBelow, CalibrateFrames: t.Zones.CalibrateFrames, K: t.Zones.K, UCS: t.Zones.UCS}
 	z := t.Zones
 	if len(z.Indicators) > 0 {
-		inds, err := strain.ParseIndicators(joinComma(z.Indicators))
+		inds, err := strain.ParseIndicators(strings.Join(z.Indicators, ","))
 		if err != nil {
 			return err
 		}
@@ -347,8 +347,6 @@ func resolveRef(t *testconfig.Test) string {
 	}
 	return t.Resolve(t.Reference)
 }
-
-func joinComma(xs []string) string { return strings.Join(xs, ",") }
 
 // outputs draws the overlays and the video, writes the report and the
 // open-format exports the config asks for.
