@@ -32,12 +32,12 @@ func (k Interpolation) String() string {
 // ParseInterpolation is the inverse of Interpolation.String.
 func ParseInterpolation(s string) (Interpolation, error) {
 	switch s {
-	case "bicubic":
+	case "bicubic", "cubic":
 		return Bicubic, nil
-	case "biquintic":
+	case "biquintic", "quintic":
 		return Biquintic, nil
 	}
-	return 0, fmt.Errorf("subset: unknown interpolation %q (want bicubic or biquintic)", s)
+	return 0, fmt.Errorf("subset: unknown interpolation %q (want bicubic or biquintic; cubic and quintic for short)", s)
 }
 
 // splinePad is the number of mirrored coefficients stored around the image

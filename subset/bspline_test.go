@@ -364,6 +364,9 @@ func TestInterpolationNames(t *testing.T) {
 			t.Errorf("ParseInterpolation(%q) = %v, %v", k.String(), got, err)
 		}
 	}
+	if got, err := ParseInterpolation("quintic"); err != nil || got != Biquintic {
+		t.Errorf("ParseInterpolation(quintic) = %v, %v, want the short name accepted", got, err)
+	}
 	if _, err := ParseInterpolation("bilinear"); err == nil {
 		t.Error("ParseInterpolation(bilinear) succeeded, want an error")
 	}

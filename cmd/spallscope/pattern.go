@@ -57,12 +57,8 @@ poorest subset (purple) to the best (yellow). DIR is created if needed
 				return fmt.Errorf("--noise and --static both given: give one")
 			}
 			opt.Noise = noise
-			switch interp {
-			case "cubic", "bicubic":
-				opt.Interpolation = subset.Bicubic
-			case "quintic", "biquintic":
-				opt.Interpolation = subset.Biquintic
-			default:
+			var err error
+			if opt.Interpolation, err = subset.ParseInterpolation(interp); err != nil {
 				return fmt.Errorf("--interp %q, expected cubic or quintic", interp)
 			}
 			img, err := frames.ReadImage(args[0])

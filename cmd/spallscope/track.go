@@ -71,12 +71,8 @@ func (f *trackFlags) settings() (dic.Settings, error) {
 	default:
 		return s, fmt.Errorf("--order %d, expected 1 (affine) or 2 (quadratic)", f.order)
 	}
-	switch f.interp {
-	case "cubic", "bicubic":
-		s.Interpolation = subset.Bicubic
-	case "quintic", "biquintic":
-		s.Interpolation = subset.Biquintic
-	default:
+	var err error
+	if s.Interpolation, err = subset.ParseInterpolation(f.interp); err != nil {
 		return s, fmt.Errorf("--interp %q, expected cubic or quintic", f.interp)
 	}
 	s.Reference = dic.ReferenceMode(f.reference)

@@ -23,11 +23,7 @@ func Correlation(c testconfig.Correlation) (dic.Settings, error) {
 		}
 	}
 	if c.Interpolation != "" {
-		name := c.Interpolation
-		if name == "cubic" || name == "quintic" {
-			name = "bi" + name
-		}
-		if s.Interpolation, err = subset.ParseInterpolation(name); err != nil {
+		if s.Interpolation, err = subset.ParseInterpolation(c.Interpolation); err != nil {
 			return s, err
 		}
 	}
