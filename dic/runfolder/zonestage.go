@@ -151,6 +151,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*OnsetRe
 	if st.CalibrateFrames == 0 {
 		st.CalibrateFrames = 3
 	}
+	read := map[int]*strain.Field{} // calibration frames, read once for both passes
 	for k, name := range names {
 		loaded := peak.Stress > 0
 		if (loaded && frames[k].Stress <= st.CalibrateBelow*peak.Stress) || (!loaded && k < st.CalibrateFrames) {
@@ -158,6 +159,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*OnsetRe
 			if err != nil {
 				return nil, err
 			}
+			read[k] = sf
 			calib, calibStress = append(calib, sf), append(calibStress, frames[k].Stress)
 		}
 	}
@@ -170,10 +172,13 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*OnsetRe
 		return nil, err
 	}
 	for k, name := range names {
-		sf, err := ReadStrain(StrainPath(dir, name))
-		if err != nil {
-			return nil, err
+		sf, ok := read[k]
+		if !ok {
+			if sf, err = ReadStrain(StrainPath(dir, name)); err != nil {
+				return nil, err
+			}
 		}
+		delete(read, k)
 		df, err := ReadField(FieldPath(dir, name))
 		if err != nil {
 			return nil, err
