@@ -15,12 +15,16 @@ func newClusterCmd() *cobra.Command {
 	root := &cobra.Command{
 		Use:   "cluster",
 		Short: "Run a campaign as a batch-cluster array job: submit, status, merge",
-		Long: `cluster runs a campaign on a Slurm cluster as an array job, one task per share
-of the tests; every task runs 'spallscope batch CAMPAIGN --shard i/n' into one
-output folder that all nodes share. 'status' tells which tests are done,
-failed or pending from the run folders; 'merge' writes the campaign summary
-once every test is done. Resubmitting reruns only what is missing or failed
-(finished stages of a test are skipped, interrupted tracking resumes).`,
+		Long: `cluster runs a campaign on a Slurm cluster as an array job. The campaign is
+divided into units — a whole test, or with --frames-per-task one frame range of
+a long test's tracking — and task i of n runs the units k with k mod n = i,
+as 'spallscope batch CAMPAIGN --shard i/n' into one output folder that all
+nodes share. 'status' tells which units are done, failed or pending from the
+run folders (and what squeue/sacct say, where present); 'merge' assembles the
+frame parts, runs their tests' strain, zones and outputs, and writes the
+campaign summary once every test is done. Submitting again submits only the
+tasks with a unit not done (finished stages are skipped, interrupted tracking
+resumes).`,
 	}
 	outFor := func(c *testconfig.Campaign, out string) string {
 		if out == "" {
@@ -31,35 +35,89 @@ once every test is done. Resubmitting reruns only what is missing or failed
 		}
 		return out
 	}
+	// planFor is the submitted plan in out, else the plan of whole tests.
+	planFor := func(c *testconfig.Campaign, out string, tasks int) (*cluster.Plan, error) {
+		p, err := cluster.ReadPlan(out)
+		if p != nil || err != nil {
+			return p, err
+		}
+		return cluster.NewPlan(c, 0, tasks)
+	}
+	tool := "spallscope " + version
 	var (
-		out    string
-		tasks  int
-		dryRun bool
-		opt    cluster.SubmitOptions
+		out           string
+		tasks, frames int
+		dryRun, all   bool
+		opt           cluster.SubmitOptions
 	)
 	submit := &cobra.Command{
-		Use:   "submit CAMPAIGN.yaml [--tasks N] [--partition P --cpus-per-task N --mem M --time T --max-parallel K] [--dry-run]",
+		Use:   "submit CAMPAIGN.yaml [--tasks N] [--frames-per-task F] [--partition P --cpus-per-task N --mem M --time T --max-parallel K] [--dry-run] [--all]",
 		Short: "Write the sbatch array script into the output folder and submit it",
-		Args:  cobra.ExactArgs(1),
+		Long: `submit divides the campaign into units of work, writes the plan
+(cluster-plan.json) and an sbatch array script (campaign.sbatch) into the
+output folder, and hands the script to sbatch.
+
+--frames-per-task F tracks each test with more than F frames in frame parts of
+at most F frames, one unit each, so several nodes track one long sequence.
+This needs the fixed reference: every frame is correlated against the same
+reference, so a part needs nothing from the frames before it, and a part's
+first frame starts from the integer ZNCC search at the seed points, as the
+first frame of a whole run does. Results then equal a whole run's to within
+IC-GN's stopping tolerance (1e-3 px), not to the last digit. A test with the
+incremental reference is refused; tests with several faces run whole.
+
+Submitting again with the same plan submits only the tasks that have a unit
+not done and are not queued or running; --all submits every task.`,
+		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			c, err := testconfig.ReadCampaign(args[0])
 			if err != nil {
 				return err
 			}
 			o := outFor(c, out)
-			if tasks <= 0 || tasks > len(c.Tests) {
-				tasks = len(c.Tests)
+			plan, err := cluster.NewPlan(c, frames, tasks)
+			if err != nil {
+				return err
 			}
 			if w := cluster.SharedWarning(o); w != "" {
 				fmt.Fprintln(cmd.ErrOrStderr(), w)
 			}
+			var run []int // nil: every task
+			if old, err := cluster.ReadPlan(o); err != nil {
+				return err
+			} else if old != nil && old.Equal(plan) && !all {
+				if run, err = cluster.Unfinished(plan, o, tool); err != nil {
+					return err
+				}
+				queue := cluster.Queue(c.Name)
+				var left []int
+				for _, k := range run {
+					if cluster.Queued(queue[k]) {
+						fmt.Fprintf(cmd.ErrOrStderr(), "task %d is %s; not submitted again\n", k, queue[k])
+						continue
+					}
+					left = append(left, k)
+				}
+				if run = left; len(run) == 0 {
+					fmt.Fprintf(cmd.OutOrStdout(), "nothing to submit: every task of %s is done or queued; run spallscope cluster merge\n", c.Name)
+					return nil
+				}
+			}
+			if err := cluster.WritePlan(o, plan); err != nil {
+				return err
+			}
 			campaign, _ := filepath.Abs(args[0])
-			script, err := cluster.WriteScript(c.Name, campaign, o, tasks, opt)
+			script, err := cluster.WriteScript(plan, campaign, o, run, opt)
 			if err != nil {
 				return err
 			}
-			fmt.Fprintf(cmd.OutOrStdout(), "array script: %s (%d tasks for %d tests)\n", script, tasks, len(c.Tests))
-			if dryRun {
+			n := plan.Tasks
+			if run != nil {
+				n = len(run)
+			}
+			fmt.Fprintf(cmd.OutOrStdout(), "array script: %s (%d units of %d tests over %d tasks; submitting tasks %s)\n",
+				script, len(plan.Units), len(c.Tests), plan.Tasks, cluster.ArraySpec(run, plan.Tasks))
+			if dryRun || n == 0 {
 				return nil
 			}
 			id, err := cluster.Submit(script)
@@ -71,8 +129,10 @@ once every test is done. Resubmitting reruns only what is missing or failed
 		},
 	}
 	submit.Flags().StringVar(&out, "out", "", "shared output folder (default: the campaign's)")
-	submit.Flags().IntVar(&tasks, "tasks", 0, "array tasks (default: one per test)")
-	submit.Flags().BoolVar(&dryRun, "dry-run", false, "write the script, do not submit")
+	submit.Flags().IntVar(&tasks, "tasks", 0, "array tasks (default: one per unit)")
+	submit.Flags().IntVar(&frames, "frames-per-task", 0, "track tests longer than this many frames in frame parts (fixed reference only)")
+	submit.Flags().BoolVar(&dryRun, "dry-run", false, "write the plan and the script, do not submit")
+	submit.Flags().BoolVar(&all, "all", false, "submit every task, not only those with a unit not done")
 	submit.Flags().StringVar(&opt.Partition, "partition", "", "Slurm partition")
 	submit.Flags().IntVar(&opt.CPUsPerTask, "cpus-per-task", 2, "CPUs per task")
 	submit.Flags().StringVar(&opt.Mem, "mem", "", "memory per task, e.g. 8G")
@@ -84,43 +144,65 @@ once every test is done. Resubmitting reruns only what is missing or failed
 	var statusTasks int
 	status := &cobra.Command{
 		Use:   "status CAMPAIGN.yaml [--out DIR] [--tasks N]",
-		Short: "List which tests are done, failed or pending",
+		Short: "List which units of work are done, failed or pending",
 		Args:  cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			c, err := testconfig.ReadCampaign(args[0])
 			if err != nil {
 				return err
 			}
-			if statusTasks <= 0 {
-				statusTasks = len(c.Tests)
-			}
-			states, err := cluster.Status(c, outFor(c, statusOut), statusTasks)
+			o := outFor(c, statusOut)
+			plan, err := planFor(c, o, statusTasks)
 			if err != nil {
 				return err
 			}
+			states, err := cluster.Status(plan, o)
+			if err != nil {
+				return err
+			}
+			queue := cluster.Queue(c.Name)
 			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
-			fmt.Fprintln(w, "test\ttask\tstate\terror")
+			fmt.Fprintln(w, "test\tframes\ttask\tstate\tscheduler\terror")
 			for _, s := range states {
-				fmt.Fprintf(w, "%s\t%d\t%s\t%s\n", s.Test, s.Task, s.State, s.Error)
+				frames, q := "all", queue[s.Task]
+				if s.Part != nil {
+					frames = fmt.Sprintf("%d-%d", s.Part.From, s.Part.To-1)
+				}
+				if q == "" {
+					q = "-"
+				}
+				fmt.Fprintf(w, "%s\t%s\t%d\t%s\t%s\t%s\n", s.Test, frames, s.Task, s.State, q, s.Error)
 			}
 			return w.Flush()
 		},
 	}
 	status.Flags().StringVar(&statusOut, "out", "", "shared output folder (default: the campaign's)")
-	status.Flags().IntVar(&statusTasks, "tasks", 0, "array tasks the campaign was submitted with (default: one per test)")
+	status.Flags().IntVar(&statusTasks, "tasks", 0, "array tasks, when the campaign was not submitted with 'cluster submit' (default: one per test)")
 
 	var mergeOut string
 	merge := &cobra.Command{
 		Use:   "merge CAMPAIGN.yaml [--out DIR]",
-		Short: "Write the campaign summary from the finished run folders",
-		Args:  cobra.ExactArgs(1),
+		Short: "Assemble frame parts, finish their tests and write the campaign summary",
+		Long: `merge makes every test whose units are all done a complete run folder: a test
+tracked in frame parts gets its fields from the parts and then its strain,
+zones, onsets, renders and report, here. When every test is done it writes
+the campaign summary (summary.csv, summary.html); otherwise it lists the tests
+not done and why, and writes no summary.`,
+		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			c, err := testconfig.ReadCampaign(args[0])
 			if err != nil {
 				return err
 			}
 			o := outFor(c, mergeOut)
-			results, err := cluster.Merge(c, o)
+			plan, err := planFor(c, o, 0)
+			if err != nil {
+				return err
+			}
+			bars := newStageLines(cmd)
+			bars.tests = len(c.Tests)
+			results, err := cluster.Merge(c, plan, o, tool, bars.update)
+			bars.finish()
 			if err != nil {
 				return err
 			}

@@ -2,11 +2,27 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"spallscope/dic/runfolder"
 )
+
+// hasRow reports whether a table printed by tabwriter has a row starting
+// with the given cells.
+func hasRow(table string, cells []string) bool {
+	for _, line := range strings.Split(table, "\n") {
+		f := strings.Fields(line)
+		if len(f) >= len(cells) && strings.Join(f[:len(cells)], " ") == strings.Join(cells, " ") {
+			return true
+		}
+	}
+	return false
+}
 
 // The array script asks Slurm for one task per test with the resources
 // given, and runs each task's share with batch --shard (sbatch directives
@@ -58,9 +74,9 @@ func TestShardStatusMerge(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{"band   0     done", "band2  1     pending", "band3  0     failed"} {
-		if !strings.Contains(msg, want) {
-			t.Errorf("status lacks %q:\n%s", want, msg)
+	for _, want := range [][]string{{"band", "all", "0", "done"}, {"band2", "all", "1", "pending"}, {"band3", "all", "0", "failed"}} {
+		if !hasRow(msg, want) {
+			t.Errorf("status lacks a row %q:\n%s", want, msg)
 		}
 	}
 	if _, err := run(t, "cluster", "merge", camp, "--out", out); err == nil || !strings.Contains(err.Error(), "band2 (pending)") || !strings.Contains(err.Error(), "band3 (failed)") {
@@ -90,4 +106,157 @@ func TestShardStatusMerge(t *testing.T) {
 	if len(a) == 0 || !bytes.Equal(a, b) {
 		t.Errorf("merged summary differs from the one-machine summary:\n%s\n---\n%s", a, b)
 	}
+}
+
+// A test tracked in frame parts on two tasks, merged, equals the same
+// test run whole on one machine: the same frames and points, displacements
+// within IC-GN's stopping tolerance — a part's first frame starts from the
+// seed search instead of the previous frame's solution, and IC-GN stops
+// once an update moves the subset corners by less than 1e-3 px (our
+// convergence rule, common practice, no source) — and the same onsets.
+// A test with the incremental reference is refused frame parts.
+func TestFrameParts(t *testing.T) {
+	cfg := bandTest(t, "outputs: {overlays: false}\n")
+	dir := filepath.Dir(cfg)
+	data, _ := os.ReadFile(cfg)
+	os.WriteFile(filepath.Join(dir, "band2.yaml"), []byte(strings.Replace(string(data), "name: band", "name: band2", 1)), 0o644)
+	camp := filepath.Join(dir, "campaign.yaml")
+	os.WriteFile(camp, []byte("name: trial\ntests: [band.yaml, band2.yaml]\n"), 0o644)
+	out := filepath.Join(t.TempDir(), "runs")
+
+	// 14 frames, at most 8 per task: each test in two parts of 7.
+	msg, err := run(t, "cluster", "submit", camp, "--out", out, "--frames-per-task", "8", "--dry-run")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(msg, "4 units of 2 tests over 4 tasks") {
+		t.Errorf("submit: %s", msg)
+	}
+	script, _ := os.ReadFile(filepath.Join(out, "campaign.sbatch"))
+	if !strings.Contains(string(script), "--frames-per-task 8") || !strings.Contains(string(script), "#SBATCH --array=0-3") {
+		t.Errorf("script:\n%s", script)
+	}
+	// A shard planned otherwise than the campaign's plan is refused.
+	if _, err := run(t, "batch", camp, "--out", out, "--shard", "0/2"); err == nil || !strings.Contains(err.Error(), "differs") {
+		t.Errorf("shard with another plan: %v", err)
+	}
+	for _, shard := range []string{"3/4", "0/4", "2/4"} {
+		if _, err := run(t, "batch", camp, "--out", out, "--shard", shard, "--frames-per-task", "8"); err != nil {
+			t.Fatalf("shard %s: %v", shard, err)
+		}
+	}
+	msg, _ = run(t, "cluster", "status", camp, "--out", out)
+	for _, want := range [][]string{{"band", "0-6", "0", "done"}, {"band", "7-13", "1", "pending"}, {"band2", "7-13", "3", "done"}} {
+		if !hasRow(msg, want) {
+			t.Errorf("status lacks a row %q:\n%s", want, msg)
+		}
+	}
+	// Resubmission runs only task 1.
+	if msg, err = run(t, "cluster", "submit", camp, "--out", out, "--frames-per-task", "8", "--dry-run"); err != nil {
+		t.Fatal(err)
+	}
+	if script, _ = os.ReadFile(filepath.Join(out, "campaign.sbatch")); !strings.Contains(string(script), "#SBATCH --array=1\n") {
+		t.Errorf("resubmission script:\n%s", script)
+	}
+	// Merge assembles band2, refuses the campaign summary for band.
+	if _, err := run(t, "cluster", "merge", camp, "--out", out); err == nil || !strings.Contains(err.Error(), "band (part 2/2 (frames 7–13) pending)") {
+		t.Errorf("merge with a part missing: %v", err)
+	}
+	if _, err := os.Stat(filepath.Join(out, "summary.csv")); err == nil {
+		t.Error("merge of an incomplete campaign wrote a summary")
+	}
+	if _, err := os.Stat(filepath.Join(out, "band2", runfolder.OnsetJSON)); err != nil {
+		t.Errorf("band2 was not assembled: %v", err)
+	}
+	if _, err := run(t, "batch", camp, "--out", out, "--shard", "1/4", "--frames-per-task", "8"); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := run(t, "cluster", "merge", camp, "--out", out); err != nil {
+		t.Fatal(err)
+	}
+
+	one := filepath.Join(t.TempDir(), "one")
+	if _, err := run(t, "batch", camp, "--out", one); err != nil {
+		t.Fatal(err)
+	}
+	for _, test := range []string{"band", "band2"} {
+		a, b := filepath.Join(out, test), filepath.Join(one, test)
+		worst, compared := 0.0, 0
+		for i := 0; i < 14; i++ {
+			name := frameName(t, b, i)
+			fa, err := runfolder.ReadField(runfolder.FieldPath(a, name))
+			if err != nil {
+				t.Fatal(err)
+			}
+			fb, err := runfolder.ReadField(runfolder.FieldPath(b, name))
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(fa.Points) != len(fb.Points) {
+				t.Fatalf("%s frame %s: %d points, whole run %d", test, name, len(fa.Points), len(fb.Points))
+			}
+			for k := range fa.Points {
+				pa, pb := &fa.Points[k], &fb.Points[k]
+				if pa.Status != pb.Status {
+					t.Errorf("%s frame %s point (%d,%d): %s, whole run %s", test, name, pa.X, pa.Y, pa.Status, pb.Status)
+					continue
+				}
+				if !pa.Valid() {
+					continue
+				}
+				ua, va := pa.U()
+				ub, vb := pb.U()
+				worst = math.Max(worst, math.Max(math.Abs(ua-ub), math.Abs(va-vb)))
+				compared++
+			}
+		}
+		if worst > 2e-3 || compared == 0 {
+			t.Errorf("%s: %d displacements, worst difference from the whole run %.2g px, want ≤ 2e-3", test, compared, worst)
+		}
+		t.Logf("%s: %d displacements, worst difference from the whole run %.2g px", test, compared, worst)
+		oa, ob := onsetFrames(t, a), onsetFrames(t, b)
+		if oa != ob || oa == "" {
+			t.Errorf("%s onsets %q, whole run %q", test, oa, ob)
+		}
+	}
+	// At the summary's precision (4 decimals of a px) the two agree.
+	sa, _ := os.ReadFile(filepath.Join(out, "summary.csv"))
+	sb, _ := os.ReadFile(filepath.Join(one, "summary.csv"))
+	if len(sa) == 0 || !bytes.Equal(sa, sb) {
+		t.Errorf("merged summary differs from the one-machine summary:\n%s\n---\n%s", sa, sb)
+	}
+
+	// The incremental reference cannot be split.
+	os.WriteFile(filepath.Join(dir, "band3.yaml"), []byte(strings.Replace(strings.Replace(string(data), "name: band", "name: band3", 1),
+		"correlation: {subset: 21, step: 5}", "correlation: {subset: 21, step: 5, reference: incremental}", 1)), 0o644)
+	os.WriteFile(camp, []byte("name: trial\ntests: [band.yaml, band3.yaml]\n"), 0o644)
+	if _, err := run(t, "cluster", "submit", camp, "--out", out, "--frames-per-task", "8", "--dry-run"); err == nil || !strings.Contains(err.Error(), "band3 uses the incremental reference") {
+		t.Errorf("frame parts of an incremental test: %v", err)
+	}
+}
+
+func frameName(t *testing.T, dir string, i int) string {
+	t.Helper()
+	var tr runfolder.TrackRecord
+	if err := runfolder.Section(dir, "track", &tr); err != nil || i >= len(tr.Frames) {
+		t.Fatalf("%s: track record: %v", dir, err)
+	}
+	return tr.Frames[i]
+}
+
+func onsetFrames(t *testing.T, dir string) string {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join(dir, runfolder.OnsetJSON))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rep runfolder.OnsetReport
+	if err := json.Unmarshal(b, &rep); err != nil {
+		t.Fatal(err)
+	}
+	var s []string
+	for _, o := range rep.Onsets {
+		s = append(s, o.OpeningName+"/"+string(o.Sector)+"/"+string(o.Indicator)+"@"+o.Name)
+	}
+	return strings.Join(s, ",")
 }

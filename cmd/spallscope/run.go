@@ -73,8 +73,8 @@ func printSummary(cmd *cobra.Command, s *testrun.Summary) {
 
 func newBatchCmd() *cobra.Command {
 	var (
-		out, shardFlag   string
-		jobs, shardCount int
+		out, shardFlag           string
+		jobs, shardCount, frames int
 	)
 	cmd := &cobra.Command{
 		Use:   "batch CAMPAIGN.yaml|FOLDER [--jobs N] [--out DIR] [--shard i/n]",
@@ -92,7 +92,9 @@ Shards: with --shard i/n (or inside a Slurm array task, SLURM_ARRAY_TASK_ID
 of SLURM_ARRAY_TASK_COUNT; or a Kubernetes Indexed Job's
 JOB_COMPLETION_INDEX with --shard-count) only the tests whose index modulo n
 is i run, and no summary is written: 'spallscope cluster merge' assembles it
-once every task is done.`,
+once every task is done. With --frames-per-task F (as 'cluster submit' writes
+it) the shard's units follow the campaign's plan: tests with more than F
+frames are tracked in frame parts, and merge finishes them.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			c, err := testconfig.ReadCampaign(args[0])
@@ -115,9 +117,37 @@ once every task is done.`,
 				}
 				sharded = shard.N > 1
 			}
+			if frames > 0 && !sharded {
+				return fmt.Errorf("--frames-per-task divides tests over the tasks of an array job: give --shard i/n too (or use 'spallscope cluster submit')")
+			}
+			tool := "spallscope " + version
+			include := shard.Has
+			var parts []cluster.Unit
+			if sharded {
+				plan, err := cluster.NewPlan(c, frames, shard.N)
+				if err != nil {
+					return err
+				}
+				if plan.Tasks != shard.N {
+					return fmt.Errorf("shard %d/%d: the campaign has only %d units of work", shard.I, shard.N, plan.Tasks)
+				}
+				if err := cluster.CheckPlan(out, plan); err != nil {
+					return fmt.Errorf("shard %d/%d: %w", shard.I, shard.N, err)
+				}
+				whole := map[string]bool{}
+				for _, u := range plan.Task(shard.I) {
+					if u.Part == nil {
+						whole[u.Config] = true
+					} else {
+						parts = append(parts, u)
+					}
+				}
+				include = func(k int) bool { return whole[c.Tests[k]] }
+			}
 			bars := newStageLines(cmd)
 			bars.tests = len(c.Tests)
-			results := testrun.RunCampaign(c, out, "spallscope "+version, jobs, shard.Has, bars.update)
+			results := testrun.RunCampaign(c, out, tool, jobs, include, bars.update)
+			partErrs := runParts(parts, out, tool, bars.update)
 			bars.finish()
 			if !sharded {
 				if err := testrun.WriteCampaignSummary(out, c.Name, results); err != nil {
@@ -133,13 +163,21 @@ once every task is done.`,
 					printSummary(cmd, r.Summary)
 				}
 			}
+			for _, e := range partErrs {
+				failed++
+				fmt.Fprintln(cmd.ErrOrStderr(), e)
+			}
 			where := filepath.Join(out, "summary.html")
 			if sharded {
 				where = fmt.Sprintf("(shard %d/%d: no summary; run spallscope cluster merge)", shard.I, shard.N)
 			}
-			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d tests, %d failed; summary %s\n", c.Name, len(results), failed, where)
+			units, what := len(results)+len(parts), "tests"
+			if len(parts) > 0 {
+				what = "units (tests and frame parts)"
+			}
+			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d %s, %d failed; summary %s\n", c.Name, units, what, failed, where)
 			if failed > 0 {
-				return fmt.Errorf("%d of %d tests failed", failed, len(results))
+				return fmt.Errorf("%d of %d %s failed", failed, units, what)
 			}
 			return nil
 		},
@@ -148,5 +186,21 @@ once every task is done.`,
 	cmd.Flags().IntVar(&jobs, "jobs", 0, "tests at once (default: the campaign's jobs, else 1)")
 	cmd.Flags().StringVar(&shardFlag, "shard", "", "run only share i of n of the tests (i/n); the summary is left to 'cluster merge'")
 	cmd.Flags().IntVar(&shardCount, "shard-count", 0, "number of shards when the index comes from JOB_COMPLETION_INDEX")
+	cmd.Flags().IntVar(&frames, "frames-per-task", 0, "with --shard: track tests longer than this in frame parts (as planned by 'cluster submit')")
 	return cmd
+}
+
+// runParts tracks the frame parts of a shard one after the other, each
+// into its test's run folder under out, and returns their errors.
+func runParts(units []cluster.Unit, out, tool string, progress testrun.CampaignProgress) []error {
+	var errs []error
+	for _, u := range units {
+		label := u.Test + " " + u.Part.String()
+		err := testrun.TrackPart(u.Config, filepath.Join(out, u.Test), tool, *u.Part,
+			func(stage string, done, total int) { progress(label, stage, done, total) })
+		if err != nil {
+			errs = append(errs, fmt.Errorf("%s: %w", u, err))
+		}
+	}
+	return errs
 }

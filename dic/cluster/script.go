@@ -2,6 +2,7 @@ package cluster
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 )
 
@@ -15,11 +16,13 @@ type SubmitOptions struct {
 	Binary      string // the spallscope binary the nodes run
 }
 
-// Script returns an sbatch array script for a campaign of tests tasks:
-// task i runs `spallscope batch CAMPAIGN --shard i/tasks`, so each task
-// runs its share of the tests into the campaign's shared output folder.
-// The script is meant to be read and reused by hand.
-func Script(name, campaign, out string, tasks int, opt SubmitOptions) string {
+// Script returns an sbatch array script for plan p of the campaign file
+// campaign with output folder out: task i runs `spallscope batch CAMPAIGN
+// --shard i/p.Tasks` (with the plan's --frames-per-task), so each task
+// runs its units into the shared output folder. tasks lists the array
+// indices to run (nil: all of them), for resubmitting only what is not
+// done. The script is meant to be read and reused by hand.
+func Script(p *Plan, campaign, out string, tasks []int, opt SubmitOptions) string {
 	if opt.CPUsPerTask == 0 {
 		opt.CPUsPerTask = 2
 	}
@@ -27,11 +30,16 @@ func Script(name, campaign, out string, tasks int, opt SubmitOptions) string {
 		opt.Binary = "spallscope"
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "#!/bin/bash\n# spallscope campaign %s as a Slurm array job: one task per share of the tests.\n", name)
+	fmt.Fprintf(&b, "#!/bin/bash\n# spallscope campaign %s as a Slurm array job: %d units of work over %d tasks.\n", p.Campaign, len(p.Units), p.Tasks)
+	b.WriteString("# Task i runs the units k with k mod tasks = i (listed in " + PlanFile + ").\n")
+	if p.FramesPerTask > 0 {
+		fmt.Fprintf(&b, "# Tests with more than %d frames are tracked in frame parts; 'spallscope cluster merge'\n# assembles them and runs their strain, zones and outputs.\n", p.FramesPerTask)
+	}
 	b.WriteString("# The campaign and output folders must be on a file system every node shares;\n")
 	b.WriteString("# nodes need the OpenCV runtime libraries (or the bundle from `make bundle`).\n")
-	fmt.Fprintf(&b, "#SBATCH --job-name=spallscope-%s\n", name)
-	array := fmt.Sprintf("0-%d", tasks-1)
+	b.WriteString("# Resubmit with `spallscope cluster submit` to run only the tasks not done.\n")
+	fmt.Fprintf(&b, "#SBATCH --job-name=%s\n", JobName(p.Campaign))
+	array := ArraySpec(tasks, p.Tasks)
 	if opt.MaxParallel > 0 {
 		array += fmt.Sprintf("%%%d", opt.MaxParallel)
 	}
@@ -49,6 +57,35 @@ func Script(name, campaign, out string, tasks int, opt SubmitOptions) string {
 	fmt.Fprintf(&b, "#SBATCH --output=%s/slurm-%%A_%%a.log\n", out)
 	b.WriteString("set -euo pipefail\n")
 	b.WriteString("export GOMAXPROCS=\"${SLURM_CPUS_PER_TASK:-1}\"\n")
-	fmt.Fprintf(&b, "exec %s batch %q --out %q --shard \"${SLURM_ARRAY_TASK_ID}/%d\"\n", opt.Binary, campaign, out, tasks)
+	fmt.Fprintf(&b, "exec %s batch %q --out %q --shard \"${SLURM_ARRAY_TASK_ID}/%d\"", opt.Binary, campaign, out, p.Tasks)
+	if p.FramesPerTask > 0 {
+		fmt.Fprintf(&b, " --frames-per-task %d", p.FramesPerTask)
+	}
+	b.WriteString("\n")
 	return b.String()
+}
+
+// JobName is the Slurm job name of a campaign's array job.
+func JobName(campaign string) string { return "spallscope-" + campaign }
+
+// ArraySpec writes task indices (sorted) as an sbatch --array list with
+// ranges, "0,2-4"; nil means all of 0…n−1.
+func ArraySpec(tasks []int, n int) string {
+	if tasks == nil {
+		return fmt.Sprintf("0-%d", n-1)
+	}
+	var parts []string
+	for i := 0; i < len(tasks); {
+		j := i
+		for j+1 < len(tasks) && tasks[j+1] == tasks[j]+1 {
+			j++
+		}
+		if j == i {
+			parts = append(parts, strconv.Itoa(tasks[i]))
+		} else {
+			parts = append(parts, fmt.Sprintf("%d-%d", tasks[i], tasks[j]))
+		}
+		i = j + 1
+	}
+	return strings.Join(parts, ",")
 }

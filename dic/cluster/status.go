@@ -5,13 +5,14 @@ import (
 	"fmt"
 	"io/fs"
 	"path/filepath"
+	"slices"
 	"strings"
 
 	"spallscope/dic/testconfig"
 	"spallscope/dic/testrun"
 )
 
-// State of one test of a campaign on the cluster.
+// State of one unit of a campaign on the cluster.
 type State string
 
 const (
@@ -20,63 +21,167 @@ const (
 	Pending State = "pending" // not finished: waiting, running, or its task died
 )
 
-// TestState is one test's state and the task that runs it.
-type TestState struct {
-	Test  string `json:"test"`
+// UnitState is one unit's state and the task that runs it.
+type UnitState struct {
+	Unit
 	Task  int    `json:"task"`
 	State State  `json:"state"`
 	Error string `json:"error,omitempty"`
 }
 
-// Status reads the outcome of every test of campaign c from the run
-// folders under out, for an array of tasks tasks.
-func Status(c *testconfig.Campaign, out string, tasks int) ([]TestState, error) {
-	if tasks < 1 {
-		tasks = 1
-	}
-	var states []TestState
-	for k, cfg := range c.Tests {
-		st := TestState{Test: testrun.TestName(cfg), Task: k % tasks}
-		o, err := testrun.ReadOutcome(out, cfg)
+// Status reads the outcome of every unit of plan p from the run folders
+// under out: a whole test's outcome.json, a frame part's record.
+func Status(p *Plan, out string) ([]UnitState, error) {
+	var states []UnitState
+	for k, u := range p.Units {
+		st := UnitState{Unit: u, Task: k % p.Tasks}
+		var ok bool
+		var msg string
+		var err error
+		if u.Part == nil {
+			var o testrun.Outcome
+			o, err = testrun.ReadOutcome(out, u.Config)
+			ok, msg = o.OK, o.Error
+		} else {
+			var r testrun.PartRecord
+			r, err = testrun.ReadPartRecord(filepath.Join(out, u.Test), *u.Part)
+			ok, msg = r.OK, r.Error
+		}
 		switch {
 		case errors.Is(err, fs.ErrNotExist):
 			st.State = Pending
 		case err != nil:
 			return nil, err
-		case o.OK:
+		case ok:
 			st.State = Done
 		default:
-			st.State, st.Error = Failed, o.Error
+			st.State, st.Error = Failed, msg
 		}
 		states = append(states, st)
 	}
 	return states, nil
 }
 
-// Merge writes the campaign summary (summary.csv and summary.html in out)
-// from the finished run folders. A campaign with a test not done yet is
-// refused with the list of those tests, and nothing is written.
-func Merge(c *testconfig.Campaign, out string) ([]testrun.Result, error) {
-	states, err := Status(c, out, 1)
+// Unfinished returns the tasks of plan p that have a unit not done: the
+// tasks a resubmission must run. A frame part tracked with other inputs
+// or settings than the test has now (tool is the program and version, as
+// in the records) counts as not done.
+func Unfinished(p *Plan, out, tool string) ([]int, error) {
+	states, err := Status(p, out)
 	if err != nil {
 		return nil, err
 	}
-	var missing []string
+	current := map[string]string{} // test → track fingerprint now
+	seen := map[int]bool{}
+	var tasks []int
 	for _, s := range states {
-		if s.State != Done {
-			missing = append(missing, fmt.Sprintf("%s (%s)", s.Test, s.State))
+		done := s.State == Done
+		if done && s.Part != nil {
+			fp, ok := current[s.Test]
+			if !ok {
+				t, err := testconfig.Read(s.Config)
+				if err == nil {
+					fp, err = testrun.TrackFingerprint(t, tool)
+				}
+				if err != nil {
+					fp = ""
+				}
+				current[s.Test] = fp
+			}
+			r, _ := testrun.ReadPartRecord(filepath.Join(out, s.Test), *s.Part)
+			done = fp != "" && r.Fingerprint == fp
 		}
+		if !done && !seen[s.Task] {
+			seen[s.Task] = true
+			tasks = append(tasks, s.Task)
+		}
+	}
+	slices.Sort(tasks)
+	return tasks, nil
+}
+
+// Merge makes every test of campaign c whose units are all done a complete
+// run folder under out — a test tracked in frame parts is assembled from
+// them and its strain, zones and outputs run here (progress may be nil) —
+// then writes the campaign summary (summary.csv and summary.html in out).
+// While a test is not done, the others are still assembled, but no summary
+// is written and the error lists the tests that are missing with why.
+func Merge(c *testconfig.Campaign, p *Plan, out, tool string, progress testrun.CampaignProgress) ([]testrun.Result, error) {
+	states, err := Status(p, out)
+	if err != nil {
+		return nil, err
+	}
+	byTest := map[string][]UnitState{}
+	for _, s := range states {
+		byTest[s.Test] = append(byTest[s.Test], s)
+	}
+	var missing []string
+	var results []testrun.Result
+	for _, path := range c.Tests {
+		name := testrun.TestName(path)
+		us := byTest[name]
+		var notDone []string
+		for _, s := range us {
+			if s.State != Done {
+				what := string(s.State)
+				if s.Part != nil {
+					what = s.Part.String() + " " + what
+				}
+				notDone = append(notDone, what)
+			}
+		}
+		if len(us) == 0 {
+			notDone = append(notDone, "not in the plan: submit again")
+		}
+		if len(notDone) > 0 {
+			missing = append(missing, fmt.Sprintf("%s (%s)", name, strings.Join(notDone, ", ")))
+			continue
+		}
+		if us[0].Part != nil {
+			r := assemble(path, out, tool, p.Parts(name), progress)
+			if err := testrun.WriteOutcome(out, r); err != nil && r.Err == "" {
+				r.Err = err.Error()
+			}
+			if r.Err != "" {
+				missing = append(missing, fmt.Sprintf("%s (%s)", name, r.Err))
+				continue
+			}
+		}
+		s, err := testrun.SummaryOf(filepath.Join(out, name))
+		if err != nil {
+			missing = append(missing, fmt.Sprintf("%s (%v)", name, err))
+			continue
+		}
+		results = append(results, testrun.Result{Config: path, Summary: s})
 	}
 	if len(missing) > 0 {
-		return nil, fmt.Errorf("merge: %d of %d tests are not done: %s; nothing written", len(missing), len(states), strings.Join(missing, ", "))
-	}
-	var results []testrun.Result
-	for k, cfg := range c.Tests {
-		s, err := testrun.SummaryOf(filepath.Join(out, states[k].Test))
-		if err != nil {
-			return nil, fmt.Errorf("merge: %s: %w", states[k].Test, err)
-		}
-		results = append(results, testrun.Result{Config: cfg, Summary: s})
+		return nil, fmt.Errorf("merge: %d of %d tests are not done: %s; no campaign summary written", len(missing), len(c.Tests), strings.Join(missing, "; "))
 	}
 	return results, testrun.WriteCampaignSummary(out, c.Name, results)
+}
+
+// assemble joins a test's frame parts and runs the rest of its pipeline.
+func assemble(path, out, tool string, parts []testrun.Part, progress testrun.CampaignProgress) testrun.Result {
+	res := testrun.Result{Config: path}
+	t, err := testconfig.Read(path)
+	if err != nil {
+		res.Err = err.Error()
+		return res
+	}
+	dir := filepath.Join(out, t.Name)
+	if err := testrun.AssembleParts(t, dir, tool, parts); err != nil {
+		res.Err = err.Error()
+		return res
+	}
+	var pr testrun.Progress
+	if progress != nil {
+		pr = func(stage string, done, total int) { progress(t.Name, stage, done, total) }
+	}
+	s, err := testrun.Run(t, dir, tool, pr)
+	if err != nil {
+		res.Err = err.Error()
+		return res
+	}
+	res.Summary = s
+	return res
 }

@@ -1,6 +1,7 @@
 package cluster
 
 import (
+	"bufio"
 	"bytes"
 	"fmt"
 	"os"
@@ -9,21 +10,20 @@ import (
 	"strings"
 
 	"spallscope/dic/runfolder"
-
-	"bufio"
 )
 
 // ScriptFile is the name of the written sbatch script in the output folder.
 const ScriptFile = "campaign.sbatch"
 
-// WriteScript writes the array script into out and returns its path.
-func WriteScript(name, campaign, out string, tasks int, opt SubmitOptions) (string, error) {
+// WriteScript writes the array script of plan p (see Script) into out and
+// returns its path.
+func WriteScript(p *Plan, campaign, out string, tasks []int, opt SubmitOptions) (string, error) {
 	if err := os.MkdirAll(out, 0o755); err != nil {
 		return "", err
 	}
 	path := filepath.Join(out, ScriptFile)
 	err := runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
-		_, err := w.WriteString(Script(name, campaign, out, tasks, opt))
+		_, err := w.WriteString(Script(p, campaign, out, tasks, opt))
 		return err
 	})
 	if err == nil {

@@ -88,39 +88,19 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 		return nil, err
 	}
 
-	// Inputs.
-	var openings []string
-	for _, o := range t.Openings {
-		openings = append(openings, o.Shape)
-	}
-	exclude := append(append([]string{}, openings...), t.Exclude...)
-	in, err := Open(t.Resolve(t.Images), resolveRef(t), t.ROI, exclude, t.Resolve(t.Mask))
-	if err != nil {
-		return nil, fmt.Errorf("test %s: %w", t.Name, err)
-	}
-	defer in.Seq.Close()
-	sum.Frames = in.Seq.Len()
-	settings, err := Correlation(t.Correlation)
-	if err != nil {
-		return nil, fmt.Errorf("test %s: correlation: %w", t.Name, err)
-	}
-	scale, err := Scale(t.Scale)
-	if err != nil {
-		return nil, fmt.Errorf("test %s: %w", t.Name, err)
-	}
-	times, err := Times(in.Seq, t.Resolve(t.Times.CSV), t.Times.FPS, t.Times.MTime)
-	if err != nil {
-		return nil, fmt.Errorf("test %s: %w", t.Name, err)
-	}
-	maskHash, err := fileHash(t.Resolve(t.Mask))
+	tp, err := prepareTrack(t, tool)
 	if err != nil {
 		return nil, err
 	}
-	rr.Hashes["mask"] = maskHash
-	rr.Hashes["images"] = sequenceDigest(in.Seq)
+	defer tp.in.Seq.Close()
+	in, settings, scale, times := tp.in, tp.settings, tp.scale, tp.times
+	for k, v := range tp.hashes {
+		rr.Hashes[k] = v
+	}
+	sum.Frames = in.Seq.Len()
 
 	// Track.
-	fpTrack := fingerprint("track", tool, rr.Hashes["images"], resolveRef(t), t.ROI, exclude, maskHash, settings, scale)
+	fpTrack := tp.fingerprint
 	stageStart := time.Now()
 	if st := stages["track"]; st.Fingerprint == fpTrack && st.Complete {
 		sum.Skipped = append(sum.Skipped, "track")
@@ -154,7 +134,7 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 		if err := runfolder.SetSection(out, "stages", stages); err != nil {
 			return nil, err
 		}
-		rec := runfolder.TrackRecord{Tool: tool, Images: t.Resolve(t.Images), Reference: resolveRef(t), MMPerPx: scale, Times: times, Exclude: exclude}
+		rec := tp.record(t, tool)
 		if _, err := runfolder.Track(out, in.Seq, tracker, rec, from, func(n int, _ *dic.Field) { progress("track", n, in.Seq.Len()) }); err != nil {
 			return nil, fmt.Errorf("test %s: %w", t.Name, err)
 		}

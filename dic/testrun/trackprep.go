@@ -1,0 +1,63 @@
+package testrun
+
+import (
+	"fmt"
+
+	"spallscope/dic"
+	"spallscope/dic/runfolder"
+	"spallscope/dic/testconfig"
+)
+
+// trackInputs is what the track stage of a test needs, opened and checked,
+// with the stage's fingerprint. A whole run and a frame part of a run on a
+// cluster build it the same way, so both agree on when tracking is stale.
+type trackInputs struct {
+	in          *Inputs
+	settings    dic.Settings
+	scale       dic.Scale
+	times       []float64
+	exclude     []string
+	maskHash    string
+	hashes      map[string]string // "mask" and "images", for run.json
+	fingerprint string
+}
+
+// prepareTrack opens test t's photos, reference and mask and reads its
+// correlation, scale and frame-time settings. The caller closes in.Seq.
+func prepareTrack(t *testconfig.Test, tool string) (*trackInputs, error) {
+	tp := &trackInputs{hashes: map[string]string{}}
+	for _, o := range t.Openings {
+		tp.exclude = append(tp.exclude, o.Shape)
+	}
+	tp.exclude = append(tp.exclude, t.Exclude...)
+	var err error
+	tp.in, err = Open(t.Resolve(t.Images), resolveRef(t), t.ROI, tp.exclude, t.Resolve(t.Mask))
+	if err != nil {
+		return nil, fmt.Errorf("test %s: %w", t.Name, err)
+	}
+	fail := func(err error) (*trackInputs, error) {
+		tp.in.Seq.Close()
+		return nil, err
+	}
+	if tp.settings, err = Correlation(t.Correlation); err != nil {
+		return fail(fmt.Errorf("test %s: correlation: %w", t.Name, err))
+	}
+	if tp.scale, err = Scale(t.Scale); err != nil {
+		return fail(fmt.Errorf("test %s: %w", t.Name, err))
+	}
+	if tp.times, err = Times(tp.in.Seq, t.Resolve(t.Times.CSV), t.Times.FPS, t.Times.MTime); err != nil {
+		return fail(fmt.Errorf("test %s: %w", t.Name, err))
+	}
+	if tp.maskHash, err = fileHash(t.Resolve(t.Mask)); err != nil {
+		return fail(err)
+	}
+	tp.hashes["mask"] = tp.maskHash
+	tp.hashes["images"] = sequenceDigest(tp.in.Seq)
+	tp.fingerprint = fingerprint("track", tool, tp.hashes["images"], resolveRef(t), t.ROI, tp.exclude, tp.maskHash, tp.settings, tp.scale)
+	return tp, nil
+}
+
+// record is the start of the track stage's run.json section.
+func (tp *trackInputs) record(t *testconfig.Test, tool string) runfolder.TrackRecord {
+	return runfolder.TrackRecord{Tool: tool, Images: t.Resolve(t.Images), Reference: resolveRef(t), MMPerPx: tp.scale, Times: tp.times, Exclude: tp.exclude}
+}
