@@ -5,7 +5,7 @@ GO      ?= go
 BIN     := bin/spallscope
 DEMO    ?= out/demo
 
-.PHONY: deps build test vet bench demo bundle clean
+.PHONY: deps build test vet bench demo bundle slurm-test clean
 
 deps:
 	./scripts/deps.sh
@@ -28,6 +28,11 @@ demo: build
 
 bundle: build
 	./scripts/bundle.sh
+
+# A real single-host Slurm runs a campaign as an array job (installs
+# slurm-wlm and munge when missing; needs root).
+slurm-test: deps
+	timeout 15m ./scripts/slurm-local-test
 
 clean:
 	rm -rf bin out bundle

@@ -107,15 +107,17 @@ frames are tracked in frame parts, and merge finishes them.`,
 			if out == "" {
 				out = filepath.Join(c.Dir, c.Name+"_runs")
 			}
-			shard, sharded, err := cluster.FromEnv(shardCount)
-			if err != nil {
-				return err
-			}
+			// --shard wins over the environment: a resubmission of some of
+			// the tasks has fewer array tasks than the plan has.
+			var shard cluster.Shard
+			var sharded bool
 			if shardFlag != "" {
 				if shard, err = cluster.ParseShard(shardFlag); err != nil {
 					return err
 				}
 				sharded = shard.N > 1
+			} else if shard, sharded, err = cluster.FromEnv(shardCount); err != nil {
+				return err
 			}
 			if frames > 0 && !sharded {
 				return fmt.Errorf("--frames-per-task divides tests over the tasks of an array job: give --shard i/n too (or use 'spallscope cluster submit')")

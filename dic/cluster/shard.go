@@ -28,6 +28,9 @@ func ParseShard(s string) (Shard, error) {
 // SLURM_ARRAY_TASK_ID and SLURM_ARRAY_TASK_COUNT, or Kubernetes Indexed
 // Jobs' JOB_COMPLETION_INDEX with count (the job's completions, which the
 // environment does not state). It reports false outside an array job.
+// SLURM_ARRAY_TASK_COUNT counts the tasks of this submission, which is
+// fewer than the plan's when only some tasks are resubmitted; the
+// campaign's script therefore passes the count explicitly with --shard.
 func FromEnv(count int) (Shard, bool, error) {
 	if id := os.Getenv("SLURM_ARRAY_TASK_ID"); id != "" {
 		return parseEnv(id, os.Getenv("SLURM_ARRAY_TASK_COUNT"), "SLURM_ARRAY_TASK_ID", "SLURM_ARRAY_TASK_COUNT")
