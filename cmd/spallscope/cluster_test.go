@@ -136,6 +136,10 @@ func TestFrameParts(t *testing.T) {
 	if !strings.Contains(string(script), "--frames-per-task 8") || !strings.Contains(string(script), "#SBATCH --array=0-3") {
 		t.Errorf("script:\n%s", script)
 	}
+	// Frame parts belong to array tasks, not to one machine.
+	if _, err := run(t, "batch", camp, "--out", out, "--frames-per-task", "8"); err == nil || !strings.Contains(err.Error(), "give --shard i/n too") {
+		t.Errorf("frame parts without a shard: %v", err)
+	}
 	// A shard planned otherwise than the campaign's plan is refused.
 	if _, err := run(t, "batch", camp, "--out", out, "--shard", "0/2"); err == nil || !strings.Contains(err.Error(), "differs") {
 		t.Errorf("shard with another plan: %v", err)
