@@ -48,10 +48,11 @@ resumes).`,
 		out           string
 		tasks, frames int
 		dryRun, all   bool
+		mergeJob      bool
 		opt           cluster.SubmitOptions
 	)
 	submit := &cobra.Command{
-		Use:   "submit CAMPAIGN.yaml [--tasks N] [--frames-per-task F] [--partition P --cpus-per-task N --mem M --time T --max-parallel K] [--dry-run] [--all]",
+		Use:   "submit CAMPAIGN.yaml [--tasks N] [--frames-per-task F] [--partition P --cpus-per-task N --mem M --time T --max-parallel K] [--merge-job] [--dry-run] [--all]",
 		Short: "Write the sbatch array script into the output folder and submit it",
 		Long: `submit divides the campaign into units of work, writes the plan
 (cluster-plan.json) and an sbatch array script (campaign.sbatch) into the
@@ -65,6 +66,9 @@ first frame starts from the integer ZNCC search at the seed points, as the
 first frame of a whole run does. Results then equal a whole run's to within
 IC-GN's stopping tolerance (1e-3 px), not to the last digit. A test with the
 incremental reference is refused; tests with several faces run whole.
+
+--merge-job also writes merge.sbatch and submits it to run 'cluster merge' on
+a compute node once the array job has ended, whatever its tasks' outcome.
 
 Submitting again with the same plan submits only the tasks that have a unit
 not done and are not queued or running; --all submits every task.`,
@@ -117,14 +121,32 @@ not done and are not queued or running; --all submits every task.`,
 			}
 			fmt.Fprintf(cmd.OutOrStdout(), "array script: %s (%d units of %d tests over %d tasks; submitting tasks %s)\n",
 				script, len(plan.Units), len(c.Tests), plan.Tasks, cluster.ArraySpec(run, plan.Tasks))
+			var mergeScript string
+			if mergeJob {
+				if mergeScript, err = cluster.WriteMergeScript(plan, campaign, o, opt); err != nil {
+					return err
+				}
+				fmt.Fprintf(cmd.OutOrStdout(), "merge script: %s (runs once the array job has ended)\n", mergeScript)
+			}
 			if dryRun || n == 0 {
 				return nil
 			}
-			id, err := cluster.Submit(script)
+			answer, err := cluster.Submit(script)
 			if err != nil {
 				return err
 			}
-			fmt.Fprintln(cmd.OutOrStdout(), id)
+			fmt.Fprintln(cmd.OutOrStdout(), answer)
+			if mergeJob {
+				job, err := cluster.JobID(answer)
+				if err != nil {
+					return err
+				}
+				answer, err := cluster.SubmitAfter(mergeScript, job)
+				if err != nil {
+					return err
+				}
+				fmt.Fprintf(cmd.OutOrStdout(), "%s (merge, after job %s)\n", answer, job)
+			}
 			return nil
 		},
 	}
@@ -133,6 +155,7 @@ not done and are not queued or running; --all submits every task.`,
 	submit.Flags().IntVar(&frames, "frames-per-task", 0, "track tests longer than this many frames in frame parts (fixed reference only)")
 	submit.Flags().BoolVar(&dryRun, "dry-run", false, "write the plan and the script, do not submit")
 	submit.Flags().BoolVar(&all, "all", false, "submit every task, not only those with a unit not done")
+	submit.Flags().BoolVar(&mergeJob, "merge-job", false, "also submit 'cluster merge' as a job that starts when the array job has ended")
 	submit.Flags().StringVar(&opt.Partition, "partition", "", "Slurm partition")
 	submit.Flags().IntVar(&opt.CPUsPerTask, "cpus-per-task", 2, "CPUs per task")
 	submit.Flags().StringVar(&opt.Mem, "mem", "", "memory per task, e.g. 8G")

@@ -33,8 +33,12 @@ func TestClusterScript(t *testing.T) {
 	camp := filepath.Join(dir, "campaign.yaml")
 	os.WriteFile(camp, []byte("name: trial\ntests: [band.yaml, band.yaml, band.yaml]\n"), 0o644)
 	out := filepath.Join(dir, "runs")
-	if _, err := run(t, "cluster", "submit", camp, "--out", out, "--dry-run", "--partition", "long", "--mem", "8G", "--time", "01:00:00", "--max-parallel", "2"); err != nil {
+	if _, err := run(t, "cluster", "submit", camp, "--out", out, "--dry-run", "--merge-job", "--partition", "long", "--mem", "8G", "--time", "01:00:00", "--max-parallel", "2"); err != nil {
 		t.Fatal(err)
+	}
+	merge, err := os.ReadFile(filepath.Join(out, "merge.sbatch"))
+	if err != nil || !strings.Contains(string(merge), "cluster merge") || !strings.Contains(string(merge), "#SBATCH --partition=long") {
+		t.Errorf("merge script (%v):\n%s", err, merge)
 	}
 	script, err := os.ReadFile(filepath.Join(out, "campaign.sbatch"))
 	if err != nil {

@@ -65,6 +65,40 @@ func Script(p *Plan, campaign, out string, tasks []int, opt SubmitOptions) strin
 	return b.String()
 }
 
+// MergeScript returns an sbatch script that runs `spallscope cluster merge`
+// for the campaign once its array job has ended (submitted with a
+// dependency on it): it assembles frame parts, runs those tests' strain,
+// zones and outputs on a compute node rather than the login node, and
+// writes the campaign summary when every test is done.
+func MergeScript(p *Plan, campaign, out string, opt SubmitOptions) string {
+	if opt.CPUsPerTask == 0 {
+		opt.CPUsPerTask = 2
+	}
+	if opt.Binary == "" {
+		opt.Binary = "spallscope"
+	}
+	var b strings.Builder
+	fmt.Fprintf(&b, "#!/bin/bash\n# spallscope campaign %s: merge once the array job has ended (submitted with\n", p.Campaign)
+	b.WriteString("# --dependency=afterany on it). Merge finishes every test whose units are done and\n")
+	b.WriteString("# writes the campaign summary when all are; it lists what is missing otherwise.\n")
+	fmt.Fprintf(&b, "#SBATCH --job-name=%s-merge\n", JobName(p.Campaign))
+	fmt.Fprintf(&b, "#SBATCH --cpus-per-task=%d\n", opt.CPUsPerTask)
+	if opt.Partition != "" {
+		fmt.Fprintf(&b, "#SBATCH --partition=%s\n", opt.Partition)
+	}
+	if opt.Mem != "" {
+		fmt.Fprintf(&b, "#SBATCH --mem=%s\n", opt.Mem)
+	}
+	if opt.Time != "" {
+		fmt.Fprintf(&b, "#SBATCH --time=%s\n", opt.Time)
+	}
+	fmt.Fprintf(&b, "#SBATCH --output=%s/slurm-merge-%%j.log\n", out)
+	b.WriteString("set -euo pipefail\n")
+	b.WriteString("export GOMAXPROCS=\"${SLURM_CPUS_PER_TASK:-1}\"\n")
+	fmt.Fprintf(&b, "exec %s cluster merge %q --out %q\n", opt.Binary, campaign, out)
+	return b.String()
+}
+
 // JobName is the Slurm job name of a campaign's array job.
 func JobName(campaign string) string { return "spallscope-" + campaign }
 

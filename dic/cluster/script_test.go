@@ -39,3 +39,18 @@ func TestParseQueue(t *testing.T) {
 		t.Errorf("states %v, want %v", states, want)
 	}
 }
+
+// sbatch's answer on success, as Slurm's sbatch documentation shows it.
+func TestJobID(t *testing.T) {
+	for answer, want := range map[string]string{
+		"Submitted batch job 812":                  "812",
+		"Submitted batch job 4409 on cluster rock": "4409",
+	} {
+		if got, err := JobID(answer); err != nil || got != want {
+			t.Errorf("JobID(%q) = %q, %v; want %q", answer, got, err, want)
+		}
+	}
+	if _, err := JobID("sbatch: error: Batch job submission failed"); err == nil {
+		t.Error("JobID of an error message: no error")
+	}
+}

@@ -15,15 +15,30 @@ import (
 // ScriptFile is the name of the written sbatch script in the output folder.
 const ScriptFile = "campaign.sbatch"
 
+// MergeScriptFile is the name of the written merge script (MergeScript).
+const MergeScriptFile = "merge.sbatch"
+
 // WriteScript writes the array script of plan p (see Script) into out and
 // returns its path.
 func WriteScript(p *Plan, campaign, out string, tasks []int, opt SubmitOptions) (string, error) {
 	if err := os.MkdirAll(out, 0o755); err != nil {
 		return "", err
 	}
-	path := filepath.Join(out, ScriptFile)
+	return writeExecutable(filepath.Join(out, ScriptFile), Script(p, campaign, out, tasks, opt))
+}
+
+// WriteMergeScript writes the merge script of plan p (see MergeScript)
+// into out and returns its path.
+func WriteMergeScript(p *Plan, campaign, out string, opt SubmitOptions) (string, error) {
+	if err := os.MkdirAll(out, 0o755); err != nil {
+		return "", err
+	}
+	return writeExecutable(filepath.Join(out, MergeScriptFile), MergeScript(p, campaign, out, opt))
+}
+
+func writeExecutable(path, text string) (string, error) {
 	err := runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
-		_, err := w.WriteString(Script(p, campaign, out, tasks, opt))
+		_, err := w.WriteString(text)
 		return err
 	})
 	if err == nil {
@@ -34,13 +49,43 @@ func WriteScript(p *Plan, campaign, out string, tasks []int, opt SubmitOptions) 
 
 // Submit hands the script to sbatch and returns its answer (the job id
 // line). Without sbatch on PATH it says so; the script stays written.
-func Submit(script string) (string, error) {
+func Submit(script string) (string, error) { return sbatch(script) }
+
+// SubmitAfter submits script to start once job (a job id) has ended,
+// whatever its tasks' outcome (sbatch --dependency=afterany).
+func SubmitAfter(script, job string) (string, error) {
+	return sbatch("--dependency=afterany:"+job, script)
+}
+
+// JobID reads the job id from sbatch's answer "Submitted batch job 812"
+// (on a multi-cluster site: "... job 812 on cluster c").
+func JobID(answer string) (string, error) {
+	f := strings.Fields(answer)
+	for i := 0; i+1 < len(f); i++ {
+		if f[i] == "job" && isDigits(f[i+1]) {
+			return f[i+1], nil
+		}
+	}
+	return "", fmt.Errorf("sbatch answered %q, expected \"Submitted batch job ID\"", answer)
+}
+
+func isDigits(s string) bool {
+	for _, r := range s {
+		if r < '0' || r > '9' {
+			return false
+		}
+	}
+	return s != ""
+}
+
+func sbatch(args ...string) (string, error) {
+	script := args[len(args)-1]
 	bin, err := exec.LookPath("sbatch")
 	if err != nil {
 		return "", fmt.Errorf("submit: sbatch is not on PATH (Slurm's client is missing); the script is written at %s — submit it on a login node, or use --dry-run", script)
 	}
 	var out, errOut bytes.Buffer
-	cmd := exec.Command(bin, script)
+	cmd := exec.Command(bin, args...)
 	cmd.Stdout, cmd.Stderr = &out, &errOut
 	if err := cmd.Run(); err != nil {
 		return "", fmt.Errorf("submit: sbatch %s: %v: %s", script, err, strings.TrimSpace(errOut.String()))
