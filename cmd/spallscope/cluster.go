@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"os"
 	"path/filepath"
 	"text/tabwriter"
 
@@ -25,23 +26,6 @@ frame parts, runs their tests' strain, zones and outputs, and writes the
 campaign summary once every test is done. Submitting again submits only the
 tasks with a unit not done (finished stages are skipped, interrupted tracking
 resumes).`,
-	}
-	outFor := func(c *testconfig.Campaign, out string) string {
-		if out == "" {
-			out = c.Out
-		}
-		if out == "" {
-			out = filepath.Join(c.Dir, c.Name+"_runs")
-		}
-		return out
-	}
-	// planFor is the submitted plan in out, else the plan of whole tests.
-	planFor := func(c *testconfig.Campaign, out string, tasks int) (*cluster.Plan, error) {
-		p, err := cluster.ReadPlan(out)
-		if p != nil || err != nil {
-			return p, err
-		}
-		return cluster.NewPlan(c, 0, tasks)
 	}
 	tool := "spallscope " + version
 	var (
@@ -78,11 +62,12 @@ not done and are not queued or running; --all submits every task.`,
 			if err != nil {
 				return err
 			}
-			o := outFor(c, out)
+			o := campaignOut(c, out)
 			plan, err := cluster.NewPlan(c, frames, tasks)
 			if err != nil {
 				return err
 			}
+			plan.File, _ = filepath.Abs(args[0])
 			if w := cluster.SharedWarning(o); w != "" {
 				fmt.Fprintln(cmd.ErrOrStderr(), w)
 			}
@@ -110,7 +95,7 @@ not done and are not queued or running; --all submits every task.`,
 			if err := cluster.WritePlan(o, plan); err != nil {
 				return err
 			}
-			campaign, _ := filepath.Abs(args[0])
+			campaign := plan.File
 			script, err := cluster.WriteScript(plan, campaign, o, run, opt)
 			if err != nil {
 				return err
@@ -166,16 +151,15 @@ not done and are not queued or running; --all submits every task.`,
 	var statusOut string
 	var statusTasks int
 	status := &cobra.Command{
-		Use:   "status CAMPAIGN.yaml [--out DIR] [--tasks N]",
+		Use:   "status CAMPAIGN.yaml|OUT [--out DIR] [--tasks N]",
 		Short: "List which units of work are done, failed or pending",
-		Args:  cobra.ExactArgs(1),
+		Long: `status lists each unit of work — a whole test or a frame part — with its array
+task and state (done, failed with the error, or pending), read from the run
+folders, and what squeue/sacct say of the task where they are present. Give
+the campaign file, or the output folder of a submitted campaign.`,
+		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			c, err := testconfig.ReadCampaign(args[0])
-			if err != nil {
-				return err
-			}
-			o := outFor(c, statusOut)
-			plan, err := planFor(c, o, statusTasks)
+			c, o, plan, err := openCampaign(args[0], statusOut, statusTasks)
 			if err != nil {
 				return err
 			}
@@ -204,21 +188,17 @@ not done and are not queued or running; --all submits every task.`,
 
 	var mergeOut string
 	merge := &cobra.Command{
-		Use:   "merge CAMPAIGN.yaml [--out DIR]",
+		Use:   "merge CAMPAIGN.yaml|OUT [--out DIR]",
 		Short: "Assemble frame parts, finish their tests and write the campaign summary",
 		Long: `merge makes every test whose units are all done a complete run folder: a test
 tracked in frame parts gets its fields from the parts and then its strain,
 zones, onsets, renders and report, here. When every test is done it writes
 the campaign summary (summary.csv, summary.html); otherwise it lists the tests
-not done and why, and writes no summary.`,
+not done and why, and writes no summary. Give the campaign file, or the output
+folder of a submitted campaign.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			c, err := testconfig.ReadCampaign(args[0])
-			if err != nil {
-				return err
-			}
-			o := outFor(c, mergeOut)
-			plan, err := planFor(c, o, 0)
+			c, o, plan, err := openCampaign(args[0], mergeOut, 0)
 			if err != nil {
 				return err
 			}
@@ -236,4 +216,48 @@ not done and why, and writes no summary.`,
 	merge.Flags().StringVar(&mergeOut, "out", "", "shared output folder (default: the campaign's)")
 	root.AddCommand(submit, status, merge)
 	return root
+}
+
+// campaignOut is the campaign's output folder: out when given, else the
+// campaign's own, else "<name>_runs" beside it.
+func campaignOut(c *testconfig.Campaign, out string) string {
+	if out == "" {
+		out = c.Out
+	}
+	if out == "" {
+		out = filepath.Join(c.Dir, c.Name+"_runs")
+	}
+	return out
+}
+
+// openCampaign reads what status and merge start from: arg is a campaign
+// file (or folder of test configs) with its output folder from out, or
+// the output folder of a submitted campaign, whose plan names the
+// campaign file. Without a submitted plan, the plan is one unit per test
+// over tasks tasks.
+func openCampaign(arg, out string, tasks int) (*testconfig.Campaign, string, *cluster.Plan, error) {
+	if st, err := os.Stat(filepath.Join(arg, cluster.PlanFile)); err == nil && !st.IsDir() {
+		plan, err := cluster.ReadPlan(arg)
+		if err != nil {
+			return nil, "", nil, err
+		}
+		if plan.File == "" {
+			return nil, "", nil, fmt.Errorf("%s names no campaign file: give the campaign file and --out %s", filepath.Join(arg, cluster.PlanFile), arg)
+		}
+		c, err := testconfig.ReadCampaign(plan.File)
+		if err != nil {
+			return nil, "", nil, fmt.Errorf("the campaign of %s: %w", arg, err)
+		}
+		return c, arg, plan, nil
+	}
+	c, err := testconfig.ReadCampaign(arg)
+	if err != nil {
+		return nil, "", nil, err
+	}
+	o := campaignOut(c, out)
+	plan, err := cluster.ReadPlan(o)
+	if plan == nil && err == nil {
+		plan, err = cluster.NewPlan(c, 0, tasks)
+	}
+	return c, o, plan, err
 }

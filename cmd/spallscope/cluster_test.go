@@ -153,7 +153,7 @@ func TestFrameParts(t *testing.T) {
 			t.Fatalf("shard %s: %v", shard, err)
 		}
 	}
-	msg, _ = run(t, "cluster", "status", camp, "--out", out)
+	msg, _ = run(t, "cluster", "status", out) // the output folder names its campaign
 	for _, want := range [][]string{{"band", "0-6", "0", "done"}, {"band", "7-13", "1", "pending"}, {"band2", "7-13", "3", "done"}} {
 		if !hasRow(msg, want) {
 			t.Errorf("status lacks a row %q:\n%s", want, msg)

@@ -101,12 +101,7 @@ frames are tracked in frame parts, and merge finishes them.`,
 			if err != nil {
 				return err
 			}
-			if out == "" {
-				out = c.Out
-			}
-			if out == "" {
-				out = filepath.Join(c.Dir, c.Name+"_runs")
-			}
+			out = campaignOut(c, out)
 			// --shard wins over the environment: a resubmission of some of
 			// the tasks has fewer array tasks than the plan has.
 			var shard cluster.Shard

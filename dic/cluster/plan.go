@@ -39,7 +39,10 @@ func (u Unit) String() string {
 // (when > 0) are tracked in frame parts, one unit per part; the rest of
 // their pipeline (strain, zones, outputs) runs at merge.
 type Plan struct {
-	Campaign      string `json:"campaign"`
+	Campaign string `json:"campaign"`
+	// File is the campaign file (or folder) as submitted, so that status
+	// and merge can start from the output folder alone.
+	File          string `json:"campaign_file,omitempty"`
 	FramesPerTask int    `json:"frames_per_task,omitempty"`
 	Tasks         int    `json:"tasks"`
 	Units         []Unit `json:"units"`
@@ -109,8 +112,13 @@ func (p *Plan) Parts(test string) []testrun.Part {
 	return parts
 }
 
-// Equal reports whether two plans divide the same work the same way.
-func (p *Plan) Equal(q *Plan) bool { return reflect.DeepEqual(p, q) }
+// Equal reports whether two plans divide the same work the same way
+// (wherever the campaign file was named from).
+func (p *Plan) Equal(q *Plan) bool {
+	a, b := *p, *q
+	a.File, b.File = "", ""
+	return reflect.DeepEqual(a, b)
+}
 
 // WritePlan writes p into out (PlanFile).
 func WritePlan(out string, p *Plan) error {
