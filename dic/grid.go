@@ -2,6 +2,7 @@ package dic
 
 import (
 	"fmt"
+	"slices"
 
 	"spallscope/dic/region"
 )
@@ -50,14 +51,20 @@ func NewGrid(m *region.Mask, step int) (Grid, error) {
 	if step <= 0 {
 		return Grid{}, fmt.Errorf("grid step %d px, expected a positive number of pixels", step)
 	}
+	// The bounding box: per row, the first and last measured pixel.
 	x0, y0, x1, y1 := m.Width, m.Height, -1, -1
 	for y := 0; y < m.Height; y++ {
-		for x := 0; x < m.Width; x++ {
-			if m.Pix[y*m.Width+x] != 0 {
-				x0, y0 = min(x0, x), min(y0, y)
-				x1, y1 = max(x1, x), max(y1, y)
-			}
+		row := m.Pix[y*m.Width : (y+1)*m.Width]
+		first := slices.IndexFunc(row, func(v uint8) bool { return v != 0 })
+		if first < 0 {
+			continue
 		}
+		last := len(row) - 1
+		for row[last] == 0 {
+			last--
+		}
+		x0, y0 = min(x0, first), min(y0, y)
+		x1, y1 = max(x1, last), max(y1, y)
 	}
 	if x1 < 0 {
 		return Grid{}, fmt.Errorf("grid: the mask measures no pixel")

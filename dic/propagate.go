@@ -1,7 +1,6 @@
 package dic
 
 import (
-	"container/heap"
 	"math"
 
 	"spallscope/subset"
@@ -157,7 +156,7 @@ func (c *correlation) solveJobs() {
 	for _, j := range c.jobs {
 		if c.res[j.I].Status == subset.Converged {
 			c.state[j.I] = accepted
-			heap.Push(&c.queue, rel{j.I, c.res[j.I].ZNCC})
+			c.queue.push(rel{j.I, c.res[j.I].ZNCC})
 		} else {
 			c.state[j.I] = failed
 		}
@@ -169,10 +168,10 @@ func (c *correlation) solveJobs() {
 // reliable solved neighbour, carried over the grid step by its gradient.
 func (c *correlation) propagate() {
 	g := c.tr.grid
-	for c.queue.Len() > 0 {
+	for len(c.queue) > 0 {
 		c.jobs = c.jobs[:0]
-		for n := 0; n < batchSize && c.queue.Len() > 0; n++ {
-			p := heap.Pop(&c.queue).(rel).i
+		for n := 0; n < batchSize && len(c.queue) > 0; n++ {
+			p := c.queue.pop().i
 			c.nbr = g.Neighbours(c.nbr[:0], p)
 			for _, q := range c.nbr {
 				if c.state[q] != pending {
@@ -207,22 +206,55 @@ type rel struct {
 	cc float64
 }
 
-// reliability is a max-heap on ZNCC, ties broken by the lower index so
-// the order is fully determined.
+// reliability is a binary max-heap on ZNCC, ties broken by the lower
+// index so the order is fully determined. It is typed rather than built on
+// container/heap so that a push or pop neither boxes its entry nor calls
+// through an interface: there is one of each per point.
 type reliability []rel
 
-func (q reliability) Len() int { return len(q) }
-func (q reliability) Less(a, b int) bool {
-	if q[a].cc != q[b].cc {
-		return q[a].cc > q[b].cc
+// before reports whether a is popped before b.
+func (a rel) before(b rel) bool {
+	if a.cc != b.cc {
+		return a.cc > b.cc
 	}
-	return q[a].i < q[b].i
+	return a.i < b.i
 }
-func (q reliability) Swap(a, b int) { q[a], q[b] = q[b], q[a] }
-func (q *reliability) Push(x any)   { *q = append(*q, x.(rel)) }
-func (q *reliability) Pop() any {
-	old := *q
-	x := old[len(old)-1]
-	*q = old[:len(old)-1]
-	return x
+
+// push adds r to the heap.
+func (q *reliability) push(r rel) {
+	h := append(*q, r)
+	for k := len(h) - 1; k > 0; {
+		up := (k - 1) / 2
+		if !h[k].before(h[up]) {
+			break
+		}
+		h[k], h[up] = h[up], h[k]
+		k = up
+	}
+	*q = h
+}
+
+// pop removes and returns the first entry; the heap must not be empty.
+func (q *reliability) pop() rel {
+	h := *q
+	top := h[0]
+	n := len(h) - 1
+	h[0] = h[n]
+	h = h[:n]
+	for k := 0; ; {
+		c := 2*k + 1
+		if c >= n {
+			break
+		}
+		if c+1 < n && h[c+1].before(h[c]) {
+			c++
+		}
+		if !h[c].before(h[k]) {
+			break
+		}
+		h[k], h[c] = h[c], h[k]
+		k = c
+	}
+	*q = h
+	return top
 }

@@ -61,13 +61,18 @@ func NewTracker(ref *subset.Image, refIndex int, mask *region.Mask, s Settings) 
 	if ref.Width < s.Subset || ref.Height < s.Subset {
 		return nil, fmt.Errorf("reference %dx%d is smaller than one %d px subset", ref.Width, ref.Height, s.Subset)
 	}
+	// The reference spline does not depend on the mask: it is built while
+	// the grid is laid and the edge guard drawn, which take as long.
+	spline := make(chan *subset.Spline, 1)
+	go func() { spline <- subset.NewSpline(ref, s.Interpolation) }()
 	grid, err := NewGrid(mask, s.Step)
 	if err != nil {
+		<-spline
 		return nil, err
 	}
 	t := &Tracker{s: s, grid: grid, origin: ref, mask: mask, pixels: guardEdges(mask, s.EdgeGuard),
 		pool: newPool(s.solverConfig(), s.Workers)}
-	t.setReference(ref, refIndex, nil)
+	t.setReference(ref, refIndex, nil, <-spline)
 	t.classify()
 	return t, nil
 }
@@ -152,11 +157,26 @@ func (t *Tracker) classify() {
 			members[k] = append(members[k], i)
 		}
 	}
+	var byDist []distPoint
 	for k, m := range members {
+		// The 32 members nearest the centroid, ties in grid order: the
+		// distances are computed once, not per comparison.
 		mx, my := cx[k]/float64(len(m)), cy[k]/float64(len(m))
-		dist := func(i int) float64 { x, y := t.grid.Pos(i); return math.Hypot(float64(x)-mx, float64(y)-my) }
-		slices.SortStableFunc(m, func(a, b int) int { return cmpFloat(dist(a), dist(b)) })
-		near := m[:min(len(m), 32)]
+		byDist = byDist[:0]
+		for _, i := range m {
+			x, y := t.grid.Pos(i)
+			byDist = append(byDist, distPoint{math.Hypot(float64(x)-mx, float64(y)-my), i})
+		}
+		slices.SortFunc(byDist, func(a, b distPoint) int {
+			if c := cmpFloat(a.d, b.d); c != 0 {
+				return c
+			}
+			return a.i - b.i
+		})
+		near := make([]int, min(len(m), 32))
+		for j := range near {
+			near[j] = byDist[j].i
+		}
 		sssig := make(map[int]float64, len(near))
 		for _, i := range near {
 			x, y := t.grid.Pos(i)
@@ -166,6 +186,12 @@ func (t *Tracker) classify() {
 		slices.SortStableFunc(best, func(a, b int) int { return cmpFloat(sssig[b], sssig[a]) })
 		t.seeds[k] = append(t.seeds[k], best[:min(len(best), 8)]...)
 	}
+}
+
+// distPoint is a grid point and its distance to a part's centroid.
+type distPoint struct {
+	d float64
+	i int
 }
 
 func cmpFloat(a, b float64) int {
@@ -206,7 +232,7 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 	if t.s.Reference == IncrementalReference && t.last != nil && t.lastIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {
 		// Correlation has degraded: move the reference to the last frame
 		// and correlate this one again against it.
-		t.setReference(t.last, t.lastIndex, t.prev)
+		t.setReference(t.last, t.lastIndex, t.prev, nil)
 		inc = t.correlate(img, sp, nil, nil)
 		f = t.compose(inc, index, name)
 	}
@@ -303,10 +329,13 @@ func (t *Tracker) compose(inc []subset.Result, index int, name string) *Field {
 // base is its field relative to the original reference (nil for the
 // original itself): subsets are centred on the integer pixel nearest each
 // material point's position there, and the mask is carried over by the
-// displacement field.
-func (t *Tracker) setReference(img *subset.Image, index int, base *Field) {
+// displacement field. sp is img's spline, or nil to build it.
+func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *subset.Spline) {
 	t.ref, t.refIndex, t.base = img, index, base
-	t.refSp = subset.NewSpline(img, t.s.Interpolation)
+	if sp == nil {
+		sp = subset.NewSpline(img, t.s.Interpolation)
+	}
+	t.refSp = sp
 	n := t.grid.Len()
 	t.centres = make([][2]int, n)
 	t.frac = make([][2]float64, n)

@@ -104,22 +104,34 @@ func NewSpline(img *Image, kind Interpolation) *Spline {
 	if h > 1 {
 		gain *= axisGain
 	}
-	for y := 0; y < h; y++ {
-		row := sp.coef[(y+splinePad)*sp.stride+splinePad:]
-		for x, v := range img.Row(y) {
-			row[x] = gain * float64(v)
+	// The inner loops run across independent lines rather than along one
+	// recursion, whose every step waits on the previous one: columns are
+	// filtered all at once, each step one contiguous row, and rows in
+	// bundles, read transposed into scratch (with the gain applied) so that
+	// their steps are contiguous too.
+	origin := splinePad*sp.stride + splinePad
+	bundle := make([]float64, rowBundle*w)
+	sum := make([]float64, max(w, rowBundle))
+	for y := 0; y < h; y += rowBundle {
+		m := min(rowBundle, h-y)
+		t := bundle[:m*w]
+		for l := 0; l < m; l++ {
+			for x, v := range img.Row(y + l) {
+				t[x*m+l] = gain * float64(v)
+			}
+		}
+		for _, z := range poles {
+			filterLines(t, 0, m, w, m, z, sum)
+		}
+		for l := 0; l < m; l++ {
+			row := sp.coef[origin+(y+l)*sp.stride:][:w]
+			for x := range row {
+				row[x] = t[x*m+l]
+			}
 		}
 	}
-	// Columns are filtered all at once and rows in bundles, so that the
-	// inner loops run across independent lines rather than along one
-	// recursion, whose every step waits on the previous one.
-	origin := splinePad*sp.stride + splinePad
-	scratch := make([]float64, max(w, rowBundle))
 	for _, z := range poles {
-		for y := 0; y < h; y += rowBundle {
-			filterLines(sp.coef, origin+y*sp.stride, 1, sp.stride, w, min(rowBundle, h-y), z, scratch)
-		}
-		filterLines(sp.coef, origin, sp.stride, 1, h, w, z, scratch)
+		filterLines(sp.coef, origin, sp.stride, h, w, z, sum)
 	}
 	sp.fillPadding()
 	return sp
@@ -142,19 +154,19 @@ func splinePoles(kind Interpolation) []float64 {
 }
 
 // rowBundle is the number of rows filtered together.
-const rowBundle = 8
+const rowBundle = 16
 
 // filterLines applies one causal and one anticausal first-order recursive
-// filter with pole z, in place, to m lines of n values: value k of line l
-// is c[first + l·lineStep + k·step]. The boundary conditions are those of
-// the whole-sample mirror extension (Unser 1999, Box 2). scratch must hold
+// filter with pole z, in place, to m contiguous lines of n values: value k
+// of line l is c[first + k·step + l]. The boundary conditions are those of
+// the whole-sample mirror extension (Unser 1999, Box 2). sum is scratch of
 // at least m values.
-func filterLines(c []float64, first, step, lineStep, n, m int, z float64, scratch []float64) {
+func filterLines(c []float64, first, step, n, m int, z float64, sum []float64) {
 	if n == 1 {
 		return // constant lines: the coefficients equal the values
 	}
-	at := func(k int) int { return first + k*step }
-	sum := scratch[:m]
+	line := func(k int) []float64 { return c[first+k*step : first+k*step+m] }
+	sum = sum[:m]
 
 	// Causal initial value: c⁺[0] = Σ_{k≥0} z^k s[-k], summed over the mirror
 	// extension until z^k is below float64 resolution.
@@ -162,31 +174,32 @@ func filterLines(c []float64, first, step, lineStep, n, m int, z float64, scratc
 	clear(sum)
 	zk := 1.0
 	for k := 0; k < horizon; k++ {
-		src := at(mirrorIndex(k, n))
-		for l := range sum {
-			sum[l] += zk * c[src+l*lineStep]
+		src := line(mirrorIndex(k, n))
+		for l, v := range src[:len(sum)] {
+			sum[l] += zk * v
 		}
 		zk *= z
 	}
-	for l, v := range sum {
-		c[at(0)+l*lineStep] = v
-	}
+	copy(line(0), sum)
 	for k := 1; k < n; k++ {
-		dst, src := at(k), at(k-1)
-		for l := 0; l < m; l++ {
-			c[dst+l*lineStep] += z * c[src+l*lineStep]
+		dst, src := line(k), line(k-1)
+		src = src[:len(dst)]
+		for l := range dst {
+			dst[l] += z * src[l]
 		}
 	}
 	// Anticausal initial value for the mirror extension.
-	last, prev := at(n-1), at(n-2)
+	last, prev := line(n-1), line(n-2)
+	prev = prev[:len(last)]
 	g := z / (z*z - 1)
-	for l := 0; l < m; l++ {
-		c[last+l*lineStep] = g * (c[last+l*lineStep] + z*c[prev+l*lineStep])
+	for l := range last {
+		last[l] = g * (last[l] + z*prev[l])
 	}
 	for k := n - 2; k >= 0; k-- {
-		dst, src := at(k), at(k+1)
-		for l := 0; l < m; l++ {
-			c[dst+l*lineStep] = z * (c[src+l*lineStep] - c[dst+l*lineStep])
+		dst, src := line(k), line(k+1)
+		src = src[:len(dst)]
+		for l := range dst {
+			dst[l] = z * (src[l] - dst[l])
 		}
 	}
 }
