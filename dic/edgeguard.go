@@ -15,33 +15,38 @@ func guardEdges(m *region.Mask, guard int) *region.Mask {
 		return out
 	}
 	g2 := guard * guard
-	for y := 0; y < m.Height; y++ {
-		for x := 0; x < m.Width; x++ {
-			if m.Pix[y*m.Width+x] != 0 || !touchesMeasured(m, x, y) {
+	w, h := m.Width, m.Height
+	// near[x] says whether column x of rows y-1…y+1 has a measured pixel;
+	// an excluded pixel is on the rim when near is set at x-1, x or x+1.
+	near := make([]bool, w)
+	for y := 0; y < h; y++ {
+		for x := range near {
+			near[x] = false
+			for yy := max(y-1, 0); yy <= min(y+1, h-1); yy++ {
+				if m.Pix[yy*w+x] != 0 {
+					near[x] = true
+					break
+				}
+			}
+		}
+		row := m.Pix[y*w : (y+1)*w]
+		for x, v := range row {
+			if v != 0 || !(near[x] || x > 0 && near[x-1] || x+1 < w && near[x+1]) {
 				continue
 			}
 			for dy := -guard; dy <= guard; dy++ {
+				py := y + dy
+				if py < 0 || py >= h {
+					continue
+				}
 				for dx := -guard; dx <= guard; dx++ {
-					px, py := x+dx, y+dy
-					if dx*dx+dy*dy <= g2 && px >= 0 && py >= 0 && px < m.Width && py < m.Height {
-						out.Pix[py*m.Width+px] = 0
+					px := x + dx
+					if dx*dx+dy*dy <= g2 && px >= 0 && px < w {
+						out.Pix[py*w+px] = 0
 					}
 				}
 			}
 		}
 	}
 	return out
-}
-
-// touchesMeasured reports whether excluded pixel (x, y) has a measured
-// 8-neighbour, i.e. lies on the rim of the exclusion.
-func touchesMeasured(m *region.Mask, x, y int) bool {
-	for dy := -1; dy <= 1; dy++ {
-		for dx := -1; dx <= 1; dx++ {
-			if m.At(x+dx, y+dy) {
-				return true
-			}
-		}
-	}
-	return false
 }

@@ -3,6 +3,8 @@ package subset
 import (
 	"fmt"
 	"math"
+	"runtime"
+	"sync"
 )
 
 // Interpolation selects the B-spline degree used to evaluate an image
@@ -110,29 +112,37 @@ func NewSpline(img *Image, kind Interpolation) *Spline {
 	// bundles, read transposed into scratch (with the gain applied) so that
 	// their steps are contiguous too.
 	origin := splinePad*sp.stride + splinePad
-	bundle := make([]float64, rowBundle*w)
-	sum := make([]float64, max(w, rowBundle))
-	for y := 0; y < h; y += rowBundle {
-		m := min(rowBundle, h-y)
-		t := bundle[:m*w]
-		for l := 0; l < m; l++ {
-			for x, v := range img.Row(y + l) {
-				t[x*m+l] = gain * float64(v)
+	bundles := (h + rowBundle - 1) / rowBundle
+	inParallel(bundles, w*h, func(lo, hi int) {
+		bundle := make([]float64, rowBundle*w)
+		sum := make([]float64, rowBundle)
+		for y := lo * rowBundle; y < min(hi*rowBundle, h); y += rowBundle {
+			m := min(rowBundle, h-y)
+			t := bundle[:m*w]
+			for l := 0; l < m; l++ {
+				for x, v := range img.Row(y + l) {
+					t[x*m+l] = gain * float64(v)
+				}
+			}
+			for _, z := range poles {
+				filterLines(t, 0, m, w, m, z, sum)
+			}
+			for l := 0; l < m; l++ {
+				row := sp.coef[origin+(y+l)*sp.stride:][:w]
+				for x := range row {
+					row[x] = t[x*m+l]
+				}
 			}
 		}
+	})
+	// Columns, split into vertical strips; every column's arithmetic is
+	// the same whatever the split.
+	inParallel(w, w*h, func(lo, hi int) {
+		sum := make([]float64, hi-lo)
 		for _, z := range poles {
-			filterLines(t, 0, m, w, m, z, sum)
+			filterLines(sp.coef, origin+lo, sp.stride, h, hi-lo, z, sum)
 		}
-		for l := 0; l < m; l++ {
-			row := sp.coef[origin+(y+l)*sp.stride:][:w]
-			for x := range row {
-				row[x] = t[x*m+l]
-			}
-		}
-	}
-	for _, z := range poles {
-		filterLines(sp.coef, origin, sp.stride, h, w, z, sum)
-	}
+	})
 	sp.fillPadding()
 	return sp
 }
@@ -151,6 +161,28 @@ func splinePoles(kind Interpolation) []float64 {
 		return []float64{pole(-13 + math.Sqrt(105)), pole(-13 - math.Sqrt(105))}
 	}
 	panic(fmt.Sprintf("subset: unknown interpolation %d", int(kind)))
+}
+
+// inParallel calls fn on contiguous ranges [lo, hi) covering 0…n−1, on
+// up to GOMAXPROCS goroutines when the work (of about cost values) is
+// large enough to be worth them, else once on the whole range.
+func inParallel(n, cost int, fn func(lo, hi int)) {
+	const minPerWorker = 1 << 15 // values: below this a goroutine costs more than it saves
+	workers := min(runtime.GOMAXPROCS(0), n, max(cost/minPerWorker, 1))
+	if workers <= 1 {
+		fn(0, n)
+		return
+	}
+	var wg sync.WaitGroup
+	for k := range workers {
+		lo, hi := k*n/workers, (k+1)*n/workers
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			fn(lo, hi)
+		}()
+	}
+	wg.Wait()
 }
 
 // rowBundle is the number of rows filtered together.
