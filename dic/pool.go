@@ -45,14 +45,17 @@ func newPool(cfg subset.Config, workers int) *pool {
 }
 
 // solve runs every job against (ref, def) and stores job k's result in
-// out[jobs[k].I].
-func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []subset.Result) {
+// out[jobs[k].I]. prepared, when not nil, holds point i's reference side
+// in prepared[i] (filled on first use; see subset.Prepared); no two jobs
+// may be for the same point.
+func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []subset.Result, prepared []subset.Prepared) {
+
 	if len(jobs) == 0 {
 		return
 	}
 	if len(jobs) < 8 || len(p.solvers) == 1 {
 		for _, j := range jobs {
-			out[j.I] = p.solvers[0].Solve(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess)
+			out[j.I] = p.solvers[0].SolveWith(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I))
 		}
 		return
 	}
@@ -68,9 +71,17 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 					return
 				}
 				j := jobs[k]
-				out[j.I] = s.Solve(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess)
+				out[j.I] = s.SolveWith(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I))
 			}
 		}(s)
 	}
 	wg.Wait()
+}
+
+// preparedAt returns &prepared[i], or nil without a prepared set.
+func preparedAt(prepared []subset.Prepared, i int) *subset.Prepared {
+	if prepared == nil {
+		return nil
+	}
+	return &prepared[i]
 }

@@ -152,7 +152,7 @@ func (c *correlation) seed(cands []int, prev []subset.Params, prevOK []bool) ([2
 // solveJobs solves the queued jobs in parallel and files each result as
 // accepted (queued for propagation) or failed.
 func (c *correlation) solveJobs() {
-	c.tr.pool.solve(c.ref, c.def, c.mask, c.jobs, c.res)
+	c.tr.pool.solve(c.ref, c.def, c.mask, c.jobs, c.res, c.tr.prepared)
 	for _, j := range c.jobs {
 		if c.res[j.I].Status == subset.Converged {
 			c.state[j.I] = accepted

@@ -143,3 +143,66 @@ func TestTrackDeterministic(t *testing.T) {
 		}
 	}
 }
+
+// A tracker keeps the reference side of every subset from the first frame
+// it tracks (subset.Prepared). A later frame must come out exactly as it
+// does from a tracker that prepares from scratch, here one resumed after
+// the first frame; with an opening, so masked subsets are kept too.
+func TestTrackPreparedReuse(t *testing.T) {
+	sp, err := synth.NewSpeckles(speckle4, 160, 140)
+	if err != nil {
+		t.Fatal(err)
+	}
+	hole := synth.Opening{Cx: 80, Cy: 70, Rx: 18, Ry: 18}
+	cam := synth.Camera{Depth: 8, Noise: 1}
+	render := func(f synth.Field, seed int) *subset.Image {
+		img, err := synth.Render(synth.Scene{Speckles: sp, Field: f, Openings: []synth.Opening{hole}}, cam, 160, 140, seed)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return img
+	}
+	ref := render(nil, 0)
+	f1 := render(synth.Translation{U: 0.4, V: -0.3}, 1)
+	f2 := render(synth.Sum{synth.UniformStrain{Cx: 80, Cy: 70, Exx: 0.003, Eyy: -0.001}, synth.Translation{U: 0.7, V: -0.5}}, 2)
+	mask, err := region.Layout{Exclude: []region.Shape{region.Ellipse{Cx: 80, Cy: 70, Rx: 18, Ry: 18}}}.Rasterise(160, 140)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := dic.Settings{Subset: 17, Step: 6}
+	warm, err := dic.NewTracker(ref, 0, mask, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	first, err := warm.Track(f1, 1, "f1")
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, err := warm.Track(f2, 2, "f2")
+	if err != nil {
+		t.Fatal(err)
+	}
+	cold, err := dic.NewTracker(ref, 0, mask, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := cold.Resume(first); err != nil {
+		t.Fatal(err)
+	}
+	b, err := cold.Track(f2, 2, "f2")
+	if err != nil {
+		t.Fatal(err)
+	}
+	masked := 0
+	for i := range a.Points {
+		if a.Points[i] != b.Points[i] {
+			t.Fatalf("point %d: %+v with kept reference sides, %+v prepared afresh", i, a.Points[i], b.Points[i])
+		}
+		if a.Points[i].Status == subset.Masked {
+			masked++
+		}
+	}
+	if a.Valid() < len(a.Points)/2 || masked == 0 {
+		t.Errorf("%d of %d points valid, %d masked: the case does not exercise both kinds", a.Valid(), len(a.Points), masked)
+	}
+}

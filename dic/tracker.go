@@ -32,9 +32,10 @@ type Tracker struct {
 	ref      *subset.Image
 	refSp    *subset.Spline
 	refMask  []uint8
-	base     *Field       // field of the current reference (nil: the original)
-	centres  [][2]int     // integer subset centres in the current reference
-	frac     [][2]float64 // material point − centre, in the current reference
+	prepared []subset.Prepared // per point, against the current reference
+	base     *Field            // field of the current reference (nil: the original)
+	centres  [][2]int          // integer subset centres in the current reference
+	frac     [][2]float64      // material point − centre, in the current reference
 
 	prev      *Field          // last field returned
 	prevInc   []subset.Params // last solution against the current reference
@@ -336,6 +337,7 @@ func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *su
 		sp = subset.NewSpline(img, t.s.Interpolation)
 	}
 	t.refSp = sp
+	t.prepared = subset.NewPrepared(t.grid.Len(), t.s.Order)
 	n := t.grid.Len()
 	t.centres = make([][2]int, n)
 	t.frac = make([][2]float64, n)

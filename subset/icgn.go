@@ -204,23 +204,8 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	if x-r < 0 || y-r < 0 || x+r > ref.width-1 || y+r > ref.height-1 {
 		return OutOfImage
 	}
-	s.cx, s.cy = float64(x), float64(y)
-
-	// Intensities and gradients at the pixel centres: straight into the
-	// subset arrays for a full square, else for the window and then
-	// gathered over the valid pixels.
+	n := s.load(ref, mask, x, y)
 	side := 2*r + 1
-	var n int
-	if mask == nil {
-		n = side * side
-		ref.centres(x-r, y-r, side, s.fc, s.gx, s.gy, s.colV, s.colD)
-		if !s.square {
-			s.setSquare()
-		}
-	} else {
-		ref.centres(x-r, y-r, side, s.winV, s.winX, s.winY, s.colV, s.colD)
-		n = s.gather(mask[(y-r)*ref.width+x-r:], ref.width)
-	}
 	var sum, sx, sy float64
 	for k, v := range s.fc[:n] {
 		gx, gy := s.gx[k], s.gy[k]
@@ -255,6 +240,26 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 		return LowTexture
 	}
 	return Converged
+}
+
+// load sets the subset's centre, its valid pixels' values and gradients
+// at the pixel centres (fc, gx, gy; the mean not yet taken off), offsets
+// and runs, and returns their number: straight into the subset arrays for
+// a full square, else for the window and then gathered over the valid
+// pixels. The subset must lie inside the image.
+func (s *Solver) load(ref *Spline, mask []uint8, x, y int) int {
+	r := s.cfg.Radius
+	s.cx, s.cy = float64(x), float64(y)
+	side := 2*r + 1
+	if mask == nil {
+		ref.centres(x-r, y-r, side, s.fc, s.gx, s.gy, s.colV, s.colD)
+		if !s.square {
+			s.setSquare()
+		}
+		return side * side
+	}
+	ref.centres(x-r, y-r, side, s.winV, s.winX, s.winY, s.colV, s.colD)
+	return s.gather(mask[(y-r)*ref.width+x-r:], ref.width)
 }
 
 // setSquare lays out the full square subset: one run per row and the

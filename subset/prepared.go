@@ -1,0 +1,96 @@
+package subset
+
+// Prepared holds what Prepare computed for one subset that does not
+// depend on the pixel values it will read again: its status, mean and
+// norm, the sums of its steepest-descent images and the Cholesky factor
+// of its Hessian. With a fixed reference every frame correlates the same
+// reference subsets, so a run keeps one Prepared per point and each frame
+// after the first skips the moments and the factorization (about three
+// quarters of Prepare); the values restored are the very numbers computed
+// the first time, so results are unchanged to the last bit.
+//
+// A Prepared belongs to one subset of one reference with one mask and one
+// Config; the caller keeps that pairing (a tracker drops its Prepared
+// when it changes reference).
+type Prepared struct {
+	set          bool
+	status       Status
+	n            int
+	fMean, fNorm float64
+	v            []float64 // sumJ, sumJf (np each), the factor's lower triangle
+}
+
+// NewPrepared returns n empty Prepared for subsets of the given order,
+// their storage in one block.
+func NewPrepared(n int, order ShapeOrder) []Prepared {
+	np := order.NumParams()
+	size := 2*np + np*(np+1)/2
+	slab := make([]float64, n*size)
+	ps := make([]Prepared, n)
+	for i := range ps {
+		ps[i].v = slab[i*size : (i+1)*size : (i+1)*size]
+	}
+	return ps
+}
+
+// store records the solver's prepared state in c.
+func (s *Solver) store(c *Prepared, status Status) {
+	c.set, c.status, c.n = true, status, s.n
+	if status != Converged {
+		return
+	}
+	c.fMean, c.fNorm = s.fMean, s.fNorm
+	np := s.np
+	v := c.v[:2*np+np*(np+1)/2]
+	copy(v, s.sumJ[:np])
+	copy(v[np:], s.sumJf[:np])
+	k := 2 * np
+	for a := 0; a < np; a++ {
+		k += copy(v[k:k+a+1], s.chol[12*a:12*a+a+1])
+	}
+}
+
+// restore sets the solver's prepared state from c, for the subset whose
+// values and gradients (before the mean is taken off) are already in fc,
+// gx and gy.
+func (s *Solver) restore(c *Prepared) {
+	s.n, s.fMean, s.fNorm = c.n, c.fMean, c.fNorm
+	for k := range s.fc[:s.n] {
+		s.fc[k] -= s.fMean
+	}
+	np := s.np
+	v := c.v[:2*np+np*(np+1)/2]
+	copy(s.sumJ[:np], v)
+	copy(s.sumJf[:np], v[np:])
+	k := 2 * np
+	for a := 0; a < np; a++ {
+		k += copy(s.chol[12*a:12*a+a+1], v[k:k+a+1])
+	}
+}
+
+// SolveWith is Solve with the reference side of the subset taken from c
+// when c holds it, and recorded in c otherwise (c nil: Solve).
+func (s *Solver) SolveWith(ref, def *Spline, mask []uint8, x, y int, guess Params, c *Prepared) Result {
+	s.PrepareWith(ref, mask, x, y, c)
+	return s.Iterate(def, guess)
+}
+
+// PrepareWith is Prepare with the reference side of the subset taken from
+// c when c holds it, and recorded in c otherwise (c nil: Prepare).
+func (s *Solver) PrepareWith(ref *Spline, mask []uint8, x, y int, c *Prepared) Status {
+	if c == nil || !c.set {
+		st := s.Prepare(ref, mask, x, y)
+		if c != nil && st != OutOfImage {
+			s.store(c, st)
+		}
+		return st
+	}
+	s.ref = ref
+	s.status = c.status
+	if c.status != Converged {
+		return c.status
+	}
+	s.load(ref, mask, x, y)
+	s.restore(c)
+	return Converged
+}
