@@ -20,6 +20,19 @@ func SSSIG(sp *Spline, x, y, radius int) float64 {
 // the same gradient the solver uses for its steepest-descent images.
 // Pixels of the subset outside the image are left out.
 func SSSIGXY(sp *Spline, x, y, radius int) (sx, sy float64) {
+	side := 2*radius + 1
+	if x-radius >= 0 && y-radius >= 0 && x+radius < sp.width && y+radius < sp.height {
+		// Inside the image: the gradients at the pixel centres in bulk.
+		buf := make([]float64, 3*side*side+2*centreScratch(side))
+		n := side * side
+		v, gx, gy := buf[:n], buf[n:2*n], buf[2*n:3*n]
+		sp.centres(x-radius, y-radius, side, v, gx, gy, buf[3*n:3*n+centreScratch(side)], buf[3*n+centreScratch(side):])
+		for k := range gx {
+			sx += gx[k] * gx[k]
+			sy += gy[k] * gy[k]
+		}
+		return sx, sy
+	}
 	for j := max(y-radius, 0); j <= min(y+radius, sp.height-1); j++ {
 		for i := max(x-radius, 0); i <= min(x+radius, sp.width-1); i++ {
 			_, gx, gy := sp.ValueGrad(float64(i), float64(j))

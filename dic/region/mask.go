@@ -74,6 +74,15 @@ func fill(m *Mask, s Shape, v uint8) {
 	x0, y0, x1, y1 := s.Bounds()
 	i0, j0 := max(0, int(math.Ceil(x0))), max(0, int(math.Ceil(y0)))
 	i1, j1 := min(m.Width-1, int(math.Floor(x1))), min(m.Height-1, int(math.Floor(y1)))
+	if _, ok := s.(Rect); ok { // every pixel centre within the bounds is inside
+		for j := j0; j <= j1 && i0 <= i1; j++ {
+			row := m.Pix[j*m.Width+i0 : j*m.Width+i1+1]
+			for i := range row {
+				row[i] = v
+			}
+		}
+		return
+	}
 	for j := j0; j <= j1; j++ {
 		for i := i0; i <= i1; i++ {
 			if s.Contains(float64(i), float64(j)) {
