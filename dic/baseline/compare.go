@@ -8,8 +8,10 @@ import (
 
 // Repeats is the number of timed runs of each method on each case; the
 // fastest is kept, the usual way to read a time off a machine that other
-// work shares.
-const Repeats = 3
+// work shares. The runs of the methods on a case are interleaved (one run
+// of each method, then the next round), so that a spell of load from
+// elsewhere falls on all of them rather than on one.
+const Repeats = 5
 
 // Row is the score of one method on one case.
 type Row struct {
@@ -39,36 +41,54 @@ type Row struct {
 func Compare(cases []*Case, window int) ([]Row, error) {
 	var rows []Row
 	for _, c := range cases {
-		first := len(rows)
-		for _, m := range Methods() {
-			row, err := score(c, m, window)
-			if err != nil {
-				return nil, err
-			}
-			rows = append(rows, row)
+		caseRows, err := scoreCase(c, Methods(), window)
+		if err != nil {
+			return nil, err
 		}
-		ratios(rows[first:])
+		ratios(caseRows)
+		rows = append(rows, caseRows...)
 	}
 	return rows, nil
 }
 
-// score runs m on c Repeats times and returns its row, ratios unset.
-func score(c *Case, m Method, window int) (Row, error) {
-	var u, v []float64
-	best := math.Inf(1)
+// scoreCase runs every method on c Repeats times, interleaved, and returns
+// their rows, ratios unset.
+func scoreCase(c *Case, methods []Method, window int) ([]Row, error) {
+	best := make([]float64, len(methods))
+	us, vs := make([][]float64, len(methods)), make([][]float64, len(methods))
+	for k := range best {
+		best[k] = math.Inf(1)
+	}
 	for range Repeats {
-		start := time.Now()
-		var err error
-		u, v, err = m.Measure(c, window)
-		if err != nil {
-			return Row{}, fmt.Errorf("case %s: %w", c.Name, err)
+		for k, m := range methods {
+			start := time.Now()
+			u, v, err := m.Measure(c, window)
+			if err != nil {
+				return nil, fmt.Errorf("case %s: %w", c.Name, err)
+			}
+			best[k] = math.Min(best[k], time.Since(start).Seconds())
+			us[k], vs[k] = u, v
 		}
-		best = math.Min(best, time.Since(start).Seconds())
 	}
+	rows := make([]Row, len(methods))
+	for k, m := range methods {
+		row, err := score(c, m.Name, us[k], vs[k])
+		if err != nil {
+			return nil, err
+		}
+		row.TimePerPoint = best[k] / float64(len(c.Points))
+		rows[k] = row
+	}
+	return rows, nil
+}
+
+// score compares a method's measurement (u, v) of c with the truth and
+// returns its row, time and ratios unset.
+func score(c *Case, method string, u, v []float64) (Row, error) {
 	if len(u) != len(c.Points) || len(v) != len(c.Points) {
-		return Row{}, fmt.Errorf("case %s: %s returned %d, %d values for %d points", c.Name, m.Name, len(u), len(v), len(c.Points))
+		return Row{}, fmt.Errorf("case %s: %s returned %d, %d values for %d points", c.Name, method, len(u), len(v), len(c.Points))
 	}
-	row := Row{Case: c.Name, Method: m.Name, TimePerPoint: best / float64(len(c.Points))}
+	row := Row{Case: c.Name, Method: method}
 	var sum float64
 	for i, t := range c.Truth {
 		if math.IsNaN(u[i]) || math.IsNaN(v[i]) {
