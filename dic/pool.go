@@ -16,6 +16,10 @@ type job struct {
 	// Full says every pixel of the subset is measured, so the solver may
 	// take its unmasked path (the same result, faster).
 	Full bool
+	// Prior, when not nil, holds the values a solved neighbour sampled,
+	// for the pixels the two subsets share (Guess must be Prior.Guess);
+	// Keep, when not nil, receives the values this solve samples last.
+	Prior, Keep *subset.Samples
 }
 
 // maskFor returns the mask a job's solve needs: none for a full subset.
@@ -55,7 +59,7 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 	}
 	if len(jobs) < 8 || len(p.solvers) == 1 {
 		for _, j := range jobs {
-			out[j.I] = p.solvers[0].SolveWith(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I))
+			out[j.I] = p.solvers[0].SolveShared(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I), j.Prior, j.Keep)
 		}
 		return
 	}
@@ -71,7 +75,7 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 					return
 				}
 				j := jobs[k]
-				out[j.I] = s.SolveWith(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I))
+				out[j.I] = s.SolveShared(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I), j.Prior, j.Keep)
 			}
 		}(s)
 	}

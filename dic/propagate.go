@@ -35,6 +35,37 @@ type correlation struct {
 	queue         reliability
 	jobs          []job
 	nbr           []int
+	// samples[i] holds what accepted point i last sampled, until its
+	// neighbours have been solved from it (see subset.Samples); spare
+	// holds released buffers for reuse.
+	samples []*subset.Samples
+	spare   []*subset.Samples
+	popped  []int
+}
+
+// keepFor returns a buffer for job i's last samples when its subset is a
+// full square of the Affine order, else nil.
+func (c *correlation) keepFor(i int) *subset.Samples {
+	if !c.full(i) || c.tr.s.Order != subset.Affine {
+		return nil
+	}
+	if n := len(c.spare); n > 0 {
+		s := c.spare[n-1]
+		c.spare = c.spare[:n-1]
+		return s
+	}
+	return subset.NewSamples(c.tr.s.Subset / 2)
+}
+
+// release returns point i's samples, if any, to the spare buffers.
+func (c *correlation) release(i int) {
+	if c.samples == nil {
+		return
+	}
+	if s := c.samples[i]; s != nil {
+		c.spare = append(c.spare, s)
+		c.samples[i] = nil
+	}
 }
 
 // run correlates every trackable point: seeds by integer search, then a
@@ -138,7 +169,7 @@ func (c *correlation) seed(cands []int, prev []subset.Params, prevOK []bool) ([2
 		}
 		start := g
 		start[subset.PU], start[subset.PV] = float64(m.U), float64(m.V)
-		c.jobs = append(c.jobs[:0], job{I: i, X: x, Y: y, Guess: start, Full: c.full(i)})
+		c.jobs = append(c.jobs[:0], job{I: i, X: x, Y: y, Guess: start, Full: c.full(i), Keep: c.keepFor(i)})
 		c.solveJobs()
 		if c.state[i] == accepted {
 			p := c.res[i].P
@@ -153,12 +184,20 @@ func (c *correlation) seed(cands []int, prev []subset.Params, prevOK []bool) ([2
 // accepted (queued for propagation) or failed.
 func (c *correlation) solveJobs() {
 	c.tr.pool.solve(c.ref, c.def, c.mask, c.jobs, c.res, c.tr.prepared)
+	if c.samples == nil {
+		c.samples = make([]*subset.Samples, len(c.res))
+	}
 	for _, j := range c.jobs {
+		c.release(j.I)
 		if c.res[j.I].Status == subset.Converged {
 			c.state[j.I] = accepted
 			c.queue.push(rel{j.I, c.res[j.I].ZNCC})
+			c.samples[j.I] = j.Keep
 		} else {
 			c.state[j.I] = failed
+			if j.Keep != nil {
+				c.spare = append(c.spare, j.Keep)
+			}
 		}
 	}
 }
@@ -170,20 +209,39 @@ func (c *correlation) propagate() {
 	g := c.tr.grid
 	for len(c.queue) > 0 {
 		c.jobs = c.jobs[:0]
+		c.popped = c.popped[:0]
 		for n := 0; n < batchSize && len(c.queue) > 0; n++ {
 			p := c.queue.pop().i
+			c.popped = append(c.popped, p)
+			var prior *subset.Samples
+			if c.samples != nil {
+				prior = c.samples[p]
+			}
 			c.nbr = g.Neighbours(c.nbr[:0], p)
 			for _, q := range c.nbr {
 				if c.state[q] != pending {
 					continue
 				}
 				c.state[q] = failed // claimed for this batch; solveJobs files it
-				dx := float64(c.centres[q][0] - c.centres[p][0])
-				dy := float64(c.centres[q][1] - c.centres[p][1])
-				c.jobs = append(c.jobs, job{I: q, X: c.centres[q][0], Y: c.centres[q][1], Guess: carry(c.res[p].P, dx, dy), Full: c.full(q)})
+				qx, qy := c.centres[q][0], c.centres[q][1]
+				j := job{I: q, X: qx, Y: qy, Full: c.full(q), Keep: c.keepFor(q)}
+				if prior.OK() {
+					// Start from the shape p was last sampled at (within
+					// the stopping tolerance of its final one), so that q
+					// shares those samples.
+					j.Guess, j.Prior = prior.Guess(qx, qy), prior
+				} else {
+					dx := float64(qx - c.centres[p][0])
+					dy := float64(qy - c.centres[p][1])
+					j.Guess = subset.Carry(c.res[p].P, dx, dy)
+				}
+				c.jobs = append(c.jobs, j)
 			}
 		}
 		c.solveJobs()
+		for _, p := range c.popped { // their neighbours are solved
+			c.release(p)
+		}
 	}
 }
 
@@ -191,14 +249,6 @@ func (c *correlation) propagate() {
 // can be solved without the mask: known for the original reference only
 // (after a reference update the subsets sit elsewhere).
 func (c *correlation) full(i int) bool { return c.tr.base == nil && c.tr.full[i] }
-
-// carry moves a first-order shape by (dx, dy) in the reference: the
-// displacement changes by the gradient times the offset.
-func carry(p subset.Params, dx, dy float64) subset.Params {
-	p[subset.PU] += p[subset.PUx]*dx + p[subset.PUy]*dy
-	p[subset.PV] += p[subset.PVx]*dx + p[subset.PVy]*dy
-	return p
-}
 
 // rel is a queue entry: a point and its ZNCC.
 type rel struct {

@@ -306,7 +306,7 @@ func (t *Tracker) compose(inc []subset.Result, index int, name string) *Field {
 			p.P = r.P
 		default:
 			b := t.base.Points[i].P
-			d := carry(r.P, t.frac[i][0], t.frac[i][1])
+			d := subset.Carry(r.P, t.frac[i][0], t.frac[i][1])
 			p.P = b
 			p.P[subset.PU] += d[subset.PU]
 			p.P[subset.PV] += d[subset.PV]

@@ -133,6 +133,13 @@ type Solver struct {
 	winV, winX, winY []float64
 	colV, colD       []float64
 	xs, ys, gs       []float64
+
+	// Shared samples of the current SolveShared (nil otherwise), and the
+	// shape the last Iterate sampled at.
+	prior            *Samples
+	priorDX, priorDY int
+	sampled          bool
+	sampledAt        Params
 }
 
 // run is a maximal sequence of consecutive valid pixels in one subset row:
@@ -324,6 +331,7 @@ func (s *Solver) Iterate(def *Spline, guess Params) Result {
 		}
 	}
 	res := Result{P: guess, Status: s.status}
+	s.sampled = false
 	if s.status != Converged {
 		return res
 	}
@@ -352,7 +360,12 @@ func (s *Solver) Iterate(def *Spline, guess Params) Result {
 			res.Status = OutOfImage
 			return res
 		}
-		def.values(s.xs[:n], s.ys[:n], s.gs[:n])
+		if it == 1 && s.prior != nil {
+			s.sampleShared(def)
+		} else {
+			def.values(s.xs[:n], s.ys[:n], s.gs[:n])
+		}
+		s.sampledAt, s.sampled = p, true
 		var sg, sgg, sfg float64
 		var sJg [12]float64
 		if affine {

@@ -1,0 +1,97 @@
+package subset
+
+// Samples are the deformed-image values a full square subset sampled at
+// its last iterate, kept so that a neighbouring subset started from the
+// same warp can take the values of the pixels the two share instead of
+// interpolating them again. Reliability-guided propagation starts each
+// point from the affine shape of a solved neighbour carried over by its
+// gradient (Pan 2009): the two warps are then the same affine map of the
+// reference, so in the new subset's first iteration the shared pixels land
+// where the neighbour's did, and their values are the ones it sampled (to
+// rounding of the positions, about 1e-13 px).
+type Samples struct {
+	X, Y int       // the subset's centre, reference px
+	P    Params    // the affine shape the values were sampled at
+	G    []float64 // side×side values, row-major
+	ok   bool
+}
+
+// NewSamples returns an empty Samples for subsets of the given radius.
+func NewSamples(radius int) *Samples {
+	side := 2*radius + 1
+	return &Samples{G: make([]float64, side*side)}
+}
+
+// OK reports whether s holds values.
+func (s *Samples) OK() bool { return s != nil && s.ok }
+
+// Carry returns the shape p moved to a subset whose centre is (dx, dy)
+// from p's in the reference: the same affine map, its displacement
+// changed by the gradient times the offset.
+func Carry(p Params, dx, dy float64) Params {
+	p[PU] += p[PUx]*dx + p[PUy]*dy
+	p[PV] += p[PVx]*dx + p[PVy]*dy
+	return p
+}
+
+// Guess returns the start a subset centred on (x, y) must take to share
+// these samples: their shape carried to it.
+func (s *Samples) Guess(x, y int) Params {
+	return Carry(s.P, float64(x-s.X), float64(y-s.Y))
+}
+
+// SolveShared is SolveWith that, for a full square subset of the Affine
+// order, takes from prior (when not nil and holding values, and guess is
+// prior.Guess(x, y)) the first-iteration values of the pixels it shares
+// with prior's subset, and leaves in keep (when not nil) the values it
+// sampled at its last iterate. The result equals SolveWith's to rounding.
+func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Params, c *Prepared, prior, keep *Samples) Result {
+	s.PrepareWith(ref, mask, x, y, c)
+	s.prior = nil
+	if keep != nil {
+		keep.ok = false
+	}
+	if prior.OK() && s.status == Converged && s.square && s.cfg.Order == Affine && len(prior.G) == s.n && guess == prior.Guess(x, y) {
+		dx, dy := prior.X-x, prior.Y-y
+		if side := 2*s.cfg.Radius + 1; dx > -side && dx < side && dy > -side && dy < side {
+			s.prior, s.priorDX, s.priorDY = prior, dx, dy
+		}
+	}
+	res := s.Iterate(def, guess)
+	if keep != nil && s.sampled && s.square && s.cfg.Order == Affine && len(keep.G) == s.n {
+		keep.X, keep.Y, keep.P = x, y, s.sampledAt
+		copy(keep.G, s.gs[:s.n])
+		keep.ok = true
+	}
+	s.prior = nil
+	return res
+}
+
+// sampleShared sets gs to the deformed values at xs, ys (already warped),
+// copying those of the pixels shared with s.prior's subset and
+// interpolating the rest. Pixel (i, j) of this subset (offsets from its
+// centre) is pixel (i - dx, j - dy) of the prior's, where (dx, dy) is the
+// prior's centre minus this one's.
+func (s *Solver) sampleShared(def *Spline) {
+	r := s.cfg.Radius
+	side := 2*r + 1
+	dx, dy := s.priorDX, s.priorDY
+	c0, c1 := max(-r, dx-r), min(r, dx+r) // shared columns, as offsets i
+	for j := -r; j <= r; j++ {
+		k0 := (j + r) * side
+		pj := j - dy
+		if pj < -r || pj > r || c0 > c1 {
+			def.values(s.xs[k0:k0+side], s.ys[k0:k0+side], s.gs[k0:k0+side])
+			continue
+		}
+		a, b := k0+c0+r, k0+c1+r+1 // the shared span of this row
+		if a > k0 {
+			def.values(s.xs[k0:a], s.ys[k0:a], s.gs[k0:a])
+		}
+		pk := (pj+r)*side + c0 - dx + r
+		copy(s.gs[a:b], s.prior.G[pk:pk+b-a])
+		if b < k0+side {
+			def.values(s.xs[b:k0+side], s.ys[b:k0+side], s.gs[b:k0+side])
+		}
+	}
+}
