@@ -71,6 +71,10 @@ func foldRun(mo [][5]float64, r []float64, dy float64, deg int) {
 // per-run sums are split over three sweeps so that their accumulators
 // stay in registers.
 func (s *Solver) affineMoments(m *gradMoments) {
+	if s.square {
+		s.affineMomentsSquare(m)
+		return
+	}
 	for _, rn := range s.runs {
 		k0, k1 := rn.k0, rn.k0+rn.n
 		gx := s.gx[k0:k1]
@@ -112,6 +116,67 @@ func (s *Solver) affineMoments(m *gradMoments) {
 			xf1 += xf * d
 			yf0 += yf
 			yf1 += yf * d
+		}
+		dy := rn.dy
+		foldRun2(&m.q[0], xx0, xx1, xx2, dy)
+		foldRun2(&m.q[1], xy0, xy1, xy2, dy)
+		foldRun2(&m.q[2], yy0, yy1, yy2, dy)
+		foldRun1(&m.h[0], x0, x1, dy)
+		foldRun1(&m.h[1], y0, y1, dy)
+		foldRun1(&m.h[2], xf0, xf1, dy)
+		foldRun1(&m.h[3], yf0, yf1, dy)
+	}
+}
+
+// affineMomentsSquare is affineMoments for the full square subset, whose
+// rows run over dx = −r … r: the pixels at −d and +d of a row are taken
+// together, Σ q = Σ (q₋ + q₊), Σ q·dx = Σ d·(q₊ − q₋) and
+// Σ q·dx² = Σ d²·(q₋ + q₊), which saves a fifth of the arithmetic.
+func (s *Solver) affineMomentsSquare(m *gradMoments) {
+	r := s.cfg.Radius
+	side := 2*r + 1
+	for _, rn := range s.runs {
+		gx := s.gx[rn.k0 : rn.k0+side]
+		gy, fc := s.gy[rn.k0:rn.k0+side], s.fc[rn.k0:rn.k0+side]
+		gy, fc = gy[:len(gx)], fc[:len(gx)]
+		// The centre pixel (d = 0) adds to the plain sums only.
+		X, Y, F := gx[r], gy[r], fc[r]
+		xx0, xy0, yy0 := X*X, X*Y, Y*Y
+		x0, y0, xf0, yf0 := X, Y, X*F, Y*F
+		var xx1, xx2, xy1, xy2, yy1, yy2 float64
+		for d := 1; d <= r; d++ {
+			a, b := r-d, r+d
+			dd := float64(d)
+			d2 := dd * dd
+			Xa, Xb, Ya, Yb := gx[a], gx[b], gy[a], gy[b]
+			sxx, txx := Xa*Xa+Xb*Xb, Xb*Xb-Xa*Xa
+			sxy, txy := Xa*Ya+Xb*Yb, Xb*Yb-Xa*Ya
+			xx0 += sxx
+			xx1 += dd * txx
+			xx2 += d2 * sxx
+			xy0 += sxy
+			xy1 += dd * txy
+			xy2 += d2 * sxy
+			syy, tyy := Ya*Ya+Yb*Yb, Yb*Yb-Ya*Ya
+			yy0 += syy
+			yy1 += dd * tyy
+			yy2 += d2 * syy
+		}
+		var x1, y1, xf1, yf1 float64
+		for d := 1; d <= r; d++ {
+			a, b := r-d, r+d
+			dd := float64(d)
+			Xa, Xb, Ya, Yb := gx[a], gx[b], gy[a], gy[b]
+			Fa, Fb := fc[a], fc[b]
+			x0 += Xa + Xb
+			x1 += dd * (Xb - Xa)
+			y0 += Ya + Yb
+			y1 += dd * (Yb - Ya)
+			xfa, xfb, yfa, yfb := Xa*Fa, Xb*Fb, Ya*Fa, Yb*Fb
+			xf0 += xfa + xfb
+			xf1 += dd * (xfb - xfa)
+			yf0 += yfa + yfb
+			yf1 += dd * (yfb - yfa)
 		}
 		dy := rn.dy
 		foldRun2(&m.q[0], xx0, xx1, xx2, dy)

@@ -53,3 +53,35 @@ func TestSolveSharedEqualsSolve(t *testing.T) {
 		t.Errorf("another start: %+v, Solve %+v", b, a)
 	}
 }
+
+// A subset with every pixel measured gives the same solution whether it
+// comes with a mask of all-measured pixels (the general path over runs)
+// or without one (the full-square path, with its paired moments), to
+// rounding; both orders.
+func TestFullSquareEqualsMaskedPath(t *testing.T) {
+	pat := testPattern(22)
+	refImg := pat.render(testSize, testSize, nil)
+	field := globalWarp{cx: 64, cy: 64, p: Params{PU: 1.3, PUx: 0.008, PUy: -0.004, PV: 0.6, PVx: 0.002, PVy: -0.01}}
+	defImg := pat.render(testSize, testSize, field.inverse)
+	ref, def := NewSpline(refImg, Bicubic), NewSpline(defImg, Bicubic)
+	mask := make([]uint8, testSize*testSize)
+	for i := range mask {
+		mask[i] = 255
+	}
+	for _, order := range []ShapeOrder{Affine, Quadratic} {
+		s := NewSolver(Config{Radius: 10, Order: order})
+		for _, pt := range gridPoints() {
+			guess := nearestTranslation(field.at(float64(pt[0]), float64(pt[1])))
+			a := s.Solve(ref, def, nil, pt[0], pt[1], guess)
+			b := s.Solve(ref, def, mask, pt[0], pt[1], guess)
+			if a.Status != Converged || b.Status != Converged || a.Iterations != b.Iterations {
+				t.Fatalf("%v at %v: %v in %d, masked %v in %d", order, pt, a.Status, a.Iterations, b.Status, b.Iterations)
+			}
+			for k := range a.P {
+				if math.Abs(a.P[k]-b.P[k]) > 1e-9 {
+					t.Errorf("%v at %v: parameter %d %.12g, masked path %.12g", order, pt, k, a.P[k], b.P[k])
+				}
+			}
+		}
+	}
+}
