@@ -213,12 +213,9 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	}
 	n := s.load(ref, mask, x, y)
 	side := 2*r + 1
-	var sum, sx, sy float64
-	for k, v := range s.fc[:n] {
-		gx, gy := s.gx[k], s.gy[k]
+	var sum float64
+	for _, v := range s.fc[:n] {
 		sum += v
-		sx += gx * gx
-		sy += gy * gy
 	}
 	if float64(n) < s.cfg.MinValidFraction*float64(side*side) || n <= s.np {
 		return Masked
@@ -236,8 +233,16 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	if s.fNorm <= 1e-6*math.Max(1, math.Abs(s.fMean))*math.Sqrt(float64(n)) {
 		return LowTexture
 	}
-	if s.cfg.MinSSSIG > 0 && math.Min(sx, sy) < s.cfg.MinSSSIG {
-		return LowTexture
+	if s.cfg.MinSSSIG > 0 {
+		var sx, sy float64
+		for k, gx := range s.gx[:n] {
+			gy := s.gy[k]
+			sx += gx * gx
+			sy += gy * gy
+		}
+		if math.Min(sx, sy) < s.cfg.MinSSSIG {
+			return LowTexture
+		}
 	}
 
 	// Steepest-descent images J = ∇f·∂W/∂p at p = 0, their sums and the
