@@ -213,21 +213,13 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	}
 	n := s.load(ref, mask, x, y)
 	side := 2*r + 1
-	var sum float64
-	for _, v := range s.fc[:n] {
-		sum += v
-	}
+	sum := sum4(s.fc[:n])
 	if float64(n) < s.cfg.MinValidFraction*float64(side*side) || n <= s.np {
 		return Masked
 	}
 	s.n = n
 	s.fMean = sum / float64(n)
-	var sff float64
-	for k := range s.fc[:n] {
-		s.fc[k] -= s.fMean
-		sff += s.fc[k] * s.fc[k]
-	}
-	s.fNorm = math.Sqrt(sff)
+	s.fNorm = math.Sqrt(centreSquares(s.fc[:n], s.fMean))
 	// A subset is flat when its standard deviation is below 1e-6 of its
 	// mean level (or of one gray level): spline rounding, not texture.
 	if s.fNorm <= 1e-6*math.Max(1, math.Abs(s.fMean))*math.Sqrt(float64(n)) {
@@ -252,6 +244,43 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 		return LowTexture
 	}
 	return Converged
+}
+
+// sum4 returns Σ v. Four partial sums break the chain of dependent
+// additions, which would otherwise bound the loop by the adder's latency.
+func sum4(v []float64) float64 {
+	var a, b, c, d float64
+	k := 0
+	for ; k+4 <= len(v); k += 4 {
+		a += v[k]
+		b += v[k+1]
+		c += v[k+2]
+		d += v[k+3]
+	}
+	for ; k < len(v); k++ {
+		a += v[k]
+	}
+	return (a + b) + (c + d)
+}
+
+// centreSquares subtracts mean from every value of v and returns the sum
+// of their squares, with four partial sums (see sum4).
+func centreSquares(v []float64, mean float64) float64 {
+	var a, b, c, d float64
+	k := 0
+	for ; k+4 <= len(v); k += 4 {
+		v0, v1, v2, v3 := v[k]-mean, v[k+1]-mean, v[k+2]-mean, v[k+3]-mean
+		v[k], v[k+1], v[k+2], v[k+3] = v0, v1, v2, v3
+		a += v0 * v0
+		b += v1 * v1
+		c += v2 * v2
+		d += v3 * v3
+	}
+	for ; k < len(v); k++ {
+		v[k] -= mean
+		a += v[k] * v[k]
+	}
+	return (a + b) + (c + d)
 }
 
 // load sets the subset's centre, its valid pixels' values and gradients
