@@ -44,19 +44,9 @@ func Script(p *Plan, campaign, out string, tasks []int, opt SubmitOptions) strin
 		array += fmt.Sprintf("%%%d", opt.MaxParallel)
 	}
 	fmt.Fprintf(&b, "#SBATCH --array=%s\n", array)
-	fmt.Fprintf(&b, "#SBATCH --cpus-per-task=%d\n", opt.CPUsPerTask)
-	if opt.Partition != "" {
-		fmt.Fprintf(&b, "#SBATCH --partition=%s\n", opt.Partition)
-	}
-	if opt.Mem != "" {
-		fmt.Fprintf(&b, "#SBATCH --mem=%s\n", opt.Mem)
-	}
-	if opt.Time != "" {
-		fmt.Fprintf(&b, "#SBATCH --time=%s\n", opt.Time)
-	}
+	writeResources(&b, opt)
 	fmt.Fprintf(&b, "#SBATCH --output=%s/slurm-%%A_%%a.log\n", out)
-	b.WriteString("set -euo pipefail\n")
-	b.WriteString("export GOMAXPROCS=\"${SLURM_CPUS_PER_TASK:-1}\"\n")
+	b.WriteString(scriptPrologue)
 	fmt.Fprintf(&b, "exec %s batch %q --out %q --shard \"${SLURM_ARRAY_TASK_ID}/%d\"", opt.Binary, campaign, out, p.Tasks)
 	if p.FramesPerTask > 0 {
 		fmt.Fprintf(&b, " --frames-per-task %d", p.FramesPerTask)
@@ -82,22 +72,30 @@ func MergeScript(p *Plan, campaign, out string, opt SubmitOptions) string {
 	b.WriteString("# --dependency=afterany on it). Merge finishes every test whose units are done and\n")
 	b.WriteString("# writes the campaign summary when all are; it lists what is missing otherwise.\n")
 	fmt.Fprintf(&b, "#SBATCH --job-name=%s-merge\n", JobName(p.Campaign))
-	fmt.Fprintf(&b, "#SBATCH --cpus-per-task=%d\n", opt.CPUsPerTask)
-	if opt.Partition != "" {
-		fmt.Fprintf(&b, "#SBATCH --partition=%s\n", opt.Partition)
-	}
-	if opt.Mem != "" {
-		fmt.Fprintf(&b, "#SBATCH --mem=%s\n", opt.Mem)
-	}
-	if opt.Time != "" {
-		fmt.Fprintf(&b, "#SBATCH --time=%s\n", opt.Time)
-	}
+	writeResources(&b, opt)
 	fmt.Fprintf(&b, "#SBATCH --output=%s/slurm-merge-%%j.log\n", out)
-	b.WriteString("set -euo pipefail\n")
-	b.WriteString("export GOMAXPROCS=\"${SLURM_CPUS_PER_TASK:-1}\"\n")
+	b.WriteString(scriptPrologue)
 	fmt.Fprintf(&b, "exec %s cluster merge %q --out %q\n", opt.Binary, campaign, out)
 	return b.String()
 }
+
+// writeResources writes the #SBATCH lines of each task's resources.
+func writeResources(b *strings.Builder, opt SubmitOptions) {
+	fmt.Fprintf(b, "#SBATCH --cpus-per-task=%d\n", opt.CPUsPerTask)
+	if opt.Partition != "" {
+		fmt.Fprintf(b, "#SBATCH --partition=%s\n", opt.Partition)
+	}
+	if opt.Mem != "" {
+		fmt.Fprintf(b, "#SBATCH --mem=%s\n", opt.Mem)
+	}
+	if opt.Time != "" {
+		fmt.Fprintf(b, "#SBATCH --time=%s\n", opt.Time)
+	}
+}
+
+// scriptPrologue starts the commands of a script: stop at the first
+// error, and use the CPUs Slurm gave the task.
+const scriptPrologue = "set -euo pipefail\nexport GOMAXPROCS=\"${SLURM_CPUS_PER_TASK:-1}\"\n"
 
 // JobName is the Slurm job name of a campaign's array job.
 func JobName(campaign string) string { return "spallscope-" + campaign }
