@@ -117,8 +117,14 @@ func (s *Solver) affineMoments(m *gradMoments) {
 			yf0 += yf
 			yf1 += yf * d
 		}
-		m.foldAffineRun(rn.dy, [3][3]float64{{xx0, xx1, xx2}, {xy0, xy1, xy2}, {yy0, yy1, yy2}},
-			[4][2]float64{{x0, x1}, {y0, y1}, {xf0, xf1}, {yf0, yf1}})
+		dy := rn.dy
+		foldRun2(&m.q[0], xx0, xx1, xx2, dy)
+		foldRun2(&m.q[1], xy0, xy1, xy2, dy)
+		foldRun2(&m.q[2], yy0, yy1, yy2, dy)
+		foldRun1(&m.h[0], x0, x1, dy)
+		foldRun1(&m.h[1], y0, y1, dy)
+		foldRun1(&m.h[2], xf0, xf1, dy)
+		foldRun1(&m.h[3], yf0, yf1, dy)
 	}
 }
 
@@ -172,20 +178,14 @@ func (s *Solver) affineMomentsSquare(m *gradMoments) {
 			yf0 += yfa + yfb
 			yf1 += dd * (yfb - yfa)
 		}
-		m.foldAffineRun(rn.dy, [3][3]float64{{xx0, xx1, xx2}, {xy0, xy1, xy2}, {yy0, yy1, yy2}},
-			[4][2]float64{{x0, x1}, {y0, y1}, {xf0, xf1}, {yf0, yf1}})
-	}
-}
-
-// foldAffineRun adds the per-run sums of a run at offset dy to the
-// moments the Affine order needs: q[c] = Σ q_c·dx^i (i ≤ 2) of the
-// gradient products, h[c] = Σ h_c·dx^i (i ≤ 1) of the first-order terms.
-func (m *gradMoments) foldAffineRun(dy float64, q [3][3]float64, h [4][2]float64) {
-	for c, r := range q {
-		foldRun2(&m.q[c], r[0], r[1], r[2], dy)
-	}
-	for c, r := range h {
-		foldRun1(&m.h[c], r[0], r[1], dy)
+		dy := rn.dy
+		foldRun2(&m.q[0], xx0, xx1, xx2, dy)
+		foldRun2(&m.q[1], xy0, xy1, xy2, dy)
+		foldRun2(&m.q[2], yy0, yy1, yy2, dy)
+		foldRun1(&m.h[0], x0, x1, dy)
+		foldRun1(&m.h[1], y0, y1, dy)
+		foldRun1(&m.h[2], xf0, xf1, dy)
+		foldRun1(&m.h[3], yf0, yf1, dy)
 	}
 }
 
