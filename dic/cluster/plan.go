@@ -1,7 +1,6 @@
 package cluster
 
 import (
-	"bufio"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -125,11 +124,7 @@ func WritePlan(out string, p *Plan) error {
 	if err := os.MkdirAll(out, 0o755); err != nil {
 		return err
 	}
-	return runfolder.WriteAtomic(filepath.Join(out, PlanFile), func(w *bufio.Writer) error {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		return enc.Encode(p)
-	})
+	return runfolder.WriteJSON(filepath.Join(out, PlanFile), p)
 }
 
 // ReadPlan reads the plan in out; (nil, nil) when there is none.

@@ -2,7 +2,6 @@ package runfolder
 
 import (
 	"bufio"
-	"encoding/json"
 	"fmt"
 	"path/filepath"
 
@@ -227,11 +226,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*OnsetRe
 	if Section(dir, "resolution", &res) == nil {
 		rep.Resolution = &res
 	}
-	err = WriteAtomic(filepath.Join(dir, OnsetJSON), func(w *bufio.Writer) error {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		return enc.Encode(rep)
-	})
+	err = WriteJSON(filepath.Join(dir, OnsetJSON), rep)
 	return rep, err
 }
 

@@ -132,11 +132,7 @@ func Write(sc *Scenario, dir string, progress func(done, total int)) (*Truth, er
 	if err := writeLoadLog(filepath.Join(dir, LoadLogCSV), sc); err != nil {
 		return nil, err
 	}
-	err = runfolder.WriteAtomic(filepath.Join(dir, TruthFile), func(w *bufio.Writer) error {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		return enc.Encode(truth)
-	})
+	err = runfolder.WriteJSON(filepath.Join(dir, TruthFile), truth)
 	if err != nil {
 		return nil, err
 	}

@@ -3,7 +3,6 @@ package testrun
 import (
 	"bufio"
 	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"html/template"
 	"os"
@@ -189,9 +188,7 @@ func WriteOutcome(out string, r Result) error {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
-	return runfolder.WriteAtomic(filepath.Join(dir, OutcomeFile), func(w *bufio.Writer) error {
-		return json.NewEncoder(w).Encode(Outcome{Config: r.Config, OK: r.Err == "", Error: r.Err})
-	})
+	return runfolder.WriteJSON(filepath.Join(dir, OutcomeFile), Outcome{Config: r.Config, OK: r.Err == "", Error: r.Err})
 }
 
 // ReadOutcome reads a test's outcome; fs.ErrNotExist when it has none yet.

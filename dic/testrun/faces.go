@@ -2,7 +2,6 @@ package testrun
 
 import (
 	"bufio"
-	"encoding/json"
 	"fmt"
 	"html/template"
 	"path/filepath"
@@ -108,11 +107,7 @@ func runFaces(t *testconfig.Test, out, tool string, progress Progress) (*Summary
 			timeline = fig.PNG
 		}
 	}
-	err := runfolder.WriteAtomic(filepath.Join(out, "faces.json"), func(w *bufio.Writer) error {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		return enc.Encode(rep)
-	})
+	err := runfolder.WriteJSON(filepath.Join(out, "faces.json"), rep)
 	if err != nil {
 		return nil, err
 	}

@@ -2,7 +2,6 @@ package model
 
 import (
 	"bufio"
-	"encoding/json"
 	"fmt"
 	"math"
 	"os"
@@ -59,11 +58,7 @@ func Write(dir string, c *Comparison) error {
 	if err != nil {
 		return err
 	}
-	return runfolder.WriteAtomic(filepath.Join(dir, SummaryFile), func(w *bufio.Writer) error {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		return enc.Encode(summaryOf(c))
-	})
+	return runfolder.WriteJSON(filepath.Join(dir, SummaryFile), summaryOf(c))
 }
 
 // summary is the JSON form of a comparison, NaN written as null.
