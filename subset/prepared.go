@@ -68,13 +68,6 @@ func (s *Solver) restore(c *Prepared) {
 	}
 }
 
-// SolveWith is Solve with the reference side of the subset taken from c
-// when c holds it, and recorded in c otherwise (c nil: Solve).
-func (s *Solver) SolveWith(ref, def *Spline, mask []uint8, x, y int, guess Params, c *Prepared) Result {
-	s.PrepareWith(ref, mask, x, y, c)
-	return s.Iterate(def, guess)
-}
-
 // PrepareWith is Prepare with the reference side of the subset taken from
 // c when c holds it, and recorded in c otherwise (c nil: Prepare).
 func (s *Solver) PrepareWith(ref *Spline, mask []uint8, x, y int, c *Prepared) Status {

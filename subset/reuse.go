@@ -40,11 +40,12 @@ func (s *Samples) Guess(x, y int) Params {
 	return Carry(s.P, float64(x-s.X), float64(y-s.Y))
 }
 
-// SolveShared is SolveWith that, for a full square subset of the Affine
-// order, takes from prior (when not nil and holding values, and guess is
+// SolveShared is Solve with the reference side taken from or recorded in c
+// (see PrepareWith; c may be nil) that, for a full square subset of the
+// Affine order, also takes from prior (when not nil and holding values, and guess is
 // prior.Guess(x, y)) the first-iteration values of the pixels it shares
 // with prior's subset, and leaves in keep (when not nil) the values it
-// sampled at its last iterate. The result equals SolveWith's to rounding.
+// sampled at its last iterate. The result equals Solve's to rounding.
 func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Params, c *Prepared, prior, keep *Samples) Result {
 	s.PrepareWith(ref, mask, x, y, c)
 	s.prior = nil

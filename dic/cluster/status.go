@@ -27,6 +27,8 @@ type UnitState struct {
 	Task  int    `json:"task"`
 	State State  `json:"state"`
 	Error string `json:"error,omitempty"`
+
+	fingerprint string // a frame part's track fingerprint, from its record
 }
 
 // Status reads the outcome of every unit of plan p from the run folders
@@ -45,7 +47,7 @@ func Status(p *Plan, out string) ([]UnitState, error) {
 		} else {
 			var r testrun.PartRecord
 			r, err = testrun.ReadPartRecord(filepath.Join(out, u.Test), *u.Part)
-			ok, msg = r.OK, r.Error
+			ok, msg, st.fingerprint = r.OK, r.Error, r.Fingerprint
 		}
 		switch {
 		case errors.Is(err, fs.ErrNotExist):
@@ -88,8 +90,7 @@ func Unfinished(p *Plan, out, tool string) ([]int, error) {
 				}
 				current[s.Test] = fp
 			}
-			r, _ := testrun.ReadPartRecord(filepath.Join(out, s.Test), *s.Part)
-			done = fp != "" && r.Fingerprint == fp
+			done = fp != "" && s.fingerprint == fp
 		}
 		if !done && !seen[s.Task] {
 			seen[s.Task] = true

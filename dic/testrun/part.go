@@ -2,7 +2,6 @@ package testrun
 
 import (
 	"bufio"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -139,7 +138,7 @@ func TrackPart(config, testDir, tool string, p Part, progress Progress) (err err
 		} else {
 			rec.OK = true
 		}
-		if werr := writeJSONAtomic(recPath, rec); werr != nil && err == nil {
+		if werr := runfolder.WriteJSON(recPath, rec); werr != nil && err == nil {
 			err = werr
 		}
 	}()
@@ -177,22 +176,7 @@ func TrackPart(config, testDir, tool string, p Part, progress Progress) (err err
 	}
 	from := p.From
 	if st := stages["track"]; st.Fingerprint == tp.fingerprint {
-		for from < p.To {
-			if _, err := os.Stat(runfolder.FieldPath(dir, tp.in.Seq.Name(from))); err != nil {
-				break
-			}
-			from++
-		}
-		if from > p.From {
-			f, err := runfolder.ReadField(runfolder.FieldPath(dir, tp.in.Seq.Name(from-1)))
-			if err == nil {
-				err = tracker.Resume(f)
-			}
-			if err != nil {
-				from = p.From
-				tracker, _ = dic.NewTracker(tp.in.Ref, max(tp.in.RefIndex, 0), tp.in.Mask, tp.settings)
-			}
-		}
+		from = tp.resume(dir, tracker, p.From, p.To)
 	}
 	if from == p.From {
 		os.RemoveAll(filepath.Join(dir, runfolder.FieldsDir))
@@ -296,15 +280,6 @@ func linkOrCopy(src, dst string) error {
 	return runfolder.WriteAtomic(dst, func(w *bufio.Writer) error {
 		_, err := io.Copy(w, in)
 		return err
-	})
-}
-
-// writeJSONAtomic writes v as JSON to path, renamed into place whole.
-func writeJSONAtomic(path string, v any) error {
-	return runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		return enc.Encode(v)
 	})
 }
 

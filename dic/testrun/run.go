@@ -111,17 +111,7 @@ func Run(t *testconfig.Test, out, tool string, progress Progress) (*Summary, err
 			return nil, fmt.Errorf("test %s: %w", t.Name, err)
 		}
 		if st.Fingerprint == fpTrack && tracker.Settings().Reference == dic.FixedReference {
-			from = resumePoint(out, in)
-			if from > 0 {
-				f, err := runfolder.ReadField(runfolder.FieldPath(out, in.Seq.Name(from-1)))
-				if err == nil {
-					err = tracker.Resume(f)
-				}
-				if err != nil {
-					from = 0 // the last field cannot be used: start again
-					tracker, _ = dic.NewTracker(in.Ref, max(in.RefIndex, 0), in.Mask, settings)
-				}
-			}
+			from = tp.resume(out, tracker, 0, in.Seq.Len())
 		}
 		if from == 0 {
 			clearFrom(out, "track")
@@ -282,17 +272,6 @@ func zones(t *testconfig.Test, out string, times []float64, loadPath string, sca
 	}
 	_, err = runfolder.Zones(out, st, states, "")
 	return err
-}
-
-// resumePoint is the index of the first frame without a complete field
-// file (files are renamed into place, so one that exists is whole).
-func resumePoint(out string, in *Inputs) int {
-	for i := 0; i < in.Seq.Len(); i++ {
-		if _, err := os.Stat(runfolder.FieldPath(out, in.Seq.Name(i))); err != nil {
-			return i
-		}
-	}
-	return in.Seq.Len()
 }
 
 // clearFrom removes the outputs of a stage and of every later one.

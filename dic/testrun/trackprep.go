@@ -2,6 +2,7 @@ package testrun
 
 import (
 	"fmt"
+	"os"
 
 	"spallscope/dic"
 	"spallscope/dic/runfolder"
@@ -60,4 +61,30 @@ func prepareTrack(t *testconfig.Test, tool string) (*trackInputs, error) {
 // record is the start of the track stage's run.json section.
 func (tp *trackInputs) record(t *testconfig.Test, tool string) runfolder.TrackRecord {
 	return runfolder.TrackRecord{Tool: tool, Images: t.Resolve(t.Images), Reference: resolveRef(t), MMPerPx: tp.scale, Times: tp.times, Exclude: tp.exclude}
+}
+
+// resume finds the first of frames from … to−1 without a complete field
+// in dir (fields are renamed into place, so one that exists is whole) and,
+// when it is past from, resumes tracker (fresh, fixed reference) after the
+// field before it, returning that first frame. If that field cannot be
+// used, the run starts again at from.
+func (tp *trackInputs) resume(dir string, tracker *dic.Tracker, from, to int) int {
+	next := from
+	for next < to {
+		if _, err := os.Stat(runfolder.FieldPath(dir, tp.in.Seq.Name(next))); err != nil {
+			break
+		}
+		next++
+	}
+	if next == from {
+		return from
+	}
+	f, err := runfolder.ReadField(runfolder.FieldPath(dir, tp.in.Seq.Name(next-1)))
+	if err == nil {
+		err = tracker.Resume(f) // leaves the tracker as it was on error
+	}
+	if err != nil {
+		return from
+	}
+	return next
 }
