@@ -18,6 +18,7 @@ import (
 	"spallscope/dic/frames"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
+	"spallscope/strain/strainfile"
 	"spallscope/subset"
 )
 
@@ -244,8 +245,8 @@ type renderRun struct {
 	stress   map[string]float64
 	peak     float64
 	zones    map[string][]ZoneOutline
-	onsets   []runfolder.OnsetRecord
-	res      *runfolder.ResolutionRecord
+	onsets   []strainfile.OnsetRecord
+	res      *strainfile.ResolutionRecord
 	notes    []string
 }
 
@@ -260,7 +261,7 @@ func openRenderRun(dir string, opt Options) (*renderRun, error) {
 	if err := runfolder.Section(dir, "track", &tr); err != nil {
 		return nil, fmt.Errorf("run folder %s: no track record to find the photos (%w)", dir, err)
 	}
-	rr.grid, rr.scale = tr.Grid, runfolder.Scale(dir)
+	rr.grid, rr.scale = tr.Grid, strainfile.Scale(dir)
 	images := opt.Images
 	if images == "" {
 		images = tr.Images
@@ -302,7 +303,7 @@ func openRenderRun(dir string, opt Options) (*renderRun, error) {
 			rr.times[name] = tr.Times[k]
 		}
 	}
-	var tl runfolder.TimelineRecord
+	var tl strainfile.TimelineRecord
 	if runfolder.Section(dir, "timeline", &tl) == nil {
 		for k, name := range tl.Frames {
 			if k < len(tl.Times) {
@@ -323,7 +324,7 @@ func openRenderRun(dir string, opt Options) (*renderRun, error) {
 	if err := rr.readZones(); err != nil {
 		return nil, err
 	}
-	var res runfolder.ResolutionRecord
+	var res strainfile.ResolutionRecord
 	if runfolder.Section(dir, "resolution", &res) == nil {
 		rr.res = &res
 	}
@@ -393,7 +394,7 @@ func (rr *renderRun) photo(name, on string) (*subset.Image, error) {
 
 // readOnsets reads onset.json when the run has one.
 func (rr *renderRun) readOnsets() error {
-	path := filepath.Join(rr.dir, runfolder.OnsetJSON)
+	path := filepath.Join(rr.dir, strainfile.OnsetJSON)
 	data, err := os.ReadFile(path)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil
@@ -401,7 +402,7 @@ func (rr *renderRun) readOnsets() error {
 	if err != nil {
 		return err
 	}
-	var rep runfolder.OnsetReport
+	var rep strainfile.OnsetReport
 	if err := json.Unmarshal(data, &rep); err != nil {
 		return fmt.Errorf("%s: %w", path, err)
 	}
@@ -414,14 +415,14 @@ func (rr *renderRun) readOnsets() error {
 
 // readZones reads the zones and their grid points when the run has them.
 func (rr *renderRun) readZones() error {
-	if !runFileExists(filepath.Join(rr.dir, runfolder.ZonesCSV)) {
+	if !runFileExists(filepath.Join(rr.dir, strainfile.ZonesCSV)) {
 		return nil
 	}
-	if !runFileExists(filepath.Join(rr.dir, runfolder.ZoneCellsCSV)) {
-		rr.notes = append(rr.notes, fmt.Sprintf("no zone outlines: %s has no %s (run zones again to write it)", rr.dir, runfolder.ZoneCellsCSV))
+	if !runFileExists(filepath.Join(rr.dir, strainfile.ZoneCellsCSV)) {
+		rr.notes = append(rr.notes, fmt.Sprintf("no zone outlines: %s has no %s (run zones again to write it)", rr.dir, strainfile.ZoneCellsCSV))
 		return nil
 	}
-	zs, err := runfolder.ReadZones(rr.dir)
+	zs, err := strainfile.ReadZones(rr.dir)
 	if err != nil {
 		return err
 	}
@@ -452,7 +453,7 @@ func (rr *renderRun) frameValues(q Quantity, name string, disp bool) (frameData,
 	}
 	var err error
 	if q.NeedsStrain() {
-		sf, err := runfolder.ReadStrain(runfolder.StrainPath(rr.dir, name))
+		sf, err := strainfile.ReadStrain(strainfile.StrainPath(rr.dir, name))
 		if err != nil {
 			if errors.Is(err, fs.ErrNotExist) {
 				return fd, fmt.Errorf("frame %s: no strain file (run strain first, or show u, v, disp or zncc): %w", name, err)
@@ -501,7 +502,7 @@ func (rr *renderRun) overlayOptions(q Quantity, lim Limits, k int, name string) 
 }
 
 // onsetLegend is an onset's panel line: class, place and nominal stress.
-func onsetLegend(o runfolder.OnsetRecord) string {
+func onsetLegend(o strainfile.OnsetRecord) string {
 	place := string(o.Sector)
 	if o.OpeningName != "" {
 		place += " " + o.OpeningName

@@ -8,9 +8,8 @@ import (
 	"path/filepath"
 	"slices"
 	"sort"
+	"spallscope/strain/strainfile"
 	"time"
-
-	"spallscope/dic/runfolder"
 )
 
 //go:embed templates/report.html.tmpl templates/report.css
@@ -100,7 +99,7 @@ func newPage(r *runRecords, figs []Figure, gauges *virtualReadings, out string, 
 	// ones say what ours say).
 	if r.Onset != nil {
 		for _, c := range r.Onset.Cautions {
-			if !slices.Contains(p.Cautions, c) && !slices.Contains(runfolder.Cautions, c) {
+			if !slices.Contains(p.Cautions, c) && !slices.Contains(strainfile.Cautions, c) {
 				p.Cautions = append(p.Cautions, c)
 			}
 		}

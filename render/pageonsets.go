@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math"
 
-	"spallscope/dic/runfolder"
 	"spallscope/strain"
+	"spallscope/strain/strainfile"
 )
 
 // pageOnset is one row of the onset table, every value already formatted.
@@ -79,7 +79,7 @@ func onsetRows(r *runRecords) []pageOnset {
 }
 
 // newPageContext formats the boundary-stress comparison of an onset.
-func newPageContext(o runfolder.OnsetRecord, k float64) *pageContext {
+func newPageContext(o strainfile.OnsetRecord, k float64) *pageContext {
 	c := o.Context
 	formula := "(3 − K)"
 	if o.Sector == strain.Crown || o.Sector == strain.Invert {
@@ -107,7 +107,7 @@ func newPageContext(o runfolder.OnsetRecord, k float64) *pageContext {
 }
 
 // openingNames names the openings of indices.
-func openingNames(ops []runfolder.OpeningRecord, indices []int) string {
+func openingNames(ops []strainfile.OpeningRecord, indices []int) string {
 	s := ""
 	for k, i := range indices {
 		name := fmt.Sprint(i)

@@ -3,9 +3,8 @@ package render
 import (
 	"fmt"
 	"path/filepath"
+	"spallscope/strain/strainfile"
 	"strings"
-
-	"spallscope/dic/runfolder"
 )
 
 // pageRow is one row of a two-column table: a label, its value and an
@@ -128,7 +127,7 @@ func settingsRows(r *runRecords) []pageRow {
 }
 
 // noiseRows is the resolution table: the noise floor of each quantity.
-func noiseRows(res *runfolder.ResolutionRecord) []pageNoise {
+func noiseRows(res *strainfile.ResolutionRecord) []pageNoise {
 	if res == nil {
 		return nil
 	}
@@ -156,7 +155,7 @@ func noiseRows(res *runfolder.ResolutionRecord) []pageNoise {
 }
 
 // staticFrames says which frames gave the noise floor.
-func staticFrames(res *runfolder.ResolutionRecord) string {
+func staticFrames(res *strainfile.ResolutionRecord) string {
 	if res == nil {
 		return ""
 	}

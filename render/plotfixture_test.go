@@ -16,6 +16,7 @@ import (
 	"spallscope/dic/runfolder"
 	"spallscope/dic/speckle"
 	"spallscope/strain"
+	"spallscope/strain/strainfile"
 	"spallscope/subset"
 )
 
@@ -70,7 +71,7 @@ func fixtureField(k int) *dic.Field {
 
 // writeFixtureRun writes the fixture's run folder in dir: run.json (track,
 // strain, resolution, timeline and load sections), the fields and strain
-// files (through the strain stage), onset.json, zones.csv and
+// files (as the strain stage writes them), onset.json, zones.csv and
 // zone_cells.csv, overlays/*.png and a speckle pattern assessment with its
 // map (a stand-in image).
 func writeFixtureRun(t testing.TB, dir string) {
@@ -87,16 +88,27 @@ func writeFixtureRun(t testing.TB, dir string) {
 		}
 	}
 	fixtureMust(t, runfolder.SetSection(dir, "track", track))
-	if _, _, err := runfolder.Strain(dir, strain.Window{Size: 3}, 0, 0, 0, nil); err != nil {
-		t.Fatal(err)
+	// The strain files as the strain stage writes them: from the fields
+	// read back, over a 3-point window.
+	win := strain.Window{Size: 3}
+	for k, name := range fixtureNames {
+		f, err := runfolder.ReadField(runfolder.FieldPath(dir, name))
+		fixtureMust(t, err)
+		f.Index = k
+		sf, err := win.Strain(f)
+		fixtureMust(t, err)
+		fixtureMust(t, strainfile.WriteStrain(strainfile.StrainPath(dir, name), sf, scale))
 	}
-	res := runfolder.ResolutionRecord{
+	vsg := win.VSG(settings.Step, settings.Subset)
+	fixtureMust(t, runfolder.SetSection(dir, "strain", strainfile.StrainRecord{Window: 3, Order: 1, Measure: strain.Engineering,
+		Step: settings.Step, Subset: settings.Subset, VSG: vsg, VSGmm: scale.MM(float64(vsg)), MMPerPx: scale, Frames: fixtureNames}))
+	res := strainfile.ResolutionRecord{
 		Resolution:   strain.Resolution{Frames: 2, U: 0.004, V: 0.005, Exx: 60e-6, Eyy: 70e-6, Exy: 40e-6, E1: 65e-6, E2: 62e-6, GammaMax: 75e-6, Eeq: 58e-6},
 		StaticFrames: fixtureNames[:2], Subset: 15, Step: 8, Window: 3, VSG: 31, VSGmm: 3.1, UMM: 0.0004,
 		Interpolation: "bicubic", ShapeFunction: "affine", Measure: "engineering",
 	}
 	fixtureMust(t, runfolder.SetSection(dir, "resolution", res))
-	tl := runfolder.TimelineRecord{Frames: fixtureNames, Times: fixtureTimes, Stress: fixtureStress,
+	tl := strainfile.TimelineRecord{Frames: fixtureNames, Times: fixtureTimes, Stress: fixtureStress,
 		InSpan: []bool{true, true, true, true, true, false}}
 	fixtureMust(t, runfolder.SetSection(dir, "timeline", tl))
 	ld := runfolder.LoadRecord{Path: "load.csv", AreaMM2: 480, Peak: 24, PeakAt: 8}
@@ -138,26 +150,26 @@ const fixtureOnsetCount = 3
 func writeFixtureOnsets(t testing.TB, dir string) {
 	t.Helper()
 	const k, ucs = 0.0, 60.0
-	onset := func(sec strain.Sector, class string, ind strain.Indicator, frame, zone int, area, peak, cx, cy float64) runfolder.OnsetRecord {
-		o := runfolder.OnsetRecord{OpeningName: "A", Onset: strain.Onset{Opening: 0, Sector: sec, Class: class, Indicator: ind,
+	onset := func(sec strain.Sector, class string, ind strain.Indicator, frame, zone int, area, peak, cx, cy float64) strainfile.OnsetRecord {
+		o := strainfile.OnsetRecord{OpeningName: "A", Onset: strain.Onset{Opening: 0, Sector: sec, Class: class, Indicator: ind,
 			Frame: frame, Name: fixtureNames[frame], Time: fixtureTimes[frame], Stress: fixtureStress[frame],
 			Percent: 100 * fixtureStress[frame] / 24, InSpan: frame < 5, Zone: zone, AreaMM2: area, AreaPx2: area / 0.01,
 			Peak: peak, Cx: cx, Cy: cy, ByIndicator: map[strain.Indicator]int{ind: frame}, Touches: []int{0}}}
 		o.Context, _ = strain.NewContext(sec, o.Stress, k, ucs)
 		return o
 	}
-	rep := runfolder.OnsetReport{Tool: "spallscope test", Peak: runfolder.PeakRecord{Stress: 24, Time: 8, Frame: fixtureNames[4]},
-		Openings: []runfolder.OpeningRecord{{Index: 0, Name: "A"}},
-		Onsets: []runfolder.OnsetRecord{
+	rep := strainfile.OnsetReport{Tool: "spallscope test", Peak: strainfile.PeakRecord{Stress: 24, Time: 8, Frame: fixtureNames[4]},
+		Openings: []strainfile.OpeningRecord{{Index: 0, Name: "A"}},
+		Onsets: []strainfile.OnsetRecord{
 			onset(strain.LeftSidewall, strain.Localization, strain.MaxPrincipal, 3, 1, 1.92, 2.1e-3, 48, 60),
 			onset(strain.RightSidewall, strain.Localization, strain.MaxShear, 3, 2, 1.28, 1.7e-3, 96, 60),
 			onset(strain.Crown, strain.Decorrelated, strain.Decorrelation, 5, 3, 0.64, 1, 72, 36),
 		},
-		Settings: runfolder.ZoneSettings{Indicators: []strain.Indicator{strain.MaxPrincipal, strain.MaxShear, strain.Decorrelation},
+		Settings: strainfile.ZoneSettings{Indicators: []strain.Indicator{strain.MaxPrincipal, strain.MaxShear, strain.Decorrelation},
 			Persistence: 3, CalibrateBelow: 0.2, CalibFrames: 2, K: k, UCS: ucs},
-		Cautions: runfolder.Cautions,
+		Cautions: strainfile.Cautions,
 	}
-	fixtureMust(t, runfolder.WriteAtomic(filepath.Join(dir, runfolder.OnsetJSON), func(w *bufio.Writer) error {
+	fixtureMust(t, runfolder.WriteAtomic(filepath.Join(dir, strainfile.OnsetJSON), func(w *bufio.Writer) error {
 		return json.NewEncoder(w).Encode(rep)
 	}))
 	type zrow struct {
@@ -175,8 +187,8 @@ func writeFixtureOnsets(t testing.TB, dir string) {
 		{5, 2, "right-sidewall", "gamma_max", 2.56, 2.9e-3, "53;54;67;68;81"},
 		{5, 3, "crown", "decorrelation", 0.64, 1, "34;35;36;37"},
 	}
-	fixtureMust(t, runfolder.WriteAtomic(filepath.Join(dir, runfolder.ZonesCSV), func(w *bufio.Writer) error {
-		w.WriteString(runfolder.ZonesHeader + "\n")
+	fixtureMust(t, runfolder.WriteAtomic(filepath.Join(dir, strainfile.ZonesCSV), func(w *bufio.Writer) error {
+		w.WriteString(strainfile.ZonesHeader + "\n")
 		for _, z := range rows {
 			class := "localization"
 			if z.ind == "decorrelation" {
@@ -187,7 +199,7 @@ func writeFixtureOnsets(t testing.TB, dir string) {
 		}
 		return nil
 	}))
-	fixtureMust(t, runfolder.WriteAtomic(filepath.Join(dir, runfolder.ZoneCellsCSV), func(w *bufio.Writer) error {
+	fixtureMust(t, runfolder.WriteAtomic(filepath.Join(dir, strainfile.ZoneCellsCSV), func(w *bufio.Writer) error {
 		w.WriteString("frame,zone,indicator,cells\n")
 		for _, z := range rows {
 			fmt.Fprintf(w, "%s,%d,%s,%s\n", fixtureNames[z.frame], z.zone, z.ind, z.cells)

@@ -12,6 +12,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 
 	"spallscope/dic/runfolder"
+	"spallscope/strain/strainfile"
 )
 
 // VirtualGaugesCSV is the file, in the plots folder, of the virtual
@@ -74,7 +75,7 @@ func readVirtualGauges(r *runRecords, opt PlotOptions) (*virtualReadings, error)
 		v.Ext = append(v.Ext, e)
 		mean, n := math.NaN(), 0
 		if v.HasStrain {
-			sf, err := runfolder.ReadStrain(runfolder.StrainPath(r.Dir, name))
+			sf, err := strainfile.ReadStrain(strainfile.StrainPath(r.Dir, name))
 			switch {
 			case errors.Is(err, fs.ErrNotExist):
 				v.HasStrain = false

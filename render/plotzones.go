@@ -4,12 +4,11 @@ import (
 	"fmt"
 	"image/color"
 	"slices"
+	"spallscope/strain/strainfile"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg/draw"
-
-	"spallscope/dic/runfolder"
 )
 
 // plotZoneCount is how many zones the zone histories draw: the largest
@@ -21,7 +20,7 @@ type zoneHistory struct {
 	Zone      int
 	Indicator string
 	Sector    string
-	Rows      []runfolder.ZoneRow
+	Rows      []strainfile.ZoneRow
 	MaxArea   float64
 }
 
@@ -31,7 +30,7 @@ func (h zoneHistory) Label() string {
 }
 
 // zoneHistories groups zone rows by zone id and indicator, largest first.
-func zoneHistories(rows []runfolder.ZoneRow, area func(runfolder.ZoneRow) float64) []zoneHistory {
+func zoneHistories(rows []strainfile.ZoneRow, area func(strainfile.ZoneRow) float64) []zoneHistory {
 	type key struct {
 		zone int
 		ind  string
@@ -67,11 +66,11 @@ func zoneHistories(rows []runfolder.ZoneRow, area func(runfolder.ZoneRow) float6
 
 // zoneArea returns the area of a zone in mm² when the run has a scale, in
 // px² otherwise, with the unit.
-func (r *runRecords) zoneArea() (func(runfolder.ZoneRow) float64, string) {
+func (r *runRecords) zoneArea() (func(strainfile.ZoneRow) float64, string) {
 	if r.Scale.Known() {
-		return func(z runfolder.ZoneRow) float64 { return z.AreaMM2 }, "mm²"
+		return func(z strainfile.ZoneRow) float64 { return z.AreaMM2 }, "mm²"
 	}
-	return func(z runfolder.ZoneRow) float64 { return z.AreaPx2 }, "px²"
+	return func(z strainfile.ZoneRow) float64 { return z.AreaPx2 }, "px²"
 }
 
 // plotZoneAreas draws the area of the largest zones frame by frame. It
@@ -104,7 +103,7 @@ func plotZoneAreas(r *runRecords) (Figure, bool, error) {
 // frame by frame (decorrelated zones have no strain and are left out). It
 // reports false when there are none.
 func plotZonePeaks(r *runRecords) (Figure, bool, error) {
-	var strainRows []runfolder.ZoneRow
+	var strainRows []strainfile.ZoneRow
 	for _, z := range r.Zones {
 		if z.Indicator != "decorrelation" {
 			strainRows = append(strainRows, z)

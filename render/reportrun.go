@@ -11,6 +11,7 @@ import (
 
 	"spallscope/dic"
 	"spallscope/dic/runfolder"
+	"spallscope/strain/strainfile"
 )
 
 // runRecords is what a run folder says about its test, read once for the
@@ -19,12 +20,12 @@ import (
 type runRecords struct {
 	Dir        string
 	Track      *runfolder.TrackRecord
-	Strain     *runfolder.StrainRecord
-	Resolution *runfolder.ResolutionRecord
-	Timeline   *runfolder.TimelineRecord
+	Strain     *strainfile.StrainRecord
+	Resolution *strainfile.ResolutionRecord
+	Timeline   *strainfile.TimelineRecord
 	Load       *runfolder.LoadRecord
-	Onset      *runfolder.OnsetReport
-	Zones      []runfolder.ZoneRow
+	Onset      *strainfile.OnsetReport
+	Zones      []strainfile.ZoneRow
 	AE         *runfolder.AERecord
 	Scale      dic.Scale
 	Axis       frameAxis
@@ -82,9 +83,9 @@ func readRunRecords(dir string) (*runRecords, error) {
 	}
 	r := &runRecords{Dir: dir}
 	var tr runfolder.TrackRecord
-	var sr runfolder.StrainRecord
-	var res runfolder.ResolutionRecord
-	var tl runfolder.TimelineRecord
+	var sr strainfile.StrainRecord
+	var res strainfile.ResolutionRecord
+	var tl strainfile.TimelineRecord
 	var ld runfolder.LoadRecord
 	var ae runfolder.AERecord
 	if runfolder.Section(dir, "ae", &ae) == nil {
@@ -112,11 +113,11 @@ func readRunRecords(dir string) (*runRecords, error) {
 			return nil, err
 		}
 	}
-	onsetPath := filepath.Join(dir, runfolder.OnsetJSON)
+	onsetPath := filepath.Join(dir, strainfile.OnsetJSON)
 	data, err := os.ReadFile(onsetPath)
 	switch {
 	case err == nil:
-		var rep runfolder.OnsetReport
+		var rep strainfile.OnsetReport
 		if err := json.Unmarshal(data, &rep); err != nil {
 			return nil, fmt.Errorf("%s: %w", onsetPath, err)
 		}
@@ -126,7 +127,7 @@ func readRunRecords(dir string) (*runRecords, error) {
 	default:
 		return nil, err
 	}
-	r.Zones, err = runfolder.ReadZones(dir)
+	r.Zones, err = strainfile.ReadZones(dir)
 	if err != nil {
 		if !errors.Is(err, fs.ErrNotExist) {
 			return nil, err
@@ -136,7 +137,7 @@ func readRunRecords(dir string) (*runRecords, error) {
 			r.Missing = append(r.Missing, fmt.Sprintf("zone histories not drawn: %v", err))
 		}
 	}
-	r.Scale = runfolder.Scale(dir)
+	r.Scale = strainfile.Scale(dir)
 	if r.Axis, err = r.frameAxis(); err != nil {
 		return nil, err
 	}
@@ -192,7 +193,7 @@ func (r *runRecords) frameAxis() (frameAxis, error) {
 }
 
 // OnsetX returns the place of an onset on the frame axis.
-func (r *runRecords) OnsetX(o runfolder.OnsetRecord) float64 {
+func (r *runRecords) OnsetX(o strainfile.OnsetRecord) float64 {
 	if x, ok := r.Axis.Of(o.Name); ok {
 		return x
 	}
@@ -203,7 +204,7 @@ func (r *runRecords) OnsetX(o runfolder.OnsetRecord) float64 {
 }
 
 // ZoneX returns the place of a zone row on the frame axis.
-func (r *runRecords) ZoneX(z runfolder.ZoneRow) float64 {
+func (r *runRecords) ZoneX(z strainfile.ZoneRow) float64 {
 	if x, ok := r.Axis.Of(z.Frame); ok {
 		return x
 	}
@@ -212,7 +213,7 @@ func (r *runRecords) ZoneX(z runfolder.ZoneRow) float64 {
 
 // ZoneFrame returns the position of a zone row's frame in the sequence,
 // −1 when the frame is not one of the run's.
-func (r *runRecords) ZoneFrame(z runfolder.ZoneRow) int {
+func (r *runRecords) ZoneFrame(z strainfile.ZoneRow) int {
 	if k, ok := r.Axis.index[z.Frame]; ok {
 		return k
 	}

@@ -16,6 +16,7 @@ import (
 	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
 	"spallscope/strain"
+	"spallscope/strain/strainfile"
 	"spallscope/subset"
 )
 
@@ -105,7 +106,7 @@ func synthRun(t *testing.T, frames int) (string, *synth.Scenario) {
 		t.Fatal(err)
 	}
 	dir := filepath.Join(root, "run")
-	for _, d := range []string{runfolder.FieldsDir, runfolder.StrainDir} {
+	for _, d := range []string{runfolder.FieldsDir, strainfile.StrainDir} {
 		if err := os.MkdirAll(filepath.Join(dir, d), 0o755); err != nil {
 			t.Fatal(err)
 		}
@@ -115,7 +116,7 @@ func synthRun(t *testing.T, frames int) (string, *synth.Scenario) {
 	scale := dic.Scale(sc.Specimen.MMPerPx)
 	rec := runfolder.TrackRecord{Images: filepath.Join(root, "synth", synth.FramesDir), Reference: "0", Grid: g, MMPerPx: scale,
 		Exclude: []string{fmt.Sprintf("circle:%g,%g,%g", hole.Cx, hole.Cy, hole.Rx)}}
-	var tl runfolder.TimelineRecord
+	var tl strainfile.TimelineRecord
 	for k := 0; k < frames; k++ {
 		name := sc.FrameName(k)
 		field := sc.FieldAt(k)
@@ -140,7 +141,7 @@ func synthRun(t *testing.T, frames int) (string, *synth.Scenario) {
 		if err := runfolder.WriteField(runfolder.FieldPath(dir, name), df, scale); err != nil {
 			t.Fatal(err)
 		}
-		if err := runfolder.WriteStrain(runfolder.StrainPath(dir, name), sf, scale); err != nil {
+		if err := strainfile.WriteStrain(strainfile.StrainPath(dir, name), sf, scale); err != nil {
 			t.Fatal(err)
 		}
 		rec.Frames = append(rec.Frames, name)
@@ -154,10 +155,10 @@ func synthRun(t *testing.T, frames int) (string, *synth.Scenario) {
 	if err := runfolder.SetSection(dir, "timeline", tl); err != nil {
 		t.Fatal(err)
 	}
-	onset := runfolder.OnsetReport{Peak: runfolder.PeakRecord{Stress: sc.Stress(frames - 1)}, Onsets: []runfolder.OnsetRecord{{
+	onset := strainfile.OnsetReport{Peak: strainfile.PeakRecord{Stress: sc.Stress(frames - 1)}, Onsets: []strainfile.OnsetRecord{{
 		Onset:       strain.Onset{Opening: 0, Sector: "left-sidewall", Class: strain.Localization, Frame: 1, Name: sc.FrameName(1), Stress: sc.Stress(1), InSpan: true, Cx: 30, Cy: 48},
 		OpeningName: "A"}}}
-	err = runfolder.WriteAtomic(filepath.Join(dir, runfolder.OnsetJSON), func(w *bufio.Writer) error { return json.NewEncoder(w).Encode(onset) })
+	err = runfolder.WriteAtomic(filepath.Join(dir, strainfile.OnsetJSON), func(w *bufio.Writer) error { return json.NewEncoder(w).Encode(onset) })
 	if err != nil {
 		t.Fatal(err)
 	}

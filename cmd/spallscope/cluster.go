@@ -8,8 +8,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"spallscope/dic/cluster"
-	"spallscope/dic/testconfig"
+	"spallscope/cmd/spallscope/internal/cluster"
+	"spallscope/cmd/spallscope/internal/config"
 )
 
 func newClusterCmd() *cobra.Command {
@@ -58,7 +58,7 @@ Submitting again with the same plan submits only the tasks that have a unit
 not done and are not queued or running; --all submits every task.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			c, err := testconfig.ReadCampaign(args[0])
+			c, err := config.ReadCampaign(args[0])
 			if err != nil {
 				return err
 			}
@@ -220,7 +220,7 @@ folder of a submitted campaign.`,
 
 // campaignOut is the campaign's output folder: out when given, else the
 // campaign's own, else "<name>_runs" beside it.
-func campaignOut(c *testconfig.Campaign, out string) string {
+func campaignOut(c *config.Campaign, out string) string {
 	if out == "" {
 		out = c.Out
 	}
@@ -235,7 +235,7 @@ func campaignOut(c *testconfig.Campaign, out string) string {
 // the output folder of a submitted campaign, whose plan names the
 // campaign file. Without a submitted plan, the plan is one unit per test
 // over tasks tasks.
-func openCampaign(arg, out string, tasks int) (*testconfig.Campaign, string, *cluster.Plan, error) {
+func openCampaign(arg, out string, tasks int) (*config.Campaign, string, *cluster.Plan, error) {
 	if st, err := os.Stat(filepath.Join(arg, cluster.PlanFile)); err == nil && !st.IsDir() {
 		plan, err := cluster.ReadPlan(arg)
 		if err != nil {
@@ -244,13 +244,13 @@ func openCampaign(arg, out string, tasks int) (*testconfig.Campaign, string, *cl
 		if plan.File == "" {
 			return nil, "", nil, fmt.Errorf("%s names no campaign file: give the campaign file and --out %s", filepath.Join(arg, cluster.PlanFile), arg)
 		}
-		c, err := testconfig.ReadCampaign(plan.File)
+		c, err := config.ReadCampaign(plan.File)
 		if err != nil {
 			return nil, "", nil, fmt.Errorf("the campaign of %s: %w", arg, err)
 		}
 		return c, arg, plan, nil
 	}
-	c, err := testconfig.ReadCampaign(arg)
+	c, err := config.ReadCampaign(arg)
 	if err != nil {
 		return nil, "", nil, err
 	}

@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"spallscope/dic/runfolder"
+	"spallscope/strain/strainfile"
 )
 
 // hasRow reports whether a table printed by tabwriter has a row starting
@@ -173,7 +174,7 @@ func TestFrameParts(t *testing.T) {
 	if _, err := os.Stat(filepath.Join(out, "summary.csv")); err == nil {
 		t.Error("merge of an incomplete campaign wrote a summary")
 	}
-	if _, err := os.Stat(filepath.Join(out, "band2", runfolder.OnsetJSON)); err != nil {
+	if _, err := os.Stat(filepath.Join(out, "band2", strainfile.OnsetJSON)); err != nil {
 		t.Errorf("band2 was not assembled: %v", err)
 	}
 	if _, err := run(t, "batch", camp, "--out", out, "--shard", "1/4", "--frames-per-task", "8"); err != nil {
@@ -254,11 +255,11 @@ func frameName(t *testing.T, dir string, i int) string {
 
 func onsetFrames(t *testing.T, dir string) string {
 	t.Helper()
-	b, err := os.ReadFile(filepath.Join(dir, runfolder.OnsetJSON))
+	b, err := os.ReadFile(filepath.Join(dir, strainfile.OnsetJSON))
 	if err != nil {
 		t.Fatal(err)
 	}
-	var rep runfolder.OnsetReport
+	var rep strainfile.OnsetReport
 	if err := json.Unmarshal(b, &rep); err != nil {
 		t.Fatal(err)
 	}

@@ -8,7 +8,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"spallscope/dic"
-	"spallscope/dic/testrun"
+	"spallscope/cmd/spallscope/internal/job"
 	"spallscope/strain/model"
 )
 
@@ -47,12 +47,12 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 			if frame == "" && stress == 0 {
 				return fmt.Errorf("give --frame, or --stress with a run whose zones stage placed the frames on the load log")
 			}
-			c, err := testrun.CompareModel(run, modelPath, f, frame, stress)
+			c, err := job.CompareModel(run, modelPath, f, frame, stress)
 			if err != nil {
 				return err
 			}
 			frame = c.FrameName
-			out := filepath.Join(run, testrun.ModelDir)
+			out := filepath.Join(run, job.ModelDir)
 			pics, _ := filepath.Glob(filepath.Join(out, "compare_*.png"))
 			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
 			fmt.Fprintf(w, "frame %s against %s\n", frame, modelPath)

@@ -9,10 +9,10 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/job"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
-	"spallscope/dic/testconfig"
-	"spallscope/dic/testrun"
 )
 
 // The demo rock's strength and the lateral stress ratio of its loading,
@@ -105,17 +105,17 @@ A complete demo folder is reused; an interrupted one resumes.`,
 			if err := os.WriteFile(cfgPath, []byte(demoConfig(front, back)), 0o644); err != nil {
 				return err
 			}
-			t, err := testconfig.Read(cfgPath)
+			t, err := config.Read(cfgPath)
 			if err != nil {
 				return err
 			}
 			runDir := filepath.Join(out, "run")
 			bars := newStageLines(cmd)
-			sum, err := testrun.Run(t, runDir, "spallscope "+version, func(stage string, done, total int) { bars.update("demo", stage, done, total) })
+			sum, err := job.Run(t, runDir, "spallscope "+version, func(stage string, done, total int) { bars.update("demo", stage, done, total) })
 			if err != nil {
 				return err
 			}
-			frontDir := filepath.Join(runDir, testrun.FacesDir, "front")
+			frontDir := filepath.Join(runDir, job.FacesDir, "front")
 			// Check against the exact field at the last frame before damage.
 			check := front.Fields[1].StartFrame
 			f, err := runfolder.ReadField(runfolder.FieldPath(frontDir, front.FrameName(check)))
@@ -143,7 +143,7 @@ A complete demo folder is reused; an interrupted one resumes.`,
 			if sum.AE != nil && sum.AE.Onset != nil {
 				fmt.Fprintf(o, "  acoustic emission: %d hits, hit-rate onset at camera time %.1f s, %d gap(s) in the record\n", sum.AE.Hits, sum.AE.Onset.Time, len(sum.AE.Gaps))
 			}
-			printModel(cmd, filepath.Join(frontDir, testrun.ModelDir))
+			printModel(cmd, filepath.Join(frontDir, job.ModelDir))
 			if sum.Report != "" {
 				fmt.Fprintf(o, "report: %s\n", sum.Report)
 			}

@@ -9,7 +9,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"spallscope/dic/testrun"
+	"spallscope/cmd/spallscope/internal/job"
 	"spallscope/strain/model"
 )
 
@@ -19,7 +19,7 @@ func printFaces(cmd *cobra.Command, run string) {
 	if err != nil {
 		return
 	}
-	var rep testrun.FacesReport
+	var rep job.FacesReport
 	if json.Unmarshal(data, &rep) != nil {
 		return
 	}

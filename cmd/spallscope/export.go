@@ -8,7 +8,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"spallscope/dic/export"
+	"spallscope/render/export"
 )
 
 func newExportCmd() *cobra.Command {

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"spallscope/dic/testrun"
+	"spallscope/cmd/spallscope/internal/job"
 )
 
 // Two faces of one test (the same synthetic photos seen by two cameras
@@ -25,7 +25,7 @@ func TestTwoFacesOnOneClock(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, f := range []string{"front", "back"} {
-		if _, err := os.Stat(filepath.Join(out, testrun.FacesDir, f, "onset.json")); err != nil {
+		if _, err := os.Stat(filepath.Join(out, job.FacesDir, f, "onset.json")); err != nil {
 			t.Errorf("face %s: %v", f, err)
 		}
 	}
@@ -33,12 +33,12 @@ func TestTwoFacesOnOneClock(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var rep testrun.FacesReport
+	var rep job.FacesReport
 	json.Unmarshal(data, &rep)
 	if rep.First == nil || rep.First.Face != "back" || math.Abs(rep.First.LogTime-7) > 1 {
 		t.Fatalf("first onset %+v, want the back face at log time 7 ± 1 s\n%s", rep.First, msg)
 	}
-	var front *testrun.FaceOnset
+	var front *job.FaceOnset
 	for i, o := range rep.Onsets {
 		if o.Face == "front" && o.Sector == "right-sidewall" {
 			front = &rep.Onsets[i]

@@ -5,10 +5,9 @@ import (
 	"image/png"
 	"os"
 	"path/filepath"
+	"spallscope/strain/strainfile"
 	"strings"
 	"testing"
-
-	"spallscope/dic/runfolder"
 )
 
 // report on the run folder of the whole pipeline over the small band
@@ -43,8 +42,8 @@ func TestReportCommandOnPipelineRun(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var rep runfolder.OnsetReport
-	data, _ := os.ReadFile(filepath.Join(out, runfolder.OnsetJSON))
+	var rep strainfile.OnsetReport
+	data, _ := os.ReadFile(filepath.Join(out, strainfile.OnsetJSON))
 	if err := json.Unmarshal(data, &rep); err != nil {
 		t.Fatal(err)
 	}

@@ -6,10 +6,10 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"spallscope/dic/cluster"
-	"spallscope/dic/runfolder"
-	"spallscope/dic/testconfig"
-	"spallscope/dic/testrun"
+	"spallscope/cmd/spallscope/internal/cluster"
+	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/job"
+	"spallscope/strain/strainfile"
 )
 
 func newRunCmd() *cobra.Command {
@@ -32,12 +32,12 @@ run.json records the tool version, settings, input hashes, stage timings and
 the measurement resolution.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			t, err := testconfig.Read(args[0])
+			t, err := config.Read(args[0])
 			if err != nil {
 				return err
 			}
 			bars := newStageLines(cmd)
-			s, err := testrun.Run(t, out, "spallscope "+version, func(stage string, done, total int) { bars.update(t.Name, stage, done, total) })
+			s, err := job.Run(t, out, "spallscope "+version, func(stage string, done, total int) { bars.update(t.Name, stage, done, total) })
 			bars.finish()
 			if err != nil {
 				return err
@@ -51,7 +51,7 @@ the measurement resolution.`,
 }
 
 // printSummary prints a run's outcome.
-func printSummary(cmd *cobra.Command, s *testrun.Summary) {
+func printSummary(cmd *cobra.Command, s *job.Summary) {
 	o := cmd.OutOrStdout()
 	fmt.Fprintf(o, "%s: %d frames in %.1f s -> %s", s.Name, s.Frames, s.Seconds, s.Out)
 	if len(s.Skipped) > 0 {
@@ -64,8 +64,8 @@ func printSummary(cmd *cobra.Command, s *testrun.Summary) {
 	if s.Resolution != nil {
 		fmt.Fprintf(o, "resolution: u %.4f px, exx %.0f µε (VSG %d px)\n", s.Resolution.U, s.Resolution.Exx*1e6, s.Resolution.VSG)
 	}
-	rep := &runfolder.OnsetReport{Peak: s.Peak, Onsets: s.Onsets}
-	printOnsets(cmd, rep, filepath.Join(s.Out, runfolder.OnsetJSON))
+	rep := &strainfile.OnsetReport{Peak: s.Peak, Onsets: s.Onsets}
+	printOnsets(cmd, rep, filepath.Join(s.Out, strainfile.OnsetJSON))
 	if s.Report != "" {
 		fmt.Fprintf(o, "report: %s\n", s.Report)
 	}
@@ -97,7 +97,7 @@ it) the shard's units follow the campaign's plan: tests with more than F
 frames are tracked in frame parts, and merge finishes them.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			c, err := testconfig.ReadCampaign(args[0])
+			c, err := config.ReadCampaign(args[0])
 			if err != nil {
 				return err
 			}
@@ -143,11 +143,11 @@ frames are tracked in frame parts, and merge finishes them.`,
 			}
 			bars := newStageLines(cmd)
 			bars.tests = len(c.Tests)
-			results := testrun.RunCampaign(c, out, tool, jobs, include, bars.update)
+			results := job.RunCampaign(c, out, tool, jobs, include, bars.update)
 			partErrs := runParts(parts, out, tool, bars.update)
 			bars.finish()
 			if !sharded {
-				if err := testrun.WriteCampaignSummary(out, c.Name, results); err != nil {
+				if err := job.WriteCampaignSummary(out, c.Name, results); err != nil {
 					return err
 				}
 			}
@@ -189,11 +189,11 @@ frames are tracked in frame parts, and merge finishes them.`,
 
 // runParts tracks the frame parts of a shard one after the other, each
 // into its test's run folder under out, and returns their errors.
-func runParts(units []cluster.Unit, out, tool string, progress testrun.CampaignProgress) []error {
+func runParts(units []cluster.Unit, out, tool string, progress job.CampaignProgress) []error {
 	var errs []error
 	for _, u := range units {
 		label := u.Test + " " + u.Part.String()
-		err := testrun.TrackPart(u.Config, filepath.Join(out, u.Test), tool, *u.Part,
+		err := job.TrackPart(u.Config, filepath.Join(out, u.Test), tool, *u.Part,
 			func(stage string, done, total int) { progress(label, stage, done, total) })
 		if err != nil {
 			errs = append(errs, fmt.Errorf("%s: %w", u, err))

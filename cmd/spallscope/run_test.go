@@ -11,6 +11,7 @@ import (
 	"time"
 
 	"spallscope/dic/runfolder"
+	"spallscope/strain/strainfile"
 )
 
 // TestMain lets the test binary act as the spallscope command for the
@@ -54,14 +55,14 @@ load: {file: synth/loadlog.csv, area_mm2: 480, clock_offset_s: 2}
 func readAll(t *testing.T, dir string) map[string][]byte {
 	t.Helper()
 	out := map[string][]byte{}
-	for _, sub := range []string{runfolder.FieldsDir, runfolder.StrainDir} {
+	for _, sub := range []string{runfolder.FieldsDir, strainfile.StrainDir} {
 		files, _ := filepath.Glob(filepath.Join(dir, sub, "*.csv"))
 		for _, f := range files {
 			b, _ := os.ReadFile(f)
 			out[filepath.Join(sub, filepath.Base(f))] = b
 		}
 	}
-	for _, f := range []string{runfolder.ZonesCSV, runfolder.ZoneCellsCSV} {
+	for _, f := range []string{strainfile.ZonesCSV, strainfile.ZoneCellsCSV} {
 		b, _ := os.ReadFile(filepath.Join(dir, f))
 		out[f] = b
 	}
@@ -152,7 +153,7 @@ func TestSettingsChangeReruns(t *testing.T) {
 	if st1, _ := os.Stat(field); !st1.ModTime().Equal(st0.ModTime()) {
 		t.Error("tracking was redone for a strain-window change")
 	}
-	var sr runfolder.StrainRecord
+	var sr strainfile.StrainRecord
 	if runfolder.Section(out, "strain", &sr); sr.Window != 7 {
 		t.Errorf("strain record window %d, want 7", sr.Window)
 	}
@@ -186,7 +187,7 @@ func TestBatchOfThree(t *testing.T) {
 		t.Error("summary.html has no table")
 	}
 	for _, name := range []string{"band", "band2"} {
-		if _, err := os.Stat(filepath.Join(out, name, runfolder.OnsetJSON)); err != nil {
+		if _, err := os.Stat(filepath.Join(out, name, strainfile.OnsetJSON)); err != nil {
 			t.Errorf("%s: %v", name, err)
 		}
 	}

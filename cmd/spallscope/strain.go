@@ -7,8 +7,10 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic/runfolder"
 	"spallscope/strain"
+	"spallscope/strain/strainfile"
 )
 
 func newStrainCmd() *cobra.Command {
@@ -79,12 +81,12 @@ RUN/run.json. Re-running with another window does not re-track.`,
 			if _, err := os.Stat(fields); err != nil {
 				return fmt.Errorf("--fields: %w", err)
 			}
-			rec, res, err := runfolder.Strain(fields, win, subsetSize, scale, static, progressLine(cmd, "strain: frame"))
+			rec, res, err := stage.Strain(fields, win, subsetSize, scale, static, progressLine(cmd, "strain: frame"))
 			if err != nil {
 				return err
 			}
 			o := cmd.OutOrStdout()
-			fmt.Fprintf(o, "strain of %d frames in %s: window %d points, %s, VSG %d px", len(rec.Frames), filepath.Join(fields, runfolder.StrainDir), rec.Window, rec.Measure, rec.VSG)
+			fmt.Fprintf(o, "strain of %d frames in %s: window %d points, %s, VSG %d px", len(rec.Frames), filepath.Join(fields, strainfile.StrainDir), rec.Window, rec.Measure, rec.VSG)
 			if rec.VSGmm > 0 {
 				fmt.Fprintf(o, " (%.2f mm)", rec.VSGmm)
 			}

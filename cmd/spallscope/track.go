@@ -6,9 +6,10 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/job"
+	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic"
 	"spallscope/dic/runfolder"
-	"spallscope/dic/testrun"
 	"spallscope/subset"
 )
 
@@ -87,11 +88,11 @@ func (f *trackFlags) settings() (dic.Settings, error) {
 }
 
 // open opens the sequence and the reference image, and builds the mask.
-func (f *trackFlags) open() (*testrun.Inputs, error) {
+func (f *trackFlags) open() (*job.Inputs, error) {
 	if f.images == "" {
 		return nil, fmt.Errorf("--images is required (a folder, glob, list file or video)")
 	}
-	return testrun.Open(f.images, f.ref, f.roi, f.exclude, f.maskFile)
+	return job.Open(f.images, f.ref, f.roi, f.exclude, f.maskFile)
 }
 
 func newTrackCmd() *cobra.Command {
@@ -158,7 +159,7 @@ read stops the run with an error naming it and keeps the fields written.`,
 				return err
 			}
 			rec := runfolder.TrackRecord{Tool: "spallscope " + version, Images: tf.images, Reference: tf.ref, Exclude: tf.exclude}
-			if rec.Times, err = testrun.Times(seq, tf.timesCSV, tf.fps, tf.mtime); err != nil {
+			if rec.Times, err = job.Times(seq, tf.timesCSV, tf.fps, tf.mtime); err != nil {
 				return err
 			}
 			if rec.MMPerPx, err = tf.scale.scale(); err != nil {
@@ -168,7 +169,7 @@ read stops the run with an error naming it and keeps the fields written.`,
 				rec.Reference = "0"
 			}
 			prog := newRateLine(cmd, "track", seq.Len(), tracker.Grid().Len())
-			rec, err = runfolder.Track(out, seq, tracker, rec, 0, func(n int, f *dic.Field) { prog.done(n, f.Valid()) })
+			rec, err = stage.Track(out, seq, tracker, rec, 0, func(n int, f *dic.Field) { prog.done(n, f.Valid()) })
 			if err != nil {
 				return err
 			}

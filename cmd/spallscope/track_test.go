@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"spallscope/dic/runfolder"
+	"spallscope/strain/strainfile"
 	"spallscope/subset"
 )
 
@@ -150,7 +151,7 @@ func TestStrainAfterTrack(t *testing.T) {
 	if !strings.Contains(msg, "VSG 31 px (3.10 mm)") || !strings.Contains(msg, "resolution from") {
 		t.Errorf("summary: %q", msg)
 	}
-	sf, err := runfolder.ReadStrain(runfolder.StrainPath(out, "kirsch_0002"))
+	sf, err := strainfile.ReadStrain(strainfile.StrainPath(out, "kirsch_0002"))
 	if err != nil || sf.Valid() == 0 {
 		t.Fatalf("strain file: %v, %v valid", err, sf)
 	}
@@ -204,11 +205,11 @@ func TestZonesOnSyntheticBand(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var rep runfolder.OnsetReport
+	var rep strainfile.OnsetReport
 	if err := json.Unmarshal(data, &rep); err != nil {
 		t.Fatal(err)
 	}
-	var found *runfolder.OnsetRecord
+	var found *strainfile.OnsetRecord
 	for i, o := range rep.Onsets {
 		if o.Class == "localization" && o.Sector == "right-sidewall" {
 			found = &rep.Onsets[i]
@@ -233,11 +234,11 @@ func TestZonesOnSyntheticBand(t *testing.T) {
 	if len(rep.Cautions) == 0 {
 		t.Error("onset.json carries no cautions")
 	}
-	rows, err := runfolder.ReadZones(out)
+	rows, err := strainfile.ReadZones(out)
 	if err != nil || len(rows) == 0 || len(rows[0].Cells) < 4 {
 		t.Fatalf("zones read back: %v, %d rows", err, len(rows))
 	}
-	var tl runfolder.TimelineRecord
+	var tl strainfile.TimelineRecord
 	var ld runfolder.LoadRecord
 	if runfolder.Section(out, "timeline", &tl) != nil || len(tl.Stress) != 14 || runfolder.Section(out, "load", &ld) != nil || ld.Peak != 40 {
 		t.Errorf("run.json timeline %+v, load peak %v", tl, ld.Peak)

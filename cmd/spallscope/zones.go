@@ -9,13 +9,15 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/job"
+	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic/frames"
 	"spallscope/dic/loadlog"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
-	"spallscope/dic/testconfig"
-	"spallscope/dic/testrun"
 	"spallscope/strain"
+	"spallscope/strain/strainfile"
 )
 
 // loadFlags read a test frame's load log.
@@ -46,7 +48,7 @@ func (l *loadFlags) stress() (*loadlog.Stress, error) {
 		}
 		return nil, nil
 	}
-	cfg := testconfig.Load{AreaMM2: l.area, TimeColumn: l.format.TimeColumn, ForceColumn: l.format.ForceColumn,
+	cfg := config.Load{AreaMM2: l.area, TimeColumn: l.format.TimeColumn, ForceColumn: l.format.ForceColumn,
 		TimeUnit: l.format.TimeUnit, ForceUnit: l.format.ForceUnit, CompressionNegative: l.format.CompressionNegative,
 		ClockOffset: l.offset}
 	if l.sync != "" {
@@ -56,7 +58,7 @@ func (l *loadFlags) stress() (*loadlog.Stress, error) {
 		}
 		cfg.Sync = p[:]
 	}
-	return testrun.Stress(cfg, l.path)
+	return job.Stress(cfg, l.path)
 }
 
 func newZonesCmd() *cobra.Command {
@@ -64,7 +66,7 @@ func newZonesCmd() *cobra.Command {
 		run, out, indicators, threshold, openingsFile string
 		openings                                      []string
 		fps                                           float64
-		st                                            runfolder.ZoneStage
+		st                                            stage.ZoneStage
 		lf                                            loadFlags
 	)
 	cmd := &cobra.Command{
@@ -140,7 +142,7 @@ engineers under local codes.`,
 			if st.Finder.Indicators, err = strain.ParseIndicators(indicators); err != nil {
 				return err
 			}
-			if err := testrun.Threshold(threshold, &st.Finder.Thresholds); err != nil {
+			if err := job.Threshold(threshold, &st.Finder.Thresholds); err != nil {
 				return err
 			}
 			specs := openings
@@ -167,7 +169,7 @@ engineers under local codes.`,
 			if haveTrack {
 				st.Finder.SubsetHalf = tr.Settings.Subset / 2
 			}
-			st.Finder.Scale = runfolder.Scale(run)
+			st.Finder.Scale = strainfile.Scale(run)
 			names, err := runfolder.Frames(run)
 			if err != nil {
 				return err
@@ -191,12 +193,12 @@ engineers under local codes.`,
 					return err
 				}
 			}
-			states := runfolder.FrameStates(names, times, sigma)
-			rep, err := runfolder.Zones(run, st, states, "spallscope "+version)
+			states := stage.FrameStates(names, times, sigma)
+			rep, err := stage.Zones(run, st, states, "spallscope "+version)
 			if err != nil {
 				return err
 			}
-			printOnsets(cmd, rep, filepath.Join(run, runfolder.OnsetJSON))
+			printOnsets(cmd, rep, filepath.Join(run, strainfile.OnsetJSON))
 			return nil
 		},
 	}
@@ -224,7 +226,7 @@ engineers under local codes.`,
 }
 
 // printOnsets prints the onset table.
-func printOnsets(cmd *cobra.Command, rep *runfolder.OnsetReport, path string) {
+func printOnsets(cmd *cobra.Command, rep *strainfile.OnsetReport, path string) {
 	o := cmd.OutOrStdout()
 	if len(rep.Onsets) == 0 {
 		fmt.Fprintf(o, "no onset found (%s)\n", path)

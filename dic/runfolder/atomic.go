@@ -1,5 +1,3 @@
-// Package runfolder owns the files of a run folder: how they are named and
-// how they are written so that a file that exists is complete.
 package runfolder
 
 import (

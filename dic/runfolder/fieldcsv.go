@@ -2,7 +2,6 @@ package runfolder
 
 import (
 	"bufio"
-	"errors"
 	"fmt"
 	"math"
 	"os"
@@ -86,27 +85,27 @@ func WriteField(path string, f *dic.Field, scale dic.Scale) error {
 // recovered from the positions, which must form a complete row-major
 // lattice; errors name the line.
 func ReadField(path string) (*dic.Field, error) {
-	rows, err := readCSVFrom(path, FieldHeader, true)
+	rows, err := ReadCSV(path, FieldHeader, true)
 	if err != nil {
 		return nil, fmt.Errorf("field: %w", err)
 	}
 	cols := strings.Split(FieldHeader, ",")
 	f := &dic.Field{Name: strings.TrimSuffix(filepath.Base(path), ".csv"), Points: make([]dic.Point, 0, len(rows))}
 	for _, r := range rows {
-		rec := r.cells
+		rec := r.Cells
 		var p dic.Point
 		var v [9]float64
 		for k := 0; k < 9; k++ {
 			if v[k], err = strconv.ParseFloat(rec[k], 64); err != nil {
-				return nil, fmt.Errorf("field %s line %d column %s: %q is not a number", path, r.line, cols[k], rec[k])
+				return nil, fmt.Errorf("field %s line %d column %s: %q is not a number", path, r.Line, cols[k], rec[k])
 			}
 		}
 		it, err := strconv.Atoi(rec[9])
 		if err != nil {
-			return nil, fmt.Errorf("field %s line %d column iterations: %q is not an integer", path, r.line, rec[9])
+			return nil, fmt.Errorf("field %s line %d column iterations: %q is not an integer", path, r.Line, rec[9])
 		}
 		if p.Status, err = subset.ParseStatus(rec[10]); err != nil {
-			return nil, fmt.Errorf("field %s line %d column status: %w", path, r.line, err)
+			return nil, fmt.Errorf("field %s line %d column status: %w", path, r.Line, err)
 		}
 		p.X, p.Y, p.Iterations = int(v[0]), int(v[1]), it
 		if p.Valid() {
@@ -118,36 +117,10 @@ func ReadField(path string) (*dic.Field, error) {
 		}
 		f.Points = append(f.Points, p)
 	}
-	g, err := latticeOf(f.Points)
+	g, err := dic.GridOf(f.Points)
 	if err != nil {
 		return nil, fmt.Errorf("field %s: %w", path, err)
 	}
 	f.Grid = g
 	return f, nil
-}
-
-// latticeOf recovers the grid of row-major points.
-func latticeOf(pts []dic.Point) (dic.Grid, error) {
-	if len(pts) == 0 {
-		return dic.Grid{}, errors.New("no points")
-	}
-	g := dic.Grid{X0: pts[0].X, Y0: pts[0].Y, Cols: 1, Step: 1}
-	for g.Cols < len(pts) && pts[g.Cols].Y == g.Y0 {
-		g.Cols++
-	}
-	if g.Cols > 1 {
-		g.Step = pts[1].X - pts[0].X
-	} else if len(pts) > 1 {
-		g.Step = pts[1].Y - pts[0].Y
-	}
-	if g.Step <= 0 || len(pts)%g.Cols != 0 {
-		return dic.Grid{}, fmt.Errorf("points do not form a row-major grid (%d points, %d per row)", len(pts), g.Cols)
-	}
-	g.Rows = len(pts) / g.Cols
-	for i, p := range pts {
-		if x, y := g.Pos(i); p.X != x || p.Y != y {
-			return dic.Grid{}, fmt.Errorf("data line %d: point (%d,%d), expected (%d,%d) on a %d px grid", i+1, p.X, p.Y, x, y, g.Step)
-		}
-	}
-	return g, nil
 }

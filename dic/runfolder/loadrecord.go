@@ -24,16 +24,16 @@ func RecordLoad(dir string, s *loadlog.Stress) error {
 	return SetSection(dir, "load", rec)
 }
 
-// FrameStates places frames on the test's timeline: each frame's camera
-// time and, with a load log (sigma not nil), its nominal stress and
-// whether the log covers it.
-func FrameStates(names []string, times []float64, sigma *loadlog.Stress) []FrameState {
-	states := make([]FrameState, len(names))
-	for k, name := range names {
-		states[k] = FrameState{Name: name, Time: times[k]}
-		if sigma != nil {
-			states[k].Stress, states[k].InSpan = sigma.At(times[k])
-		}
-	}
-	return states
+// LoadRecord is the run.json section describing the load log used, with
+// its nominal-stress history on the camera's clock (at most a few thousand
+// samples) for plotting.
+type LoadRecord struct {
+	Path    string    `json:"path"`
+	AreaMM2 float64   `json:"area_mm2"`
+	Offset  float64   `json:"clock_offset_s"`
+	Times   []float64 `json:"times_s"`
+	Stress  []float64 `json:"stress_MPa"`
+	Peak    float64   `json:"peak_MPa"`
+	PeakAt  float64   `json:"peak_time_s"`
+	Notes   []string  `json:"notes,omitempty"`
 }

@@ -1,0 +1,114 @@
+package job
+
+import (
+	"fmt"
+	"strconv"
+
+	"spallscope/dic/frames"
+	"spallscope/dic/region"
+	"spallscope/subset"
+)
+
+// Inputs are a test's opened photos: the sequence, the reference image and
+// its index (−1 for a separate file), and the measured-pixel mask.
+type Inputs struct {
+	Seq      frames.Sequence
+	Ref      *subset.Image
+	RefIndex int
+	Mask     *region.Mask
+}
+
+// Open opens the photo sequence images and the reference (a frame index,
+// an image file, or "" for frame 0), and rasterises the region of interest
+// roi (a shape, or "" for the whole image), the excluded shapes and the
+// mask image (nonzero = measured) into one mask.
+func Open(images, reference, roi string, exclude []string, maskFile string) (*Inputs, error) {
+	if images == "" {
+		return nil, fmt.Errorf("no images given (a folder, glob, list file or video)")
+	}
+	seq, err := frames.Open(images)
+	if err != nil {
+		return nil, err
+	}
+	in := &Inputs{Seq: seq}
+	fail := func(err error) (*Inputs, error) {
+		seq.Close()
+		return nil, err
+	}
+	if n, err := strconv.Atoi(reference); err == nil || reference == "" {
+		if n < 0 || n >= seq.Len() {
+			return fail(fmt.Errorf("reference %d: the sequence has frames 0..%d", n, seq.Len()-1))
+		}
+		in.RefIndex = n
+		if in.Ref, err = seq.Read(n); err != nil {
+			return fail(fmt.Errorf("reference: %w", err))
+		}
+	} else {
+		if in.Ref, err = frames.ReadImage(reference); err != nil {
+			return fail(fmt.Errorf("reference: %w", err))
+		}
+		in.RefIndex = -1
+	}
+	seq.ExpectSize(in.Ref.Width, in.Ref.Height)
+	var layout region.Layout
+	if roi != "" {
+		shape, err := region.ParseShape(roi)
+		if err != nil {
+			if shape, err = region.ParseShape("rect:" + roi); err != nil {
+				return fail(fmt.Errorf("roi %q: expected x0,y0,x1,y1 or a shape such as polygon:x1,y1,...", roi))
+			}
+		}
+		x0, y0, x1, y1 := shape.Bounds()
+		if x1 < 0 || y1 < 0 || x0 > float64(in.Ref.Width-1) || y0 > float64(in.Ref.Height-1) {
+			return fail(fmt.Errorf("roi %q lies outside the %dx%d reference", roi, in.Ref.Width, in.Ref.Height))
+		}
+		layout.ROI = []region.Shape{shape}
+	}
+	for _, e := range exclude {
+		shape, err := region.ParseShape(e)
+		if err != nil {
+			return fail(fmt.Errorf("exclude: %w", err))
+		}
+		layout.Exclude = append(layout.Exclude, shape)
+	}
+	if in.Mask, err = layout.Rasterise(in.Ref.Width, in.Ref.Height); err != nil {
+		return fail(err)
+	}
+	if maskFile != "" {
+		img, err := frames.ReadImage(maskFile)
+		if err != nil {
+			return fail(fmt.Errorf("mask: %w", err))
+		}
+		if in.Mask, err = in.Mask.Intersect(region.FromImage(img.Width, img.Height, img.Pix)); err != nil {
+			return fail(fmt.Errorf("mask %s: %w", maskFile, err))
+		}
+	}
+	return in, nil
+}
+
+// Times returns the frame times from one rule: a CSV, a fixed rate, file
+// modification times, or (none given) a video's own rate; nil if unknown.
+func Times(seq frames.Sequence, csv string, fps float64, mtime bool) ([]float64, error) {
+	n := 0
+	for _, set := range []bool{csv != "", fps != 0, mtime} {
+		if set {
+			n++
+		}
+	}
+	switch {
+	case n > 1:
+		return nil, fmt.Errorf("frame times: give one of a times CSV, a frame rate and file times")
+	case fps < 0:
+		return nil, fmt.Errorf("frame rate %g, expected a positive number of frames per second", fps)
+	case csv != "":
+		return frames.ReadTimes(csv, seq)
+	case fps > 0:
+		return frames.FixedRate(seq.Len(), fps, 0)
+	case mtime:
+		return frames.ModTimes(seq)
+	}
+	if r, ok := frames.VideoFPS(seq); ok {
+		return frames.FixedRate(seq.Len(), r, 0)
+	}
+	return nil, nil
+}

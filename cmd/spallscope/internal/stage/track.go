@@ -1,0 +1,53 @@
+package stage
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"spallscope/dic"
+	"spallscope/dic/frames"
+	"spallscope/dic/runfolder"
+	"time"
+)
+
+// Track runs tracker over the frames of seq from index from on (the fields
+// of earlier frames are already in dir and the tracker resumed after them)
+// and writes each field to dir/fields/<frame>.csv as soon as it is done,
+// then the "track" section of dir/run.json (rec, completed with frames and
+// time). progress, if not nil, is called after each frame with the frame
+// count and the field.
+// rec.Times, when set, must hold one time per frame. A
+// frame that cannot be read stops the stage with an error naming it; the
+// fields already written stay.
+func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec runfolder.TrackRecord, from int, progress func(done int, f *dic.Field)) (runfolder.TrackRecord, error) {
+	if err := os.MkdirAll(filepath.Join(dir, runfolder.FieldsDir), 0o755); err != nil {
+		return rec, err
+	}
+	if rec.Times != nil && len(rec.Times) != seq.Len() {
+		return rec, fmt.Errorf("track: %d frame times for %d frames", len(rec.Times), seq.Len())
+	}
+	start := time.Now()
+	rec.Settings, rec.Grid, rec.Frames = tracker.Settings(), tracker.Grid(), nil
+	for i := 0; i < from && i < seq.Len(); i++ {
+		rec.Frames = append(rec.Frames, seq.Name(i))
+	}
+	for i := from; i < seq.Len(); i++ {
+		img, err := seq.Read(i)
+		if err != nil {
+			return rec, fmt.Errorf("track stopped; the fields of frames before %d are in %s: %w", i, filepath.Join(dir, runfolder.FieldsDir), err)
+		}
+		field, err := tracker.Track(img, i, seq.Name(i))
+		if err != nil {
+			return rec, err
+		}
+		if err := runfolder.WriteField(runfolder.FieldPath(dir, seq.Name(i)), field, rec.MMPerPx); err != nil {
+			return rec, err
+		}
+		rec.Frames = append(rec.Frames, seq.Name(i))
+		if progress != nil {
+			progress(i+1, field)
+		}
+	}
+	rec.Seconds = time.Since(start).Seconds()
+	return rec, runfolder.SetSection(dir, "track", rec)
+}

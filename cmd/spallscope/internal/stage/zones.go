@@ -1,0 +1,134 @@
+package stage
+
+import (
+	"fmt"
+	"path/filepath"
+	"spallscope/dic/runfolder"
+	"spallscope/strain"
+	"spallscope/strain/strainfile"
+)
+
+// ZoneStage sets up the zones stage.
+type ZoneStage struct {
+	Finder strain.FinderConfig
+	// OpeningNames name the openings of Finder.Sectors (default A, B, ...).
+	OpeningNames []string
+	// CalibrateBelow is the fraction of the peak stress up to which frames
+	// calibrate each point's elastic response (default 0.2).
+	CalibrateBelow float64
+	// CalibrateFrames is the number of first frames that calibrate when
+	// there is no load (no stress above zero): default 3.
+	CalibrateFrames int
+	// K is the lateral to vertical far-field stress ratio and UCS the
+	// rock's uniaxial compressive strength (MPa, 0 = unknown), for the
+	// Kirsch context of sidewall and crown onsets.
+	K, UCS float64
+}
+
+// Zones runs the zones stage over run folder dir: it fits each point's
+// elastic response on the calibration frames (stress up to CalibrateBelow
+// of the peak), finds and tracks the localized zones of every frame, and
+// writes dir/zones.csv and dir/onset.json. frames gives each recorded
+// frame's time and stress (same order as the track record).
+func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainfile.OnsetReport, error) {
+	names, err := runfolder.Frames(dir)
+	if err != nil {
+		return nil, err
+	}
+	if len(frames) != len(names) {
+		return nil, fmt.Errorf("zones: %d frame states for the run's %d frames", len(frames), len(names))
+	}
+	if st.CalibrateBelow == 0 {
+		st.CalibrateBelow = 0.2
+	}
+	peak := strainfile.PeakRecord{Frame: names[0]}
+	for k, f := range frames {
+		if f.Stress > peak.Stress {
+			peak = strainfile.PeakRecord{Stress: f.Stress, Time: f.Time, Frame: names[k]}
+		}
+	}
+	// Calibration: the elastic part of the test.
+	var calib []*strain.Field
+	var calibStress []float64
+	if st.CalibrateFrames == 0 {
+		st.CalibrateFrames = 3
+	}
+	read := map[int]*strain.Field{} // calibration frames, read once for both passes
+	for k, name := range names {
+		loaded := peak.Stress > 0
+		if (loaded && frames[k].Stress <= st.CalibrateBelow*peak.Stress) || (!loaded && k < st.CalibrateFrames) {
+			sf, err := strainfile.ReadStrain(strainfile.StrainPath(dir, name))
+			if err != nil {
+				return nil, err
+			}
+			read[k] = sf
+			calib, calibStress = append(calib, sf), append(calibStress, frames[k].Stress)
+		}
+	}
+	ref, err := runfolder.ReadField(runfolder.FieldPath(dir, names[0]))
+	if err != nil {
+		return nil, err
+	}
+	finder, err := strain.NewFinder(st.Finder, ref, strain.FitBaseline(calib, calibStress))
+	if err != nil {
+		return nil, err
+	}
+	for k, name := range names {
+		sf, ok := read[k]
+		if !ok {
+			if sf, err = strainfile.ReadStrain(strainfile.StrainPath(dir, name)); err != nil {
+				return nil, err
+			}
+		}
+		delete(read, k)
+		df, err := runfolder.ReadField(runfolder.FieldPath(dir, name))
+		if err != nil {
+			return nil, err
+		}
+		fr := strain.Frame{Index: k, Name: name, Time: frames[k].Time, Stress: frames[k].Stress, InSpan: frames[k].InSpan, Strain: sf, Disp: df}
+		if _, err := finder.Add(fr); err != nil {
+			return nil, err
+		}
+	}
+	rep := &strainfile.OnsetReport{Tool: tool, Peak: peak, Cautions: strainfile.Cautions,
+		Settings: strainfile.ZoneSettings{Indicators: finder.Config().Indicators, Thresholds: finder.Config().Thresholds, Persistence: finder.Config().Persistence,
+			CalibrateBelow: st.CalibrateBelow, CalibFrames: len(calib), K: st.K, UCS: st.UCS}}
+	openingName := func(i int) string {
+		switch {
+		case i < 0:
+			return ""
+		case i < len(st.OpeningNames) && st.OpeningNames[i] != "":
+			return st.OpeningNames[i]
+		}
+		return string(rune('A' + i%26))
+	}
+	for i := range st.Finder.Sectors.Openings {
+		rep.Openings = append(rep.Openings, strainfile.OpeningRecord{Index: i, Name: openingName(i)})
+	}
+	if err := strainfile.WriteZones(filepath.Join(dir, strainfile.ZonesCSV), finder, openingName); err != nil {
+		return nil, err
+	}
+	if err := strainfile.WriteZoneCells(filepath.Join(dir, strainfile.ZoneCellsCSV), finder); err != nil {
+		return nil, err
+	}
+	tl := strainfile.TimelineRecord{Frames: names}
+	for _, f := range frames {
+		tl.Times, tl.Stress, tl.InSpan = append(tl.Times, f.Time), append(tl.Stress, f.Stress), append(tl.InSpan, f.InSpan)
+	}
+	if err := runfolder.SetSection(dir, "timeline", tl); err != nil {
+		return nil, err
+	}
+	for _, o := range finder.Onsets(peak.Stress) {
+		r := strainfile.OnsetRecord{Onset: o, OpeningName: openingName(o.Opening)}
+		if c, ok := strain.NewContext(o.Sector, o.Stress, st.K, st.UCS); ok && o.Opening >= 0 {
+			r.Context = c
+		}
+		rep.Onsets = append(rep.Onsets, r)
+	}
+	var res strainfile.ResolutionRecord
+	if runfolder.Section(dir, "resolution", &res) == nil {
+		rep.Resolution = &res
+	}
+	err = runfolder.WriteJSON(filepath.Join(dir, strainfile.OnsetJSON), rep)
+	return rep, err
+}

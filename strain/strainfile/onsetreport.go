@@ -1,0 +1,63 @@
+package strainfile
+
+import (
+	"spallscope/strain"
+)
+
+// TimelineRecord is the run.json section of every frame's time and
+// nominal stress (written by the zones stage).
+type TimelineRecord struct {
+	Frames []string  `json:"frames"`
+	Times  []float64 `json:"times_s"`
+	Stress []float64 `json:"stress_MPa"`
+	InSpan []bool    `json:"in_load_log"`
+}
+
+// OnsetReport is the content of onset.json.
+type OnsetReport struct {
+	Tool       string            `json:"tool"`
+	Peak       PeakRecord        `json:"peak"`
+	Openings   []OpeningRecord   `json:"openings"`
+	Onsets     []OnsetRecord     `json:"onsets"`
+	Settings   ZoneSettings      `json:"settings"`
+	Resolution *ResolutionRecord `json:"resolution,omitempty"`
+	Cautions   []string          `json:"cautions"`
+}
+
+// PeakRecord is the peak nominal stress of the test.
+type PeakRecord struct {
+	Stress float64 `json:"stress_MPa"`
+	Time   float64 `json:"time_s"`
+	Frame  string  `json:"frame"`
+}
+
+// OpeningRecord names an opening.
+type OpeningRecord struct {
+	Index int    `json:"index"`
+	Name  string `json:"name"`
+}
+
+// OnsetRecord is one onset with its opening's name and its context.
+type OnsetRecord struct {
+	strain.Onset
+	OpeningName string          `json:"opening"`
+	Context     *strain.Context `json:"context,omitempty"`
+}
+
+// ZoneSettings records how zones were found.
+type ZoneSettings struct {
+	Indicators     []strain.Indicator `json:"indicators"`
+	Thresholds     strain.Thresholds  `json:"thresholds"`
+	Persistence    int                `json:"persistence_frames"`
+	CalibrateBelow float64            `json:"calibrate_below_fraction_of_peak"`
+	CalibFrames    int                `json:"calibration_frames"`
+	K              float64            `json:"k_lateral"`
+	UCS            float64            `json:"ucs_MPa,omitempty"`
+}
+
+// Cautions are printed with every onset report.
+var Cautions = []string{
+	"Compression tests of brittle specimens can fail violently; onset times are no warning system for people near a loaded specimen.",
+	"Onsets are measured events with the stated resolution, not design values.",
+	"Support and excavation design belong to licensed engineers under local codes.",
+}
