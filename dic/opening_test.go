@@ -2,9 +2,9 @@ package dic_test
 
 import (
 	"math"
-	"spallscope/dic"
 	"testing"
 
+	"spallscope/dic"
 	"spallscope/dic/region"
 	"spallscope/dic/synth"
 	"spallscope/subset"

@@ -8,8 +8,9 @@ import (
 	"path/filepath"
 	"slices"
 	"sort"
-	"spallscope/strain/strainfile"
 	"time"
+
+	"spallscope/strain/strainfile"
 )
 
 //go:embed templates/report.html.tmpl templates/report.css

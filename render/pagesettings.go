@@ -3,8 +3,9 @@ package render
 import (
 	"fmt"
 	"path/filepath"
-	"spallscope/strain/strainfile"
 	"strings"
+
+	"spallscope/strain/strainfile"
 )
 
 // pageRow is one row of a two-column table: a label, its value and an

@@ -4,11 +4,12 @@ import (
 	"fmt"
 	"image/color"
 	"slices"
-	"spallscope/strain/strainfile"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg/draw"
+
+	"spallscope/strain/strainfile"
 )
 
 // plotZoneCount is how many zones the zone histories draw: the largest

@@ -7,8 +7,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"spallscope/dic"
 	"spallscope/cmd/spallscope/internal/job"
+	"spallscope/dic"
 	"spallscope/strain/model"
 )
 

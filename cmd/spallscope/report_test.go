@@ -5,9 +5,10 @@ import (
 	"image/png"
 	"os"
 	"path/filepath"
-	"spallscope/strain/strainfile"
 	"strings"
 	"testing"
+
+	"spallscope/strain/strainfile"
 )
 
 // report on the run folder of the whole pipeline over the small band

@@ -1,12 +1,11 @@
 package aelog
 
 import (
-	"spallscope/dic/logtable/logtabletest"
-
 	"math"
 	"testing"
 
 	"spallscope/dic/loadlog"
+	"spallscope/dic/logtable/logtabletest"
 )
 
 // writeList writes a hit list for a test (see logtabletest.WriteFile).

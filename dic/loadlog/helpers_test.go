@@ -1,10 +1,10 @@
 package loadlog
 
 import (
-	"spallscope/dic/logtable/logtabletest"
-
 	"math"
 	"testing"
+
+	"spallscope/dic/logtable/logtabletest"
 )
 
 // writeLog writes a log file for a test (see logtabletest.WriteFile).

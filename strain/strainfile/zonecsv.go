@@ -3,6 +3,7 @@ package strainfile
 import (
 	"bufio"
 	"fmt"
+
 	"spallscope/dic/runfolder"
 	"spallscope/strain"
 )

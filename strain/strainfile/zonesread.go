@@ -3,9 +3,10 @@ package strainfile
 import (
 	"fmt"
 	"path/filepath"
-	"spallscope/dic/runfolder"
 	"strconv"
 	"strings"
+
+	"spallscope/dic/runfolder"
 )
 
 // ZoneRow is one row of zones.csv joined with the zone's grid points from

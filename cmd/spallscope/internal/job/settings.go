@@ -5,9 +5,9 @@ import (
 	"strconv"
 	"strings"
 
+	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/dic"
 	"spallscope/dic/loadlog"
-	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/strain"
 	"spallscope/subset"
 )

@@ -2,11 +2,12 @@ package stage
 
 import (
 	"fmt"
+	"time"
+
 	"spallscope/dic"
 	"spallscope/dic/runfolder"
 	"spallscope/strain"
 	"spallscope/strain/strainfile"
-	"time"
 )
 
 // Strain runs the strain stage over every displacement field of run folder

@@ -4,10 +4,11 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"time"
+
 	"spallscope/dic"
 	"spallscope/dic/frames"
 	"spallscope/dic/runfolder"
-	"time"
 )
 
 // Track runs tracker over the frames of seq from index from on (the fields

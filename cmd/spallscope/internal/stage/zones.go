@@ -3,6 +3,7 @@ package stage
 import (
 	"fmt"
 	"path/filepath"
+
 	"spallscope/dic/runfolder"
 	"spallscope/strain"
 	"spallscope/strain/strainfile"
