@@ -75,6 +75,10 @@ func DefaultSettings() Settings {
 	}
 }
 
+// Effective returns the settings with the defaults of DefaultSettings in
+// their zero fields, as a tracker uses them.
+func (s Settings) Effective() Settings { return s.withDefaults() }
+
 func (s Settings) withDefaults() Settings {
 	d := DefaultSettings()
 	if s.Subset == 0 {

@@ -48,16 +48,26 @@ type Finder struct {
 	zones    []Zone  // every zone of every frame, in order
 }
 
-// NewFinder prepares zone finding on the grid of ref, the reference
-// frame's displacement field (which points were measured), with the
-// elastic baseline fitted on the calibration frames (see FitBaseline).
-func NewFinder(cfg FinderConfig, ref *dic.Field, baseline Baseline) (*Finder, error) {
+// Effective returns the configuration with defaults in its zero fields
+// (indicators e1, gamma_max and decorrelation, persistence 3, and the
+// defaults of the thresholds and sectors), as a finder applies them; Touch
+// and SubsetHalf depend on the run and keep their zero.
+func (cfg FinderConfig) Effective() FinderConfig {
 	if len(cfg.Indicators) == 0 {
 		cfg.Indicators = []Indicator{MaxPrincipal, MaxShear, Decorrelation}
 	}
 	if cfg.Persistence == 0 {
 		cfg.Persistence = 3
 	}
+	cfg.Thresholds, cfg.Sectors = cfg.Thresholds.Effective(), cfg.Sectors.Effective()
+	return cfg
+}
+
+// NewFinder prepares zone finding on the grid of ref, the reference
+// frame's displacement field (which points were measured), with the
+// elastic baseline fitted on the calibration frames (see FitBaseline).
+func NewFinder(cfg FinderConfig, ref *dic.Field, baseline Baseline) (*Finder, error) {
+	cfg = cfg.Effective()
 	if cfg.Persistence < 1 {
 		return nil, fmt.Errorf("persistence %d frames, expected at least 1", cfg.Persistence)
 	}

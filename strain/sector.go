@@ -62,6 +62,11 @@ type Sectors struct {
 	PillarHalfWidth float64
 }
 
+// Effective returns the sectors with defaults in their zero fields (load
+// axis 90°, crown half-angle 45°, reach 1, pillar half-width 0.75), as
+// they are applied.
+func (s Sectors) Effective() Sectors { return s.withDefaults() }
+
 func (s Sectors) withDefaults() Sectors {
 	if s.LoadAngleDeg == 0 {
 		s.LoadAngleDeg = 90

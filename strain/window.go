@@ -50,6 +50,13 @@ func (w Window) Validate(g dic.Grid) error {
 	return nil
 }
 
+// Effective returns the window with defaults in its zero fields (a plane
+// fit, engineering strain), as it is applied; Size has no default.
+func (w Window) Effective() Window {
+	w.Order, w.Measure = max(w.Order, 1), w.measure()
+	return w
+}
+
 func (w Window) measure() Measure {
 	if w.Measure == "" {
 		return Engineering

@@ -8,6 +8,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/render/export"
 )
 
@@ -15,7 +16,7 @@ func newExportCmd() *cobra.Command {
 	var (
 		vtk, npy bool
 		fields   []string
-		sf       scaleFlags
+		sc       config.Scale
 	)
 	cmd := &cobra.Command{
 		Use:   "export RUN [--vtk] [--npy] [--fields u,v,exx,...]",
@@ -49,7 +50,7 @@ was run for each frame. Without --vtk or --npy, both are written.`,
 			} else if !st.IsDir() {
 				return fmt.Errorf("run folder %s is not a folder", dir)
 			}
-			scale, err := sf.scale()
+			scale, err := sc.Value()
 			if err != nil {
 				return err
 			}
@@ -82,6 +83,6 @@ was run for each frame. Without --vtk or --npy, both are written.`,
 	f.BoolVar(&vtk, "vtk", false, "write VTK files (RUN/vtk)")
 	f.BoolVar(&npy, "npy", false, "write NumPy arrays (RUN/npy)")
 	f.StringSliceVar(&fields, "fields", nil, "fields to export, comma-separated (default: u,v,zncc,status and strain)")
-	sf.register(cmd)
+	bindScale(cmd.Flags(), &sc)
 	return cmd
 }

@@ -2,23 +2,23 @@ package main
 
 import (
 	"fmt"
-	"os"
 	"path/filepath"
 
 	"github.com/spf13/cobra"
 
-	"spallscope/cmd/spallscope/internal/stage"
+	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/job"
 	"spallscope/dic/runfolder"
-	"spallscope/strain"
 	"spallscope/strain/strainfile"
 )
 
-func newStrainCmd() *cobra.Command {
+func newStrainCmd() *cobra.Command { return strainCommand(&config.Test{}) }
+
+// strainCommand is the strain command filling test config t from its options.
+func strainCommand(t *config.Test) *cobra.Command {
 	var (
-		fields, out, measure string
-		win                  strain.Window
-		subsetSize, static   int
-		sf                   scaleFlags
+		fields, out string
+		subsetSize  int
 	)
 	cmd := &cobra.Command{
 		Use:   "strain --fields RUN --window N [--measure M] [--static K] [--out RUN]",
@@ -69,19 +69,10 @@ RUN/run.json. Re-running with another window does not re-track.`,
 			if out != fields {
 				return fmt.Errorf("--out must be the run folder of --fields (%s): strain files sit beside the fields they come from", fields)
 			}
-			m, err := strain.ParseMeasure(measure)
-			if err != nil {
+			if err := refuseTypedZeros(cmd.Flags()); err != nil {
 				return err
 			}
-			win.Measure = m
-			scale, err := sf.scale()
-			if err != nil {
-				return err
-			}
-			if _, err := os.Stat(fields); err != nil {
-				return fmt.Errorf("--fields: %w", err)
-			}
-			rec, res, err := stage.Strain(fields, win, subsetSize, scale, static, progressLine(cmd, "strain: frame"))
+			rec, res, err := job.Strain(t, fields, subsetSize, progressLine(cmd, "strain: frame"))
 			if err != nil {
 				return err
 			}
@@ -101,12 +92,8 @@ RUN/run.json. Re-running with another window does not re-track.`,
 	f := cmd.Flags()
 	f.StringVar(&fields, "fields", "", "run folder holding fields/ (from track)")
 	f.StringVar(&out, "out", "", "run folder to write into (default and only choice: the --fields run folder)")
-	f.IntVar(&win.Size, "window", 9, "strain window in grid points per side (odd, ≥ 3)")
-	f.IntVar(&win.Order, "order", 1, "fit over the window: 1 plane, 2 quadratic")
-	f.IntVar(&win.MinPoints, "min-points", 0, "fewest valid points in a window (default: half of it)")
-	f.StringVar(&measure, "measure", "engineering", "strain measure: engineering, green or hencky")
 	f.IntVar(&subsetSize, "subset", 0, "subset size in px for the VSG (default: from the track record)")
-	f.IntVar(&static, "static", 0, "the first K frames are static shots for the noise floor")
-	sf.register(cmd)
+	bindStrain(f, &t.Strain)
+	bindScale(f, &t.Scale)
 	return cmd
 }

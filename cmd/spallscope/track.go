@@ -6,97 +6,16 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/job"
-	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic"
 	"spallscope/dic/runfolder"
-	"spallscope/subset"
 )
 
-// trackFlags are the correlation options shared by commands that track.
-type trackFlags struct {
-	ref, images, roi, maskFile string
-	exclude, seeds             []string
-	order                      int
-	interp, reference          string
-	s                          dic.Settings
-	timesCSV                   string
-	fps                        float64
-	mtime                      bool
-	scale                      scaleFlags
-}
+func newTrackCmd() *cobra.Command { return trackCommand(&config.Test{}) }
 
-func (f *trackFlags) register(cmd *cobra.Command) {
-	d := dic.DefaultSettings()
-	fl := cmd.Flags()
-	fl.StringVar(&f.ref, "ref", "", "reference image file, or a frame index of --images (default: the first frame)")
-	fl.StringVar(&f.images, "images", "", "frames: a folder, a quoted glob, a list file or a video")
-	fl.StringVar(&f.roi, "roi", "", "region of interest x0,y0,x1,y1 in px, or a shape such as polygon:x1,y1,... (default: whole image)")
-	fl.StringVar(&f.maskFile, "mask", "", "mask image the size of the reference: nonzero pixels are measured")
-	fl.StringArrayVar(&f.exclude, "exclude", nil, "exclude a shape, repeatable: circle:cx,cy,r  ellipse:cx,cy,rx,ry[,deg]  polygon:x1,y1,...  rect:x0,y0,x1,y1")
-	fl.StringArrayVar(&f.seeds, "seed", nil, "seed point x,y in px, repeatable (automatic seeds cover the rest)")
-	fl.IntVar(&f.s.Subset, "subset", d.Subset, "subset size in px (odd, ≥ 7)")
-	fl.IntVar(&f.s.Step, "step", d.Step, "grid step in px")
-	fl.IntVar(&f.order, "order", 1, "shape function: 1 affine, 2 quadratic")
-	fl.StringVar(&f.interp, "interp", "cubic", "B-spline interpolation: cubic or quintic")
-	fl.StringVar(&f.reference, "reference", string(d.Reference), "reference strategy: fixed or incremental")
-	fl.Float64Var(&f.s.UpdateBelow, "update-below", d.UpdateBelow, "incremental: move the reference when the median ZNCC falls below this")
-	fl.Float64Var(&f.s.MinZNCC, "min-zncc", d.MinZNCC, "lowest ZNCC of a measured point")
-	fl.Float64Var(&f.s.ResidualFactor, "residual-factor", d.ResidualFactor, "flag points whose ZNSSD exceeds this many times the frame median (negative: off)")
-	fl.IntVar(&f.s.SearchRadius, "search-radius", d.SearchRadius, "integer search radius of seed points in px (largest jump between frames)")
-	fl.IntVar(&f.s.EdgeGuard, "edge-guard", d.EdgeGuard, "px along the rim of exclusions left out of subsets (negative: none)")
-	fl.Float64Var(&f.s.MinValidFraction, "min-valid", d.MinValidFraction, "smallest measured fraction of a subset's pixels")
-	fl.IntVar(&f.s.Workers, "workers", 0, "goroutines (default: all cores); results do not depend on it")
-	fl.StringVar(&f.timesCSV, "times", "", "frame times: CSV with columns frame,time_s")
-	fl.Float64Var(&f.fps, "fps", 0, "frame times: fixed rate in frames per second (default for video: its stated rate)")
-	fl.BoolVar(&f.mtime, "mtime", false, "frame times: file modification times")
-	f.scale.register(cmd)
-}
-
-// settings completes the settings from the flags that need parsing.
-func (f *trackFlags) settings() (dic.Settings, error) {
-	s := f.s
-	// Zero settings mean "default" to the library; on the command line they
-	// were typed, so they are errors.
-	if s.Step <= 0 {
-		return s, fmt.Errorf("--step %d: step %d px, expected a positive number of pixels", s.Step, s.Step)
-	}
-	if s.Subset <= 0 {
-		return s, fmt.Errorf("--subset %d: subset %d px, expected an odd size of at least 7 px", s.Subset, s.Subset)
-	}
-	switch f.order {
-	case 1:
-		s.Order = subset.Affine
-	case 2:
-		s.Order = subset.Quadratic
-	default:
-		return s, fmt.Errorf("--order %d, expected 1 (affine) or 2 (quadratic)", f.order)
-	}
-	var err error
-	if s.Interpolation, err = subset.ParseInterpolation(f.interp); err != nil {
-		return s, fmt.Errorf("--interp %q, expected cubic or quintic", f.interp)
-	}
-	s.Reference = dic.ReferenceMode(f.reference)
-	for _, p := range f.seeds {
-		xy, err := parsePoint("--seed", p)
-		if err != nil {
-			return s, err
-		}
-		s.Seeds = append(s.Seeds, [2]int{int(xy[0]), int(xy[1])})
-	}
-	return s, s.Validate()
-}
-
-// open opens the sequence and the reference image, and builds the mask.
-func (f *trackFlags) open() (*job.Inputs, error) {
-	if f.images == "" {
-		return nil, fmt.Errorf("--images is required (a folder, glob, list file or video)")
-	}
-	return job.Open(f.images, f.ref, f.roi, f.exclude, f.maskFile)
-}
-
-func newTrackCmd() *cobra.Command {
-	var tf trackFlags
+// trackCommand is the track command filling test config t from its options.
+func trackCommand(t *config.Test) *cobra.Command {
 	var out string
 	cmd := &cobra.Command{
 		Use:   "track --images SOURCE [--ref FILE|INDEX] --out DIR",
@@ -141,44 +60,28 @@ read stops the run with an error naming it and keeps the fields written.`,
   spallscope track --images "cam1/*.tif" --subset 31 --step 10 --order 2 --out run2`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
-			if out == "" {
-				return fmt.Errorf("--out DIR is required")
+			if err := refuseTypedZeros(cmd.Flags()); err != nil {
+				return err
 			}
-			s, err := tf.settings()
+			var prog *rateLine
+			rec, err := job.Track(t, out, "spallscope "+version, func(done, total, points int, f *dic.Field) {
+				if prog == nil {
+					prog = newRateLine(cmd, "track", total, points)
+				}
+				prog.done(done, f.Valid())
+			})
 			if err != nil {
-				return err
-			}
-			in, err := tf.open()
-			if err != nil {
-				return err
-			}
-			seq := in.Seq
-			defer seq.Close()
-			tracker, err := dic.NewTracker(in.Ref, in.RefIndex, in.Mask, s)
-			if err != nil {
-				return err
-			}
-			rec := runfolder.TrackRecord{Tool: "spallscope " + version, Images: tf.images, Reference: tf.ref, Exclude: tf.exclude}
-			if rec.Times, err = job.Times(seq, tf.timesCSV, tf.fps, tf.mtime); err != nil {
-				return err
-			}
-			if rec.MMPerPx, err = tf.scale.scale(); err != nil {
-				return err
-			}
-			if rec.Reference == "" {
-				rec.Reference = "0"
-			}
-			prog := newRateLine(cmd, "track", seq.Len(), tracker.Grid().Len())
-			rec, err = stage.Track(out, seq, tracker, rec, 0, func(n int, f *dic.Field) { prog.done(n, f.Valid()) })
-			if err != nil {
-				return err
+				return asFlagError(cmd.Flags(), err)
 			}
 			fmt.Fprintf(cmd.OutOrStdout(), "tracked %d frames, %d points each, in %.1f s: %s\n",
-				seq.Len(), tracker.Grid().Len(), rec.Seconds, filepath.Join(out, runfolder.FieldsDir))
+				len(rec.Frames), rec.Grid.Len(), rec.Seconds, filepath.Join(out, runfolder.FieldsDir))
 			return nil
 		},
 	}
-	tf.register(cmd)
+	bindInputs(cmd.Flags(), t)
+	bindCorrelation(cmd.Flags(), &t.Correlation)
 	cmd.Flags().StringVar(&out, "out", "", "run folder")
+	cmd.MarkFlagRequired("images")
+	cmd.MarkFlagRequired("out")
 	return cmd
 }

@@ -68,10 +68,10 @@ func TestTrackBadInput(t *testing.T) {
 	}{
 		{[]string{"--subset", "20"}, "subset 20 px, expected an odd size"},
 		{[]string{"--subset", "5"}, "subset 5 px, expected an odd size of at least 7"},
-		{[]string{"--step", "0"}, "step 0 px"},
+		{[]string{"--step", "0"}, "--step 0: 0 is not a setting here"},
 		{[]string{"--roi", "500,500,600,600"}, "lies outside"},
 		{[]string{"--mask", filepath.Join(dir, "frames", "kirsch_0000.png"), "--roi", "rect:0,0,10,10", "--order", "3"}, "--order 3"},
-		{[]string{"--interp", "linear"}, `--interp "linear"`},
+		{[]string{"--interp", "linear"}, `--interp linear: expected bicubic or biquintic`},
 		{[]string{"--reference", "rolling"}, `reference "rolling"`},
 		{[]string{"--exclude", "circle:1,2"}, "circle takes [3] numbers"},
 	}

@@ -2,73 +2,21 @@ package main
 
 import (
 	"fmt"
-	"os"
 	"path/filepath"
-	"strings"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/job"
-	"spallscope/cmd/spallscope/internal/stage"
-	"spallscope/dic/frames"
-	"spallscope/dic/loadlog"
-	"spallscope/dic/region"
-	"spallscope/dic/runfolder"
-	"spallscope/strain"
 	"spallscope/strain/strainfile"
 )
 
-// loadFlags read a test frame's load log.
-type loadFlags struct {
-	path, sync   string
-	area, offset float64
-	format       loadlog.Format
-}
+func newZonesCmd() *cobra.Command { return zonesCommand(&config.Test{}) }
 
-func (l *loadFlags) register(cmd *cobra.Command) {
-	f := cmd.Flags()
-	f.StringVar(&l.path, "load", "", "load log of the test frame (CSV or whitespace-delimited text)")
-	f.Float64Var(&l.area, "area", 0, "loaded area in mm² (nominal stress = force / area)")
-	f.StringVar(&l.format.TimeColumn, "time-col", "", "load log: time column, by header name or 1-based index (default: first time-like column)")
-	f.StringVar(&l.format.ForceColumn, "force-col", "", "load log: force column, by name or index")
-	f.StringVar(&l.format.TimeUnit, "time-unit", "", "load log: time unit s, ms, min, h or hms (h:mm:ss)")
-	f.StringVar(&l.format.ForceUnit, "force-unit", "", "load log: force unit N, kN, lbf or kip")
-	f.BoolVar(&l.format.CompressionNegative, "compression-negative", false, "load log: compressive forces are logged negative")
-	f.Float64Var(&l.offset, "clock-offset", 0, "load log clock minus camera clock, s")
-	f.StringVar(&l.sync, "sync", "", "clock sync pair CAMERA_S,LOG_S: this camera time is this log time")
-}
-
-// stress returns the nominal stress of the log, or nil without --load.
-func (l *loadFlags) stress() (*loadlog.Stress, error) {
-	if l.path == "" {
-		if l.area != 0 || l.sync != "" || l.offset != 0 {
-			return nil, fmt.Errorf("--area, --sync and --clock-offset need --load")
-		}
-		return nil, nil
-	}
-	cfg := config.Load{AreaMM2: l.area, TimeColumn: l.format.TimeColumn, ForceColumn: l.format.ForceColumn,
-		TimeUnit: l.format.TimeUnit, ForceUnit: l.format.ForceUnit, CompressionNegative: l.format.CompressionNegative,
-		ClockOffset: l.offset}
-	if l.sync != "" {
-		p, err := parsePoint("--sync", l.sync)
-		if err != nil {
-			return nil, err
-		}
-		cfg.Sync = p[:]
-	}
-	return job.Stress(cfg, l.path)
-}
-
-func newZonesCmd() *cobra.Command {
-	var (
-		run, out, indicators, threshold, openingsFile string
-		openings                                      []string
-		fps                                           float64
-		st                                            stage.ZoneStage
-		lf                                            loadFlags
-	)
+// zonesCommand is the zones command filling test config t from its options.
+func zonesCommand(t *config.Test) *cobra.Command {
+	var run, out string
 	cmd := &cobra.Command{
 		Use:   "zones --strain RUN [--load FILE --area MM2] [--opening NAME=SHAPE ...] [--out RUN]",
 		Short: "Find localized zones frame by frame and time the onset of spalling, notching and cracking with its stress",
@@ -135,66 +83,13 @@ engineers under local codes.`,
 			if out != run {
 				return fmt.Errorf("--out must be the run folder of --strain (%s)", run)
 			}
-			if _, err := os.Stat(run); err != nil {
-				return fmt.Errorf("--strain: %w", err)
-			}
-			var err error
-			if st.Finder.Indicators, err = strain.ParseIndicators(indicators); err != nil {
+			if err := refuseTypedZeros(cmd.Flags()); err != nil {
 				return err
 			}
-			if err := job.Threshold(threshold, &st.Finder.Thresholds); err != nil {
-				return err
+			rep, notes, err := job.Zones(t, run, "spallscope "+version)
+			for _, n := range notes {
+				fmt.Fprintln(cmd.ErrOrStderr(), "load log:", n)
 			}
-			specs := openings
-			if openingsFile != "" {
-				lines, err := readLines(openingsFile)
-				if err != nil {
-					return err
-				}
-				specs = append(specs, lines...)
-			}
-			var tr runfolder.TrackRecord
-			haveTrack := runfolder.Section(run, "track", &tr) == nil
-			if len(specs) == 0 && haveTrack {
-				specs = tr.Exclude
-			}
-			for i, s := range specs {
-				name, shape, err := parseNamedShape(s, i)
-				if err != nil {
-					return err
-				}
-				st.OpeningNames = append(st.OpeningNames, name)
-				st.Finder.Sectors.Openings = append(st.Finder.Sectors.Openings, strain.Opening{Name: name, Shape: shape})
-			}
-			if haveTrack {
-				st.Finder.SubsetHalf = tr.Settings.Subset / 2
-			}
-			st.Finder.Scale = strainfile.Scale(run)
-			names, err := runfolder.Frames(run)
-			if err != nil {
-				return err
-			}
-			times := tr.Times
-			if fps > 0 {
-				times, _ = frames.FixedRate(len(names), fps, 0)
-			}
-			if len(times) != len(names) {
-				return fmt.Errorf("frame times of %s are unknown: give --fps here, or track with --fps, --times or --mtime", run)
-			}
-			sigma, err := lf.stress()
-			if err != nil {
-				return err
-			}
-			if sigma != nil {
-				for _, n := range sigma.Log.Notes {
-					fmt.Fprintln(cmd.ErrOrStderr(), "load log:", n)
-				}
-				if err := runfolder.RecordLoad(run, sigma); err != nil {
-					return err
-				}
-			}
-			states := stage.FrameStates(names, times, sigma)
-			rep, err := stage.Zones(run, st, states, "spallscope "+version)
 			if err != nil {
 				return err
 			}
@@ -206,22 +101,12 @@ engineers under local codes.`,
 	f.StringVar(&run, "strain", "", "run folder with strain/ (from strain) and fields/ (from track)")
 	f.StringVar(&run, "fields", "", "the same run folder (alias of --strain)")
 	f.StringVar(&out, "out", "", "run folder to write into (default and only choice: the --strain run folder)")
-	f.StringArrayVar(&openings, "opening", nil, "opening NAME=SHAPE (e.g. A=circle:256,256,60), repeatable")
-	f.StringVar(&openingsFile, "openings", "", "file of openings, one NAME=SHAPE per line")
-	f.StringVar(&indicators, "indicator", "e1,gamma_max,decorrelation", "indicators, comma-separated: e1, e_eq, gamma_max, decorrelation")
-	f.StringVar(&threshold, "threshold", "6mad", `zone threshold: "Kmad" (robust deviations above the frame median) and/or "Nue" (absolute microstrain)`)
-	f.IntVar(&st.Finder.Thresholds.MinCells, "min-cells", 4, "smallest zone in grid points")
-	f.Float64Var(&st.Finder.Thresholds.MinZNCC, "min-zncc", 0.9, "decorrelation: ZNCC below which a point counts as decorrelated")
-	f.IntVar(&st.Finder.Persistence, "persistence", 3, "frames a zone must last to count as an onset")
-	f.Float64Var(&st.CalibrateBelow, "calibrate-below", 0.2, "fraction of the peak stress up to which frames calibrate the elastic baseline")
-	f.IntVar(&st.CalibrateFrames, "calibrate-frames", 3, "without a load log: the first N frames calibrate")
-	f.Float64Var(&st.K, "k", 0, "lateral to vertical far-field stress ratio, for the Kirsch context")
-	f.Float64Var(&st.UCS, "ucs", 0, "uniaxial compressive strength in MPa, for the context")
-	f.Float64Var(&st.Finder.Sectors.LoadAngleDeg, "load-angle", 90, "direction of the load axis in degrees from +x towards +y (90: vertical)")
-	f.Float64Var(&st.Finder.Sectors.CrownHalfAngle, "crown-half-angle", 45, "half-width of the crown and invert sectors in degrees")
-	f.Float64Var(&st.Finder.Sectors.Reach, "reach", 1, "how far sectors extend from an opening's wall, in equivalent radii")
-	f.Float64Var(&fps, "fps", 0, "frame rate, when the run has no frame times")
-	lf.register(cmd)
+	bindOpenings(f, t)
+	bindZones(f, &t.Zones)
+	f.Float64Var(&t.Times.FPS, "fps", 0, "frame rate, when the run has no frame times")
+	f.SetAnnotation("fps", yamlKeyAnnotation, []string{"times.fps"})
+	f.SetAnnotation("fps", zeroDefaultAnnotation, []string{"true"})
+	bindLoad(f, &t.Load)
 	return cmd
 }
 
@@ -244,32 +129,4 @@ func printOnsets(cmd *cobra.Command, rep *strainfile.OnsetReport, path string) {
 	}
 	w.Flush()
 	fmt.Fprintf(o, "peak %.2f MPa at %.1f s (%s); onsets in %s\n", rep.Peak.Stress, rep.Peak.Time, rep.Peak.Frame, path)
-}
-
-// parseNamedShape reads "NAME=SHAPE" or "SHAPE" (named A, B, ... by position).
-func parseNamedShape(s string, i int) (string, region.Shape, error) {
-	name := string(rune('A' + i%26))
-	if n, rest, ok := strings.Cut(s, "="); ok {
-		name, s = strings.TrimSpace(n), rest
-	}
-	shape, err := region.ParseShape(s)
-	if err != nil {
-		return "", nil, fmt.Errorf("opening %q: %w", name, err)
-	}
-	return name, shape, nil
-}
-
-// readLines returns the non-blank, non-comment lines of a file.
-func readLines(path string) ([]string, error) {
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return nil, err
-	}
-	var out []string
-	for _, l := range strings.Split(string(data), "\n") {
-		if l = strings.TrimSpace(l); l != "" && !strings.HasPrefix(l, "#") {
-			out = append(out, l)
-		}
-	}
-	return out, nil
 }

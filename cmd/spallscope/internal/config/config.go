@@ -113,149 +113,6 @@ func (t *Test) FaceTest(i int) *Test {
 	return &c
 }
 
-// Times says when each frame was taken: give one of FPS, CSV or MTime.
-type Times struct {
-	FPS   float64 `yaml:"fps"`
-	CSV   string  `yaml:"csv"`
-	MTime bool    `yaml:"mtime"`
-}
-
-// Scale is the image scale: a factor, or a known distance between two
-// reference points [x1, y1, x2, y2, mm].
-type Scale struct {
-	MMPerPx float64   `yaml:"mm_per_px"`
-	Line    []float64 `yaml:"line"`
-}
-
-// Opening names an opening and its shape (circle:cx,cy,r,
-// ellipse:cx,cy,rx,ry[,deg], polygon:x1,y1,...).
-type Opening struct {
-	Name  string `yaml:"name"`
-	Shape string `yaml:"shape"`
-}
-
-// Correlation are the tracking settings (zero: defaults).
-type Correlation struct {
-	Subset        int     `yaml:"subset"`
-	Step          int     `yaml:"step"`
-	Order         string  `yaml:"order"`         // affine | quadratic
-	Interpolation string  `yaml:"interpolation"` // bicubic | biquintic
-	Reference     string  `yaml:"reference"`     // fixed | incremental
-	UpdateBelow   float64 `yaml:"update_below"`
-	MinZNCC       float64 `yaml:"min_zncc"`
-	SearchRadius  int     `yaml:"search_radius"`
-	EdgeGuard     int     `yaml:"edge_guard"`
-	Seeds         [][]int `yaml:"seeds"`
-}
-
-// Strain are the strain settings.
-type Strain struct {
-	Window       int    `yaml:"window"`
-	Order        int    `yaml:"order"`
-	Measure      string `yaml:"measure"`
-	StaticFrames int    `yaml:"static_frames"`
-}
-
-// Zones are the zone and onset settings.
-type Zones struct {
-	Indicators      []string `yaml:"indicators"`
-	Threshold       string   `yaml:"threshold"` // "6mad", "500ue" or both
-	MinCells        int      `yaml:"min_cells"`
-	MinZNCC         float64  `yaml:"min_zncc"`
-	Persistence     int      `yaml:"persistence"`
-	CalibrateBelow  float64  `yaml:"calibrate_below"`
-	CalibrateFrames int      `yaml:"calibrate_frames"`
-	K               float64  `yaml:"k"`
-	UCS             float64  `yaml:"ucs_mpa"`
-	LoadAngleDeg    float64  `yaml:"load_angle_deg"`
-	CrownHalfAngle  float64  `yaml:"crown_half_angle_deg"`
-	Reach           float64  `yaml:"reach"`
-}
-
-// Load maps the test frame's log.
-type Load struct {
-	File                string    `yaml:"file"`
-	AreaMM2             float64   `yaml:"area_mm2"`
-	TimeColumn          string    `yaml:"time_column"`
-	ForceColumn         string    `yaml:"force_column"`
-	TimeUnit            string    `yaml:"time_unit"`
-	ForceUnit           string    `yaml:"force_unit"`
-	CompressionNegative bool      `yaml:"compression_negative"`
-	ClockOffset         float64   `yaml:"clock_offset_s"`
-	Sync                []float64 `yaml:"sync"` // [camera_s, log_s]
-}
-
-// AE maps an acoustic-emission hit list recorded beside the load, and the
-// rule for its onset: the hit rate in Window-second windows first exceeds
-// K times the early-test background for Persistence windows in a row.
-type AE struct {
-	File            string    `yaml:"file"`
-	TimeColumn      string    `yaml:"time_column"`
-	AmplitudeColumn string    `yaml:"amplitude_column"`
-	EnergyColumn    string    `yaml:"energy_column"`
-	CountsColumn    string    `yaml:"counts_column"`
-	ChannelColumn   string    `yaml:"channel_column"`
-	TimeUnit        string    `yaml:"time_unit"`
-	ClockOffset     float64   `yaml:"clock_offset_s"` // AE time = camera time + offset
-	Sync            []float64 `yaml:"sync"`           // [camera_s, ae_s]
-	Window          float64   `yaml:"window_s"`
-	K               float64   `yaml:"k"`
-	Persistence     int       `yaml:"persistence"`
-	Background      []float64 `yaml:"background_s"` // [t0, t1] camera time; default the first 10 %
-	GapSeconds      float64   `yaml:"gap_s"`        // silence longer than this is a gap
-}
-
-// Model is a numerical model's field to hold against the measurement: a
-// CSV of points (x, y and any of u, v, exx, eyy, exy) at the load level
-// LoadMPa, compared at the frame whose nominal stress is nearest. Its
-// origin is at reference pixel Origin, its lengths in Units (mm with the
-// face's scale, or px), its y axis up the image when YUp. With several
-// faces it belongs to the face named Face (default the first).
-type Model struct {
-	File                string    `yaml:"file"`
-	LoadMPa             float64   `yaml:"load_mpa"`
-	Frame               string    `yaml:"frame"` // instead of load_mpa
-	Units               string    `yaml:"units"`
-	Origin              []float64 `yaml:"origin_px"`
-	YUp                 bool      `yaml:"y_up"`
-	CompressionPositive bool      `yaml:"compression_positive"`
-	Face                string    `yaml:"face"`
-}
-
-// Outputs says what to produce beyond fields, strain, zones and onsets.
-// Unset switches take their defaults: overlays and the report on, video,
-// VTK and NPY off.
-type Outputs struct {
-	Overlays *bool  `yaml:"overlays"`
-	Video    *bool  `yaml:"video"`
-	Report   *bool  `yaml:"report"`
-	VTK      *bool  `yaml:"vtk"`
-	NPY      *bool  `yaml:"npy"`
-	Field    string `yaml:"field"` // overlay quantity, default e1
-}
-
-func on(b *bool, def bool) bool {
-	if b == nil {
-		return def
-	}
-	return *b
-}
-
-// WantOverlays reports whether overlays are wanted (default yes).
-func (o Outputs) WantOverlays() bool { return on(o.Overlays, true) }
-
-// WantVideo reports whether a video is wanted (default no).
-func (o Outputs) WantVideo() bool { return on(o.Video, false) }
-
-// WantReport reports whether the HTML report is wanted (default yes).
-func (o Outputs) WantReport() bool { return on(o.Report, true) }
-
-// WantVTK reports whether VTK files are wanted (default no).
-func (o Outputs) WantVTK() bool { return on(o.VTK, false) }
-
-// WantNPY reports whether NumPy arrays are wanted (default no).
-func (o Outputs) WantNPY() bool { return on(o.NPY, false) }
-
 // Read reads and checks a test config.
 func Read(path string) (*Test, error) {
 	data, err := os.ReadFile(path)
@@ -407,31 +264,53 @@ func sectionOf(data []byte, line int) []string {
 	return chain
 }
 
-// validKeys lists the yaml keys of the struct reached from t by the chain.
+// validKeys lists the yaml keys of the struct reached from t by the chain,
+// in the order the struct declares them.
 func validKeys(t reflect.Type, chain []string) []string {
 	for _, k := range chain {
-		for t.Kind() == reflect.Slice || t.Kind() == reflect.Pointer {
-			t = t.Elem()
-		}
-		if t.Kind() != reflect.Struct {
-			break
-		}
-		for i := 0; i < t.NumField(); i++ {
-			if tag, _, _ := strings.Cut(t.Field(i).Tag.Get("yaml"), ","); tag == k {
-				t = t.Field(i).Type
+		found := false
+		for _, key := range Keys(t) {
+			if key.Name == k {
+				t, found = key.Type, true
 				break
 			}
 		}
+		if !found {
+			break
+		}
 	}
+	var names []string
+	for _, key := range Keys(t) {
+		names = append(names, key.Name)
+	}
+	return names
+}
+
+// Key is one YAML key of a config struct and the type of its value.
+type Key struct {
+	Name string
+	Type reflect.Type
+}
+
+// Keys lists the yaml keys of a struct type in declaration order (through
+// slices and pointers, with the keys of inline structs put in where they
+// are embedded); nil for a type that is not a struct.
+func Keys(t reflect.Type) []Key {
 	for t.Kind() == reflect.Slice || t.Kind() == reflect.Pointer {
 		t = t.Elem()
 	}
-	var keys []string
-	if t.Kind() == reflect.Struct {
-		for i := 0; i < t.NumField(); i++ {
-			if tag, _, _ := strings.Cut(t.Field(i).Tag.Get("yaml"), ","); tag != "" && tag != "-" {
-				keys = append(keys, tag)
-			}
+	if t.Kind() != reflect.Struct {
+		return nil
+	}
+	var keys []Key
+	for i := 0; i < t.NumField(); i++ {
+		f := t.Field(i)
+		tag, opts, _ := strings.Cut(f.Tag.Get("yaml"), ",")
+		switch {
+		case strings.Contains(opts, "inline"):
+			keys = append(keys, Keys(f.Type)...)
+		case tag != "" && tag != "-":
+			keys = append(keys, Key{tag, f.Type})
 		}
 	}
 	return keys

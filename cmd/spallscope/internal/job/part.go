@@ -105,7 +105,7 @@ func CanSplit(t *config.Test) error {
 	if len(t.Faces) > 0 {
 		return fmt.Errorf("test %s has several faces; it runs as one task", t.Name)
 	}
-	settings, err := Correlation(t.Correlation)
+	settings, err := t.Correlation.Settings()
 	if err != nil {
 		return fmt.Errorf("test %s: correlation: %w", t.Name, err)
 	}

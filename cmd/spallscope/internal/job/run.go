@@ -7,17 +7,14 @@ import (
 	"os"
 	"path/filepath"
 	"strconv"
-	"strings"
 	"time"
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic"
-	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/render"
 	"spallscope/render/export"
-	"spallscope/strain"
 	"spallscope/strain/model"
 	"spallscope/strain/strainfile"
 )
@@ -138,7 +135,7 @@ func Run(t *config.Test, out, tool string, progress Progress) (*Summary, error) 
 	rr.Seconds["track"] = time.Since(stageStart).Seconds()
 
 	// Strain.
-	win, err := Window(t.Strain)
+	win, err := t.Strain.StrainWindow()
 	if err != nil {
 		return nil, fmt.Errorf("test %s: strain: %w", t.Name, err)
 	}
@@ -238,31 +235,12 @@ func zones(t *config.Test, out string, times []float64, loadPath string, scale d
 	if len(times) != len(names) {
 		return fmt.Errorf("frame times are unknown: give times (fps, csv or mtime) in the test config")
 	}
-	st := stage.ZoneStage{CalibrateBelow: t.Zones.CalibrateBelow, CalibrateFrames: t.Zones.CalibrateFrames, K: t.Zones.K, UCS: t.Zones.UCS}
-	z := t.Zones
-	if len(z.Indicators) > 0 {
-		inds, err := strain.ParseIndicators(strings.Join(z.Indicators, ","))
-		if err != nil {
-			return err
-		}
-		st.Finder.Indicators = inds
-	}
-	if err := Threshold(z.Threshold, &st.Finder.Thresholds); err != nil {
+	st, err := t.Zones.Stage(t.Openings)
+	if err != nil {
 		return err
 	}
-	st.Finder.Thresholds.MinCells, st.Finder.Thresholds.MinZNCC = z.MinCells, z.MinZNCC
-	st.Finder.Persistence = z.Persistence
-	st.Finder.Sectors = strain.Sectors{LoadAngleDeg: z.LoadAngleDeg, CrownHalfAngle: z.CrownHalfAngle, Reach: z.Reach}
-	for i, o := range t.Openings {
-		shape, err := region.ParseShape(o.Shape)
-		if err != nil {
-			return fmt.Errorf("openings[%d]: %w", i, err)
-		}
-		st.Finder.Sectors.Openings = append(st.Finder.Sectors.Openings, strain.Opening{Name: o.Name, Shape: shape})
-		st.OpeningNames = append(st.OpeningNames, o.Name)
-	}
 	st.Finder.Scale, st.Finder.SubsetHalf = scale, subsetSize/2
-	sigma, err := Stress(t.Load, loadPath)
+	sigma, err := t.Load.Stress(loadPath)
 	if err != nil {
 		return err
 	}

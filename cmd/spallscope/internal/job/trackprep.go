@@ -34,20 +34,20 @@ func prepareTrack(t *config.Test, tool string) (*trackInputs, error) {
 	var err error
 	tp.in, err = Open(t.Resolve(t.Images), resolveRef(t), t.ROI, tp.exclude, t.Resolve(t.Mask))
 	if err != nil {
-		return nil, fmt.Errorf("test %s: %w", t.Name, err)
+		return nil, inTest(t, err)
 	}
 	fail := func(err error) (*trackInputs, error) {
 		tp.in.Seq.Close()
 		return nil, err
 	}
-	if tp.settings, err = Correlation(t.Correlation); err != nil {
-		return fail(fmt.Errorf("test %s: correlation: %w", t.Name, err))
+	if tp.settings, err = t.Correlation.Settings(); err != nil {
+		return fail(inTest(t, fmt.Errorf("correlation: %w", err)))
 	}
-	if tp.scale, err = Scale(t.Scale); err != nil {
-		return fail(fmt.Errorf("test %s: %w", t.Name, err))
+	if tp.scale, err = t.Scale.Value(); err != nil {
+		return fail(inTest(t, err))
 	}
 	if tp.times, err = Times(tp.in.Seq, t.Resolve(t.Times.CSV), t.Times.FPS, t.Times.MTime); err != nil {
-		return fail(fmt.Errorf("test %s: %w", t.Name, err))
+		return fail(inTest(t, err))
 	}
 	if tp.maskHash, err = fileHash(t.Resolve(t.Mask)); err != nil {
 		return fail(err)
@@ -87,4 +87,13 @@ func (tp *trackInputs) resume(dir string, tracker *dic.Tracker, from, to int) in
 		return from
 	}
 	return next
+}
+
+// inTest prefixes err with the test's name, when the test has one (a
+// stage run alone from the command line has none).
+func inTest(t *config.Test, err error) error {
+	if t.Name == "" {
+		return err
+	}
+	return fmt.Errorf("test %s: %w", t.Name, err)
 }

@@ -26,6 +26,20 @@ type ZoneStage struct {
 	K, UCS float64
 }
 
+// Effective returns the settings with defaults in their zero fields
+// (calibration up to 0.2 of the peak, or the first 3 frames without a
+// load, and the finder's defaults), as the stage applies them.
+func (st ZoneStage) Effective() ZoneStage {
+	if st.CalibrateBelow == 0 {
+		st.CalibrateBelow = 0.2
+	}
+	if st.CalibrateFrames == 0 {
+		st.CalibrateFrames = 3
+	}
+	st.Finder = st.Finder.Effective()
+	return st
+}
+
 // Zones runs the zones stage over run folder dir: it fits each point's
 // elastic response on the calibration frames (stress up to CalibrateBelow
 // of the peak), finds and tracks the localized zones of every frame, and
@@ -39,9 +53,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	if len(frames) != len(names) {
 		return nil, fmt.Errorf("zones: %d frame states for the run's %d frames", len(frames), len(names))
 	}
-	if st.CalibrateBelow == 0 {
-		st.CalibrateBelow = 0.2
-	}
+	st = st.Effective()
 	peak := strainfile.PeakRecord{Frame: names[0]}
 	for k, f := range frames {
 		if f.Stress > peak.Stress {
@@ -51,9 +63,6 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	// Calibration: the elastic part of the test.
 	var calib []*strain.Field
 	var calibStress []float64
-	if st.CalibrateFrames == 0 {
-		st.CalibrateFrames = 3
-	}
 	read := map[int]*strain.Field{} // calibration frames, read once for both passes
 	for k, name := range names {
 		loaded := peak.Stress > 0

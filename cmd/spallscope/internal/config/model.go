@@ -1,0 +1,18 @@
+package config
+
+// Model is a numerical model's field to hold against the measurement: a
+// CSV of points (x, y and any of u, v, exx, eyy, exy) at the load level
+// LoadMPa, compared at the frame whose nominal stress is nearest. Its
+// origin is at reference pixel Origin, its lengths in Units (mm with the
+// face's scale, or px), its y axis up the image when YUp. With several
+// faces it belongs to the face named Face (default the first).
+type Model struct {
+	File                string    `yaml:"file"`
+	LoadMPa             float64   `yaml:"load_mpa"`
+	Frame               string    `yaml:"frame"` // instead of load_mpa
+	Units               string    `yaml:"units"`
+	Origin              []float64 `yaml:"origin_px"`
+	YUp                 bool      `yaml:"y_up"`
+	CompressionPositive bool      `yaml:"compression_positive"`
+	Face                string    `yaml:"face"`
+}
