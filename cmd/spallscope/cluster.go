@@ -202,10 +202,9 @@ folder of a submitted campaign.`,
 			if err != nil {
 				return err
 			}
-			bars := newStageLines(cmd)
-			bars.tests = len(c.Tests)
-			results, err := cluster.Merge(c, plan, o, tool, bars.update)
-			bars.finish()
+			r := reporter(cmd)
+			results, err := cluster.Merge(c, plan, o, tool, campaignProgress(r, len(c.Tests)))
+			r.Wait()
 			if err != nil {
 				return err
 			}

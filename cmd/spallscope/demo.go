@@ -11,6 +11,7 @@ import (
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/job"
+	"spallscope/cmd/spallscope/internal/progress"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
 )
@@ -60,7 +61,9 @@ func renderFace(cmd *cobra.Command, sc *synth.Scenario, dir string) (*synth.Trut
 		fmt.Fprintln(cmd.ErrOrStderr(), "demo: reusing the synthetic face in", dir)
 		return truth, nil
 	}
-	return synth.Write(sc, dir, progressLine(cmd, "demo: rendered frame of "+sc.Name))
+	r := reporter(cmd)
+	defer r.Wait()
+	return synth.Write(sc, dir, progress.Task(r, "demo: render "+sc.Name))
 }
 
 func newDemoCmd() *cobra.Command {
@@ -110,8 +113,9 @@ A complete demo folder is reused; an interrupted one resumes.`,
 				return err
 			}
 			runDir := filepath.Join(out, "run")
-			bars := newStageLines(cmd)
-			sum, err := job.Run(t, runDir, "spallscope "+version, func(stage string, done, total int) { bars.update("demo", stage, done, total) })
+			r := reporter(cmd)
+			sum, err := job.Run(t, runDir, "spallscope "+version, testProgress(r, "demo"))
+			r.Wait()
 			if err != nil {
 				return err
 			}

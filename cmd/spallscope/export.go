@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/progress"
 	"spallscope/render/export"
 )
 
@@ -54,7 +55,9 @@ was run for each frame. Without --vtk or --npy, both are written.`,
 			if err != nil {
 				return err
 			}
-			opt := export.Options{VTK: vtk, NPY: npy, Scale: scale, Progress: progressLine(cmd, "export: frame")}
+			r := reporter(cmd)
+			defer r.Wait()
+			opt := export.Options{VTK: vtk, NPY: npy, Scale: scale, Progress: progress.Task(r, "export")}
 			if cmd.Flags().Changed("fields") {
 				opt.Fields = fields
 				if opt.Fields == nil {

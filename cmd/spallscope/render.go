@@ -6,6 +6,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/progress"
 	"spallscope/render"
 )
 
@@ -76,7 +77,9 @@ AVI Motion JPEG where this machine's OpenCV cannot write MP4, which is said).`,
 				return fmt.Errorf("--alpha %g: expected an opacity in (0, 1]", opt.Alpha)
 			}
 			opt.LowPct, opt.HighPct = percentiles[0], percentiles[1]
-			opt.Progress = progressLine(cmd, "render: frame")
+			r := reporter(cmd)
+			defer r.Wait()
+			opt.Progress = progress.Task(r, "render")
 			res, err := render.Run(args[0], opt)
 			if err != nil {
 				return err

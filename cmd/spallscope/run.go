@@ -36,9 +36,9 @@ the measurement resolution.`,
 			if err != nil {
 				return err
 			}
-			bars := newStageLines(cmd)
-			s, err := job.Run(t, out, "spallscope "+version, func(stage string, done, total int) { bars.update(t.Name, stage, done, total) })
-			bars.finish()
+			r := reporter(cmd)
+			s, err := job.Run(t, out, "spallscope "+version, testProgress(r, t.Name))
+			r.Wait()
 			if err != nil {
 				return err
 			}
@@ -141,11 +141,11 @@ frames are tracked in frame parts, and merge finishes them.`,
 				}
 				include = func(k int) bool { return whole[c.Tests[k]] }
 			}
-			bars := newStageLines(cmd)
-			bars.tests = len(c.Tests)
-			results := job.RunCampaign(c, out, tool, jobs, include, bars.update)
-			partErrs := runParts(parts, out, tool, bars.update)
-			bars.finish()
+			r := reporter(cmd)
+			show := campaignProgress(r, len(c.Tests))
+			results := job.RunCampaign(c, out, tool, jobs, include, show)
+			partErrs := runParts(parts, out, tool, show)
+			r.Wait()
 			if !sharded {
 				if err := job.WriteCampaignSummary(out, c.Name, results); err != nil {
 					return err

@@ -8,6 +8,7 @@ import (
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/job"
+	"spallscope/cmd/spallscope/internal/progress"
 	"spallscope/dic/runfolder"
 	"spallscope/strain/strainfile"
 )
@@ -72,7 +73,9 @@ RUN/run.json. Re-running with another window does not re-track.`,
 			if err := refuseTypedZeros(cmd.Flags()); err != nil {
 				return err
 			}
-			rec, res, err := job.Strain(t, fields, subsetSize, progressLine(cmd, "strain: frame"))
+			r := reporter(cmd)
+			defer r.Wait()
+			rec, res, err := job.Strain(t, fields, subsetSize, progress.Task(r, "strain"))
 			if err != nil {
 				return err
 			}

@@ -9,6 +9,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/progress"
 	"spallscope/dic/synth"
 )
 
@@ -84,7 +85,9 @@ given; tension positive in the truth's derived quantities), s for time.`,
 			if out == "" {
 				return fmt.Errorf("synth: --out DIR is required")
 			}
-			truth, err := synth.Write(sc, out, progressLine(cmd, "synth: rendered"))
+			r := reporter(cmd)
+			defer r.Wait()
+			truth, err := synth.Write(sc, out, progress.Task(r, "synth: render"))
 			if err != nil {
 				return err
 			}

@@ -63,13 +63,11 @@ read stops the run with an error naming it and keeps the fields written.`,
 			if err := refuseTypedZeros(cmd.Flags()); err != nil {
 				return err
 			}
-			var prog *rateLine
+			r := reporter(cmd)
 			rec, err := job.Track(t, out, "spallscope "+version, func(done, total, points int, f *dic.Field) {
-				if prog == nil {
-					prog = newRateLine(cmd, "track", total, points)
-				}
-				prog.done(done, f.Valid())
+				r.Update(fmt.Sprintf("track (%d points a frame)", points), done, total)
 			})
+			r.Wait()
 			if err != nil {
 				return asFlagError(cmd.Flags(), err)
 			}
