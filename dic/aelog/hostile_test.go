@@ -37,3 +37,17 @@ func TestReadHostileCells(t *testing.T) {
 		logtabletest.WantBrief(t, c.name, err, 500)
 	}
 }
+
+// A comment prefix that would swallow data rows is refused, naming the
+// option.
+func TestReadCommentOption(t *testing.T) {
+	path := writeList(t, "c.csv", "time_s,counts\n0,1\n")
+	for comment, want := range map[string]string{
+		"0":  `comment "0": a comment prefix that starts like a number would skip data rows`,
+		"\t": `comment "\t": a comment prefix cannot start with a blank`,
+	} {
+		if _, err := Read(path, Format{Comment: comment}); err == nil || !strings.Contains(err.Error(), want) || !strings.Contains(err.Error(), path) {
+			t.Errorf("comment %q: error %v, want %q and the file", comment, err, want)
+		}
+	}
+}
