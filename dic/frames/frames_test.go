@@ -330,6 +330,7 @@ func TestFrameTimesRefused(t *testing.T) {
 		{"twice", "frame,time_s\na_1,0\na_2,1\n1,2\n", []string{"line 4", "a_2 listed twice (first on line 3)"}},
 		{"huge frame", "frame,time_s\n" + huge + ",0\n", []string{"line 2", `"` + strings.Repeat("7", 60) + `"… (100000 bytes) is neither`}},
 		{"huge time", "frame,time_s\na_1," + huge + "x\n", []string{"line 2", "(100001 bytes) is not a number"}},
+		{"long line", "frame,time_s\na_1," + strings.Repeat("1", 2<<20) + "\n", []string{"line 2 is longer than 1048576 bytes"}},
 	} {
 		os.WriteFile(csvPath, []byte(c.text), 0o644)
 		_, err := ReadTimes(csvPath, seq)

@@ -53,7 +53,7 @@ func ReadTimes(path string, seq Sequence) ([]float64, error) {
 		return nil, fmt.Errorf("frame times: %w", err)
 	}
 	defer f.Close()
-	r := csv.NewReader(f)
+	r := csv.NewReader(logtable.LimitLines(f, logtable.MaxLine))
 	r.Comment = '#'
 	r.FieldsPerRecord = -1
 	r.TrimLeadingSpace = true
