@@ -47,7 +47,8 @@ type Tracker struct {
 // NewTracker prepares tracking of the grid over mask (nil: the whole
 // image) on the reference image ref, which is frame refIndex of its
 // sequence. It reports settings that cannot be used and a mask whose size
-// differs from the reference.
+// differs from the reference. Pixels of ref that are NaN or infinite (a
+// float image's unmeasured pixels) leave the mask.
 func NewTracker(ref *subset.Image, refIndex int, mask *region.Mask, s Settings) (*Tracker, error) {
 	if err := s.Validate(); err != nil {
 		return nil, err
@@ -58,6 +59,16 @@ func NewTracker(ref *subset.Image, refIndex int, mask *region.Mask, s Settings) 
 	}
 	if mask.Width != ref.Width || mask.Height != ref.Height {
 		return nil, fmt.Errorf("mask is %dx%d, expected the reference's %dx%d", mask.Width, mask.Height, ref.Width, ref.Height)
+	}
+	ref, bad := fillUnmeasured(ref)
+	if bad != nil {
+		var err error
+		if mask, err = mask.Intersect(bad.measured()); err != nil {
+			return nil, err
+		}
+		if mask.Count() == 0 {
+			return nil, fmt.Errorf("reference frame %d: none of its measured pixels is a number (%d of %d pixels are NaN or infinite)", refIndex, bad.count, len(ref.Pix))
+		}
 	}
 	if ref.Width < s.Subset || ref.Height < s.Subset {
 		return nil, fmt.Errorf("reference %dx%d is smaller than one %d px subset", ref.Width, ref.Height, s.Subset)
@@ -222,19 +233,24 @@ func (t *Tracker) nearestTrackable(x, y int) int {
 
 // Track correlates one frame (index and name as in its sequence) and
 // returns its field in the original reference's coordinates. Frames must
-// come in order; the reference frame itself gives zero displacement.
+// come in order; the reference frame itself gives zero displacement. A
+// point whose deformed subset lands on a pixel of img that is NaN or
+// infinite is lost.
 func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, error) {
 	if !img.SameSize(t.origin) {
 		return nil, fmt.Errorf("frame %d (%s): size %dx%d, expected %dx%d like the reference", index, name, img.Width, img.Height, t.origin.Width, t.origin.Height)
 	}
+	img, bad := fillUnmeasured(img)
 	sp := subset.NewSpline(img, t.s.Interpolation)
-	inc := t.correlate(img, sp, t.prevInc, t.prevIncOK)
+	inc := t.correlateFrame(img, sp, bad, t.prevInc, t.prevIncOK)
 	f := t.compose(inc, index, name)
 	if t.s.Reference == IncrementalReference && t.last != nil && t.lastIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {
 		// Correlation has degraded: move the reference to the last frame
 		// and correlate this one again against it.
+		// The points whose subsets reached unmeasured pixels of that frame
+		// were lost there, so none is correlated against them now.
 		t.setReference(t.last, t.lastIndex, t.prev, nil)
-		inc = t.correlate(img, sp, nil, nil)
+		inc = t.correlateFrame(img, sp, bad, nil, nil)
 		f = t.compose(inc, index, name)
 	}
 	t.prevInc = make([]subset.Params, len(inc))
@@ -247,6 +263,16 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 		t.last, t.lastIndex = img, index
 	}
 	return f, nil
+}
+
+// correlateFrame correlates a frame whose unmeasured pixels (nil: none)
+// were filled, and flags lost the points whose deformed subsets reach them.
+func (t *Tracker) correlateFrame(img *subset.Image, sp *subset.Spline, bad *unmeasured, prev []subset.Params, prevOK []bool) []subset.Result {
+	res := t.correlate(img, sp, prev, prevOK)
+	if bad != nil {
+		bad.flag(res, t.centres, t.s.Subset/2)
+	}
+	return res
 }
 
 // Resume continues tracking after frame f (read back from its file) as

@@ -111,7 +111,7 @@ func (d *decoder) setup() error {
 	}
 	if c := d.cols[amplitudeQ]; c.Index != 0 {
 		if u := quantities[amplitudeQ].headerUnit(c.Name); u != "" && !isDecibel(u) {
-			return fail(c, fmt.Errorf("amplitude column %q is in %s; expected peak amplitudes in dB", c.Name, u))
+			return fail(c, fmt.Errorf("amplitude column %s is in %s; expected peak amplitudes in dB", logtable.Excerpt(c.Name), logtable.Shown(u)))
 		}
 	}
 	if c := d.cols[energyQ]; c.Index != 0 {
@@ -129,13 +129,13 @@ func (d *decoder) timeUnitOf(c logtable.Column) (logtable.Unit, error) {
 	switch {
 	case d.timeUnit != nil:
 		if hname != "" && (!known || hu.Name != d.timeUnit.Name) {
-			d.note("time column %q names %s, but time_unit is %s: read as %s", c.Name, hname, d.timeUnit.Name, d.timeUnit.Name)
+			d.note("time column %s names %s, but time_unit is %s: read as %s", logtable.Excerpt(c.Name), logtable.Shown(hname), d.timeUnit.Name, d.timeUnit.Name)
 		}
 		return *d.timeUnit, nil
 	case known:
 		return hu, nil
 	case hname != "":
-		return logtable.Unit{}, fmt.Errorf("time column %q names unit %q, which is not accepted; use one of %s, or set time_unit", c.Name, hname, timeUnits)
+		return logtable.Unit{}, fmt.Errorf("time column %s names unit %s, which is not accepted; use one of %s, or set time_unit", logtable.Excerpt(c.Name), logtable.Excerpt(hname), timeUnits)
 	}
 	d.note("time unit given neither by time_unit nor by the header: assumed s")
 	u, _ := timeUnits.Lookup("s")
@@ -149,7 +149,7 @@ func (d *decoder) energyUnitOf(c logtable.Column) {
 	switch {
 	case d.energyUnit != "":
 		if hname != "" && hname != d.energyUnit {
-			d.note("energy column %q names %s, but energy_unit is %s: labelled %s (values are not converted)", c.Name, hname, d.energyUnit, d.energyUnit)
+			d.note("energy column %s names %s, but energy_unit is %s: labelled %s (values are not converted)", logtable.Excerpt(c.Name), logtable.Shown(hname), d.energyUnit, d.energyUnit)
 		}
 		d.log.EnergyUnit = d.energyUnit
 	case hname != "":
@@ -169,7 +169,7 @@ func (d *decoder) row(cells []string) error {
 	}
 	t *= d.tu.Factor
 	if math.IsInf(t, 0) {
-		return d.errAt(c, fmt.Errorf("%q %s is out of range", cells[c.Index-1], d.tu.Name))
+		return d.errAt(c, fmt.Errorf("%s %s is out of range", logtable.Excerpt(cells[c.Index-1]), d.tu.Name))
 	}
 	cell := cells[c.Index-1]
 	if n := len(d.log.Hits); n > 0 {
@@ -189,7 +189,7 @@ func (d *decoder) row(cells []string) error {
 			return err
 		}
 		if h.Energy < 0 {
-			return d.errAt(c, fmt.Errorf("energy %s is negative, expected zero or more", cells[c.Index-1]))
+			return d.errAt(c, fmt.Errorf("energy %s is negative, expected zero or more", logtable.Shown(cells[c.Index-1])))
 		}
 	}
 	if c := d.cols[countsQ]; c.Index != 0 {
@@ -197,7 +197,7 @@ func (d *decoder) row(cells []string) error {
 			return err
 		}
 		if h.Counts < 0 {
-			return d.errAt(c, fmt.Errorf("counts %s is negative, expected zero or more", cells[c.Index-1]))
+			return d.errAt(c, fmt.Errorf("counts %s is negative, expected zero or more", logtable.Shown(cells[c.Index-1])))
 		}
 	}
 	if c := d.cols[channelQ]; c.Index != 0 {
@@ -206,7 +206,7 @@ func (d *decoder) row(cells []string) error {
 			return err
 		}
 		if math.Abs(ch) > math.MaxInt32 {
-			return d.errAt(c, fmt.Errorf("channel %s is out of range", cells[c.Index-1]))
+			return d.errAt(c, fmt.Errorf("channel %s is out of range", logtable.Shown(cells[c.Index-1])))
 		}
 		h.Channel = int(ch)
 	}
@@ -229,7 +229,7 @@ func (d *decoder) whole(cells []string, c logtable.Column, what, expected string
 		return 0, err
 	}
 	if v != math.Trunc(v) {
-		return 0, d.errAt(c, fmt.Errorf("%s %s is not whole, expected %s", what, cells[c.Index-1], expected))
+		return 0, d.errAt(c, fmt.Errorf("%s %s is not whole, expected %s", what, logtable.Shown(cells[c.Index-1]), expected))
 	}
 	return v, nil
 }

@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"gocv.io/x/gocv"
 	"golang.org/x/image/bmp"
@@ -271,8 +272,92 @@ func TestFrameTimes(t *testing.T) {
 	if _, err := ReadTimes(csvPath, seq); err == nil || !strings.Contains(err.Error(), "a_2") {
 		t.Errorf("missing frame: %v should name a_2", err)
 	}
+	base := time.Date(2024, 5, 6, 7, 8, 9, 0, time.UTC)
+	for i, n := range []string{"a_1", "a_2", "a_3"} {
+		at := base.Add(time.Duration(i) * 1500 * time.Millisecond)
+		os.Chtimes(filepath.Join(dir, n+".png"), at, at)
+	}
 	mt, err := ModTimes(seq)
-	if err != nil || mt[0] != 0 || len(mt) != 3 {
-		t.Errorf("mod times: %v %v", mt, err)
+	if err != nil || len(mt) != 3 || mt[0] != 0 || mt[1] != 1.5 || mt[2] != 3 {
+		t.Errorf("mod times: %v %v, want 0 1.5 3", mt, err)
+	}
+}
+
+// Careless time lists: non-finite rates and starts, non-finite or huge
+// cells, repeated and backward times. Each is refused with the line or
+// option and what was expected; before, an infinite rate gave every frame
+// the start time, and NaN, repeated times and equal file times passed.
+func TestFrameTimesRefused(t *testing.T) {
+	for _, c := range []struct {
+		n          int
+		fps, start float64
+		want       string
+	}{
+		{3, math.Inf(1), 0, "frame rate +Inf, expected a finite positive number of frames per second"},
+		{3, math.NaN(), 0, "frame rate NaN"},
+		{3, -2, 0, "frame rate -2"},
+		{3, 0, 0, "frame rate 0"},
+		{3, 4, math.NaN(), "start NaN s, expected a finite number of seconds"},
+		{3, 4, math.Inf(-1), "start -Inf s"},
+		{-1, 4, 0, "-1 frames, expected zero or more"},
+		{3, 1e9, 1e9, "frames 0 and 1 get the same time 1e+09 s"},
+	} {
+		_, err := FixedRate(c.n, c.fps, c.start)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("FixedRate(%d, %g, %g): error %v, want %q", c.n, c.fps, c.start, err, c.want)
+		}
+	}
+	if _, err := FixedRate(3, 1e-308, 1e308); err == nil || !strings.Contains(err.Error(), "frames 0 and 1") {
+		t.Errorf("FixedRate past float64's range: error %v, want frames 0 and 1 named", err)
+	}
+
+	dir := t.TempDir()
+	for _, n := range []string{"a_1", "a_2", "a_3"} {
+		writePNG(t, filepath.Join(dir, n+".png"), gray16(4, 4, func(x, y int) uint16 { return 0 }))
+	}
+	seq, _ := Open(dir)
+	csvPath := filepath.Join(dir, "times.csv")
+	huge := strings.Repeat("7", 100_000)
+	for _, c := range []struct {
+		name, text string
+		want       []string
+	}{
+		{"nan", "frame,time_s\na_1,0\na_2,NaN\na_3,1\n", []string{"line 3", "frame a_2", `"NaN" is not a finite number`}},
+		{"inf", "frame,time_s\na_1,-Inf\na_2,0\na_3,1\n", []string{"line 2", "frame a_1", `"-Inf" is not a finite number`}},
+		{"overflow", "frame,time_s\na_1,0\na_2,1e400\na_3,1\n", []string{"line 3", "out of range"}},
+		{"repeat", "frame,time_s\na_1,0\na_2,0.5\na_3,0.5\n", []string{"line 4", "frame 2 (a_3) is 0.5 s, the same as the previous frame's 0.5 s (a_2, line 3)"}},
+		{"backwards", "# log\nframe,time_s\na_3,1\na_1,0\na_2,2\n", []string{"line 3", "frame 2 (a_3) is 1 s, before the previous frame's 2 s (a_2, line 5)"}},
+		{"twice", "frame,time_s\na_1,0\na_2,1\n1,2\n", []string{"line 4", "a_2 listed twice (first on line 3)"}},
+		{"huge frame", "frame,time_s\n" + huge + ",0\n", []string{"line 2", `"` + strings.Repeat("7", 60) + `"… (100000 bytes) is neither`}},
+		{"huge time", "frame,time_s\na_1," + huge + "x\n", []string{"line 2", "(100001 bytes) is not a number"}},
+		{"long line", "frame,time_s\na_1," + strings.Repeat("1", 2<<20) + "\n", []string{"line 2 is longer than 1048576 bytes"}},
+	} {
+		os.WriteFile(csvPath, []byte(c.text), 0o644)
+		_, err := ReadTimes(csvPath, seq)
+		if err == nil {
+			t.Errorf("%s: accepted", c.name)
+			continue
+		}
+		for _, w := range append(c.want, csvPath) {
+			if !strings.Contains(err.Error(), w) {
+				t.Errorf("%s: error %q lacks %q", c.name, err, w)
+			}
+		}
+		if len(err.Error()) > 400 {
+			t.Errorf("%s: error of %d bytes, want an excerpt", c.name, len(err.Error()))
+		}
+	}
+
+	// File times: equal (a copy that did not keep them) or backwards.
+	at := time.Date(2024, 5, 6, 7, 8, 9, 0, time.UTC)
+	for _, n := range []string{"a_1", "a_2", "a_3"} {
+		os.Chtimes(filepath.Join(dir, n+".png"), at, at)
+	}
+	if _, err := ModTimes(seq); err == nil || !strings.Contains(err.Error(), "a_2.png is not modified after") || !strings.Contains(err.Error(), "a_1.png") {
+		t.Errorf("equal file times: error %v, want a_2 and a_1 named", err)
+	}
+	os.Chtimes(filepath.Join(dir, "a_2.png"), at.Add(time.Second), at.Add(time.Second))
+	if _, err := ModTimes(seq); err == nil || !strings.Contains(err.Error(), "a_3.png is not modified after") || !strings.Contains(err.Error(), "(-1.000 s)") {
+		t.Errorf("backward file times: error %v, want a_3 named, 1 s back", err)
 	}
 }

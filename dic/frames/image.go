@@ -30,10 +30,16 @@ func IsImageFile(name string) bool {
 
 // ReadImage decodes an 8- or 16-bit gray or colour image file into a gray
 // float32 image. Colour is converted to gray with OpenCV's standard luma
-// weights; 16-bit levels are kept as they are (0–65535).
+// weights; 16-bit levels are kept as they are (0–65535). The header is
+// read first, in Go: a file whose header cannot be read or that declares
+// more than MaxImageSide px a side or MaxImagePixels in all is refused
+// before OpenCV sees it.
 func ReadImage(path string) (*subset.Image, error) {
 	if _, err := os.Stat(path); err != nil {
 		return nil, fmt.Errorf("read image: %w", err)
+	}
+	if err := checkImageHeader(path); err != nil {
+		return nil, err
 	}
 	m := gocv.IMRead(path, gocv.IMReadAnyDepth|gocv.IMReadAnyColor)
 	defer m.Close()

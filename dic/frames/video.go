@@ -2,6 +2,7 @@ package frames
 
 import (
 	"fmt"
+	"math"
 
 	"gocv.io/x/gocv"
 
@@ -12,14 +13,15 @@ import (
 // sequential; asking for an earlier frame reopens the file, a later one
 // skips ahead, so in-order streaming is fast and random access works.
 type videoSequence struct {
-	path   string
-	n      int
-	fps    float64
-	cap    *gocv.VideoCapture
-	next   int // index of the frame the next Read of cap returns
-	mat    gocv.Mat
-	size   frameSize
-	digits int
+	path     string
+	n        int
+	declared int // frame count the container states; 0 if it states none
+	fps      float64
+	cap      *gocv.VideoCapture
+	next     int // index of the frame the next Read of cap returns
+	mat      gocv.Mat
+	size     frameSize
+	digits   int
 }
 
 func openVideo(path string) (Sequence, error) {
@@ -30,6 +32,7 @@ func openVideo(path string) (Sequence, error) {
 		return nil, err
 	}
 	v.fps = v.cap.Get(gocv.VideoCaptureFPS)
+	v.declared = declaredCount(v.cap.Get(gocv.VideoCaptureFrameCount))
 	for v.cap.Read(&v.mat) && !v.mat.Empty() {
 		v.n++
 	}
@@ -46,6 +49,25 @@ func openVideo(path string) (Sequence, error) {
 		return nil, err
 	}
 	return v, nil
+}
+
+// declaredCount turns the frame count OpenCV reports for a container into
+// a whole number, 0 when it states none (OpenCV gives 0, −1 or NaN then).
+func declaredCount(c float64) int {
+	if !(c >= 1) || c > math.MaxInt32 {
+		return 0
+	}
+	return int(math.Round(c))
+}
+
+// shortfall describes a video that decoded fewer frames than its container
+// declares, or "" when it did not.
+func shortfall(path string, declared, decoded int) string {
+	if declared <= decoded {
+		return ""
+	}
+	return fmt.Sprintf("video %s: the container declares %d frames but only %d decode (frames %d to %d are missing: the file is truncated or damaged); the sequence holds the %d that decode",
+		path, declared, decoded, decoded, declared-1, decoded)
 }
 
 func (v *videoSequence) reopen() error {
@@ -100,6 +122,33 @@ func (v *videoSequence) Close() error {
 		v.cap = nil
 	}
 	v.mat.Close()
+	return nil
+}
+
+// VideoFrameCounts returns the frame count a video sequence's container
+// declares (0 if it declares none) and the number of frames that decode,
+// which is the sequence's Len; ok is false for sequences that are not
+// video.
+func VideoFrameCounts(s Sequence) (declared, decoded int, ok bool) {
+	v, ok := s.(*videoSequence)
+	if !ok {
+		return 0, 0, false
+	}
+	return v.declared, v.n, true
+}
+
+// Notes returns remarks on a sequence that are not errors but that the
+// user must see, such as a video that decodes fewer frames than its
+// container declares (a truncated or damaged file: the sequence then holds
+// only the frames that decode). It returns nil when there are none.
+func Notes(s Sequence) []string {
+	v, ok := s.(*videoSequence)
+	if !ok {
+		return nil
+	}
+	if n := shortfall(v.path, v.declared, v.n); n != "" {
+		return []string{n}
+	}
 	return nil
 }
 

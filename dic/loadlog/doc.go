@@ -43,4 +43,10 @@
 // gives the nominal stress σ = F/A at a camera time, the log clock running
 // 3.5 s ahead of the camera's. Clock also takes a sync pair instead of an
 // offset: one moment read on both clocks.
+//
+// Outside the log's span At gives the stress of the nearest end with
+// inSpan=false. Stress.Cover checks a run's frame times against the span:
+// it is an error (ErrNoOverlap) when no frame falls within the log, and
+// otherwise its Coverage.Note says how many frames, which and at what
+// times the log does not cover, for the caller to show.
 package loadlog

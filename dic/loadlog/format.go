@@ -84,6 +84,9 @@ func (f Format) check() (layout, error) {
 	if f.SkipLines < 0 {
 		return l, fmt.Errorf("skip_lines %d: expected zero or a positive number of lines", f.SkipLines)
 	}
+	if err := logtable.ValidateComment(f.Comment); err != nil {
+		return l, err
+	}
 	if err := l.delim.Validate(); err != nil {
 		return l, err
 	}

@@ -105,7 +105,7 @@ func (d *decoder) unitOf(q quantity, given *logtable.Unit, c logtable.Column) lo
 	switch {
 	case given != nil:
 		if fromHeader && hu.Name != given.Name {
-			d.note("%s column %q names %s, but %s is %s: read as %s", q.name, c.Name, hu.Name, q.field, given.Name, given.Name)
+			d.note("%s column %s names %s, but %s is %s: read as %s", q.name, logtable.Excerpt(c.Name), hu.Name, q.field, given.Name, given.Name)
 		}
 		return *given
 	case fromHeader:
@@ -160,7 +160,7 @@ func (d *decoder) value(cells []string, c logtable.Column, u logtable.Unit) (flo
 		return 0, err
 	}
 	if v *= u.Factor; math.IsInf(v, 0) {
-		return 0, d.table.ErrAt(d.table.Line, c, fmt.Errorf("%q %s is out of range", cells[c.Index-1], u.Name))
+		return 0, d.table.ErrAt(d.table.Line, c, fmt.Errorf("%s %s is out of range", logtable.Excerpt(cells[c.Index-1]), u.Name))
 	}
 	return v, nil
 }

@@ -34,7 +34,9 @@ type FrameStress struct {
 
 // NewStress returns the nominal stress of log over a loaded area in mm²,
 // with camera times related to the log by clock. It rejects a missing or
-// empty log, an area that is not a positive number and an invalid clock.
+// empty log, an area that is not a positive finite number, an invalid
+// clock, and a hand-made log or an area so small that a force or time
+// comes out non-finite.
 func NewStress(log *Log, areaMM2 float64, clock Clock) (*Stress, error) {
 	if log == nil || log.Len() == 0 {
 		return nil, errors.New("loadlog: nominal stress: no load log rows")
@@ -47,6 +49,16 @@ func NewStress(log *Log, areaMM2 float64, clock Clock) (*Stress, error) {
 	}
 	if err := clock.Validate(); err != nil {
 		return nil, fmt.Errorf("loadlog: nominal stress: %w", err)
+	}
+	for i, f := range log.Force {
+		if math.IsNaN(f) || math.IsInf(f, 0) || math.IsInf(f/areaMM2, 0) {
+			return nil, fmt.Errorf("loadlog: nominal stress: %s row %d: force %g N over the loaded area %g mm² is not a finite stress; expected a finite force and an area in mm²", log.Path, i+1, f, areaMM2)
+		}
+	}
+	for i, t := range log.Time {
+		if lt := clock.CameraTime(t); math.IsNaN(lt) || math.IsInf(lt, 0) {
+			return nil, fmt.Errorf("loadlog: nominal stress: %s row %d: log time %g s is camera time %g s with the clock offset; expected finite times", log.Path, i+1, t, lt)
+		}
 	}
 	return &Stress{Log: log, AreaMM2: areaMM2, Clock: clock}, nil
 }

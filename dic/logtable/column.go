@@ -28,7 +28,7 @@ func ParseColumnSpec(field, text string) (ColumnSpec, error) {
 	}
 	i, err := strconv.Atoi(s)
 	if err != nil || i < 1 {
-		return ColumnSpec{}, fmt.Errorf("%s %q: a column index is 1-based, expected 1 or more", field, text)
+		return ColumnSpec{}, fmt.Errorf("%s %s: a column index is 1-based, expected 1 or more", field, Excerpt(text))
 	}
 	return ColumnSpec{Field: field, Text: s, Index: i}, nil
 }
@@ -52,16 +52,16 @@ func (s ColumnSpec) Resolve(header []string, fallback int, quantity string, isDe
 	}
 	if s.Text != "" {
 		if header == nil {
-			return Column{}, fmt.Errorf("%s %q names a column, but the file has no header line; give a 1-based index", s.Field, s.Text)
+			return Column{}, fmt.Errorf("%s %s names a column, but the file has no header line; give a 1-based index", s.Field, Excerpt(s.Text))
 		}
 		found := matching(header, func(h string) bool { return strings.EqualFold(h, s.Text) })
 		switch len(found) {
 		case 0:
-			return Column{}, fmt.Errorf("%s %q is not in the header; its columns are %s", s.Field, s.Text, ListColumns(header))
+			return Column{}, fmt.Errorf("%s %s is not in the header; its columns are %s", s.Field, Excerpt(s.Text), ListColumns(header))
 		case 1:
 			return Column{Index: found[0], Name: header[found[0]-1]}, nil
 		}
-		return Column{}, fmt.Errorf("%s %q matches columns %v; give a 1-based index", s.Field, s.Text, found)
+		return Column{}, fmt.Errorf("%s %s matches columns %v; give a 1-based index", s.Field, Excerpt(s.Text), found)
 	}
 	if header == nil {
 		return Column{Index: fallback}, nil
@@ -75,7 +75,7 @@ func (s ColumnSpec) Resolve(header []string, fallback int, quantity string, isDe
 	}
 	names := make([]string, len(found))
 	for i, k := range found {
-		names[i] = fmt.Sprintf("%d %q", k, header[k-1])
+		names[i] = fmt.Sprintf("%d %s", k, Excerpt(header[k-1]))
 	}
 	return Column{}, fmt.Errorf("several columns could be the %s column (%s); set %s", quantity, strings.Join(names, ", "), s.Field)
 }
@@ -96,7 +96,7 @@ func matching(header []string, match func(string) bool) []int {
 func ListColumns(header []string) string {
 	s := make([]string, len(header))
 	for i, h := range header {
-		s[i] = fmt.Sprintf("%d %q", i+1, h)
+		s[i] = fmt.Sprintf("%d %s", i+1, Excerpt(h))
 	}
 	return strings.Join(s, ", ")
 }

@@ -38,7 +38,7 @@ func (e *ParseError) Error() string {
 		if e.Column > 0 {
 			fmt.Fprintf(&b, ", column %d", e.Column)
 			if e.ColumnName != "" {
-				fmt.Fprintf(&b, " %q", e.ColumnName)
+				fmt.Fprintf(&b, " %s", Excerpt(e.ColumnName))
 			}
 		}
 		b.WriteString(": ")

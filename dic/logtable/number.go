@@ -1,6 +1,7 @@
 package logtable
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -20,7 +21,8 @@ func ParseNumber(cell string) (float64, bool) {
 // ParseClock reads a cell written h:mm:ss[.fff] or mm:ss[.fff] as seconds:
 // "0:01:02.5" and "01:02.5" are 62.5 s. Hours, and minutes in mm:ss, may
 // have any number of digits; minutes after hours and seconds must be below
-// 60. A leading '-' makes the time negative.
+// 60. A leading '-' makes the time negative. A time too large for a
+// float64 is not a time.
 func ParseClock(cell string) (float64, bool) {
 	s, sign := cell, 1.0
 	if strings.HasPrefix(s, "-") {
@@ -49,7 +51,11 @@ func ParseClock(cell string) (float64, bool) {
 	if err != nil || v >= 60 {
 		return 0, false
 	}
-	return sign * (total*60 + v), true
+	t := sign * (total*60 + v)
+	if math.IsInf(t, 0) {
+		return 0, false // hours of hundreds of digits
+	}
+	return t, true
 }
 
 // CellProblem explains why a cell could not be read as a number (or, with
@@ -62,18 +68,20 @@ func CellProblem(cell string, clock bool) error {
 		return fmt.Errorf("empty cell, expected a number")
 	}
 	if clock {
-		return fmt.Errorf("%q is not a time; expected h:mm:ss[.fff] or mm:ss (time_unit %q)", cell, ClockUnit)
+		return fmt.Errorf("%s is not a time; expected h:mm:ss[.fff] or mm:ss (time_unit %q)", Excerpt(cell), ClockUnit)
 	}
 	if _, err := strconv.ParseFloat(cell, 64); err == nil {
-		return fmt.Errorf("%q is not a finite number", cell)
+		return fmt.Errorf("%s is not a finite number", Excerpt(cell))
+	} else if errors.Is(err, strconv.ErrRange) {
+		return fmt.Errorf("%s is out of range, expected a finite number (at most about 1.8e308)", Excerpt(cell))
 	}
 	if strings.Count(cell, ",") == 1 {
 		if _, ok := ParseNumber(strings.Replace(cell, ",", ".", 1)); ok {
-			return fmt.Errorf("%q is not a number: the decimal separator must be '.', not ','", cell)
+			return fmt.Errorf("%s is not a number: the decimal separator must be '.', not ','", Excerpt(cell))
 		}
 	}
 	if _, ok := ParseClock(cell); ok {
-		return fmt.Errorf("%q is not a number; for h:mm:ss times set time_unit %q", cell, ClockUnit)
+		return fmt.Errorf("%s is not a number; for h:mm:ss times set time_unit %q", Excerpt(cell), ClockUnit)
 	}
-	return fmt.Errorf("%q is not a number", cell)
+	return fmt.Errorf("%s is not a number", Excerpt(cell))
 }

@@ -1,6 +1,9 @@
 package logtable
 
-import "testing"
+import (
+	"strings"
+	"testing"
+)
 
 func TestParseClock(t *testing.T) {
 	for _, c := range []struct {
@@ -21,6 +24,8 @@ func TestParseClock(t *testing.T) {
 		{"1:1e1", 0, false},
 		{"1:.5", 0, false},
 		{"1:", 0, false},
+		{strings.Repeat("9", 308) + ":00:00", 0, false}, // 1e308 h overflows to +Inf s
+		{"-" + strings.Repeat("9", 308) + ":00", 0, false},
 	} {
 		got, ok := ParseClock(c.in)
 		if ok != c.ok || (ok && got != c.want) {
@@ -62,6 +67,7 @@ func TestCellProblem(t *testing.T) {
 		{"", false, "empty cell, expected a number"},
 		{"1,5", false, `"1,5" is not a number: the decimal separator must be '.', not ','`},
 		{"NaN", false, `"NaN" is not a finite number`},
+		{"1e999", false, `"1e999" is out of range, expected a finite number (at most about 1.8e308)`},
 		{"0:00:01", false, `"0:00:01" is not a number; for h:mm:ss times set time_unit "hms"`},
 		{"abc", false, `"abc" is not a number`},
 		{"1,2,3", false, `"1,2,3" is not a number`},

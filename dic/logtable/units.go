@@ -19,8 +19,10 @@ type Unit struct {
 }
 
 // Describe writes a cell of this unit for a message, as written and with
-// the unit: "12.3 s", or for ClockUnit "0:01:00 (60 s)".
+// the unit: "12.3 s", or for ClockUnit "0:01:00 (60 s)". A cell longer
+// than ExcerptRunes is shown as Excerpt shows it.
 func (u Unit) Describe(cell string, base float64) string {
+	cell = Shown(cell)
 	if u.Name == ClockUnit {
 		return fmt.Sprintf("%s (%s s)", cell, strconv.FormatFloat(base, 'g', -1, 64))
 	}
@@ -47,7 +49,7 @@ func (us Units) Parse(field, name string) (Unit, error) {
 	if u, ok := us.Lookup(name); ok {
 		return u, nil
 	}
-	return Unit{}, fmt.Errorf("%s %q is not accepted; use one of %s", field, name, us)
+	return Unit{}, fmt.Errorf("%s %s is not accepted; use one of %s", field, Excerpt(name), us)
 }
 
 // String lists the unit names separated by commas, for messages.

@@ -49,8 +49,20 @@ type Layout struct {
 }
 
 // Rasterise returns the layout's mask for a width×height image, deciding
-// each pixel by its centre. It fails when nothing is left to measure.
+// each pixel by its centre. It fails for a shape that does not validate
+// (one with a NaN radius would otherwise exclude nothing, silently) and
+// when nothing is left to measure.
 func (l Layout) Rasterise(width, height int) (*Mask, error) {
+	for i, s := range l.ROI {
+		if err := s.Validate(); err != nil {
+			return nil, fmt.Errorf("region of interest, shape %d: %w", i+1, err)
+		}
+	}
+	for i, s := range l.Exclude {
+		if err := s.Validate(); err != nil {
+			return nil, fmt.Errorf("exclusion %d: %w", i+1, err)
+		}
+	}
 	m := &Mask{Width: width, Height: height, Pix: make([]uint8, width*height)}
 	if len(l.ROI) == 0 {
 		for i := range m.Pix {
@@ -70,10 +82,14 @@ func (l Layout) Rasterise(width, height int) (*Mask, error) {
 }
 
 // fill sets the pixels whose centres lie in s to v, visiting only s's bounds.
+// The bounds are clamped to the image as floats before they become ints: a
+// float beyond int's range does not convert to a usable int, so a circle
+// of radius 1e300 would otherwise fill nothing.
 func fill(m *Mask, s Shape, v uint8) {
 	x0, y0, x1, y1 := s.Bounds()
-	i0, j0 := max(0, int(math.Ceil(x0))), max(0, int(math.Ceil(y0)))
-	i1, j1 := min(m.Width-1, int(math.Floor(x1))), min(m.Height-1, int(math.Floor(y1)))
+	clamp := func(f float64, hi int) int { return int(math.Max(-1, math.Min(f, float64(hi)))) }
+	i0, j0 := max(0, clamp(math.Ceil(x0), m.Width)), max(0, clamp(math.Ceil(y0), m.Height))
+	i1, j1 := min(m.Width-1, clamp(math.Floor(x1), m.Width)), min(m.Height-1, clamp(math.Floor(y1), m.Height))
 	if _, ok := s.(Rect); ok { // every pixel centre within the bounds is inside
 		for j := j0; j <= j1 && i0 <= i1; j++ {
 			row := m.Pix[j*m.Width+i0 : j*m.Width+i1+1]

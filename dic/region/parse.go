@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
+
+	"spallscope/dic/logtable"
 )
 
 // ParseShape reads a shape written as KIND:NUMBERS, in reference px:
@@ -12,16 +14,22 @@ import (
 //	circle:cx,cy,r
 //	ellipse:cx,cy,rx,ry[,angle_deg]
 //	polygon:x1,y1,x2,y2,x3,y3[,...]
+//
+// Every number must be finite, radii and semi-axes positive, a rect's
+// corners in order and a polygon's three or more vertices not all on one
+// line. Errors quote the shape text (an excerpt when it is long) and say
+// what was expected.
 func ParseShape(s string) (Shape, error) {
+	text := logtable.Excerpt(s)
 	kind, list, ok := strings.Cut(strings.TrimSpace(s), ":")
 	if !ok {
-		return nil, fmt.Errorf("shape %q: expected KIND:NUMBERS such as circle:256,200,40 (kinds: rect, circle, ellipse, polygon)", s)
+		return nil, fmt.Errorf("shape %s: expected KIND:NUMBERS such as circle:256,200,40 (kinds: rect, circle, ellipse, polygon)", text)
 	}
 	var v []float64
-	for _, f := range strings.Split(list, ",") {
+	for i, f := range strings.Split(list, ",") {
 		x, err := strconv.ParseFloat(strings.TrimSpace(f), 64)
 		if err != nil {
-			return nil, fmt.Errorf("shape %q: %q is not a number", s, f)
+			return nil, fmt.Errorf("shape %s: number %d, %s, is not a number of px", text, i+1, logtable.Excerpt(strings.TrimSpace(f)))
 		}
 		v = append(v, x)
 	}
@@ -31,25 +39,20 @@ func ParseShape(s string) (Shape, error) {
 				return nil
 			}
 		}
-		return fmt.Errorf("shape %q: %s takes %v numbers, got %d", s, kind, n, len(v))
+		return fmt.Errorf("shape %s: %s takes %v numbers, got %d", text, kind, n, len(v))
 	}
+	var shape Shape
 	switch strings.ToLower(kind) {
 	case "rect":
 		if err := want(4); err != nil {
 			return nil, err
 		}
-		if v[2] < v[0] || v[3] < v[1] {
-			return nil, fmt.Errorf("shape %q: rect needs x0 ≤ x1 and y0 ≤ y1", s)
-		}
-		return Rect{v[0], v[1], v[2], v[3]}, nil
+		shape = Rect{v[0], v[1], v[2], v[3]}
 	case "circle":
 		if err := want(3); err != nil {
 			return nil, err
 		}
-		if v[2] <= 0 {
-			return nil, fmt.Errorf("shape %q: radius must be positive", s)
-		}
-		return Circle(v[0], v[1], v[2]), nil
+		shape = Circle(v[0], v[1], v[2])
 	case "ellipse":
 		if err := want(4, 5); err != nil {
 			return nil, err
@@ -58,32 +61,31 @@ func ParseShape(s string) (Shape, error) {
 		if len(v) == 5 {
 			e.AngleDeg = v[4]
 		}
-		if e.Rx <= 0 || e.Ry <= 0 {
-			return nil, fmt.Errorf("shape %q: semi-axes must be positive", s)
-		}
-		return e, nil
+		shape = e
 	case "polygon":
 		if len(v)%2 != 0 {
-			return nil, fmt.Errorf("shape %q: polygon takes x,y pairs, got %d numbers", s, len(v))
+			return nil, fmt.Errorf("shape %s: polygon takes x,y pairs, got %d numbers", text, len(v))
 		}
 		p := make(Polygon, len(v)/2)
 		for i := range p {
 			p[i] = [2]float64{v[2*i], v[2*i+1]}
 		}
-		if err := p.Validate(); err != nil {
-			return nil, fmt.Errorf("shape %q: %w", s, err)
-		}
-		return p, nil
+		shape = p
+	default:
+		return nil, fmt.Errorf("shape %s: unknown kind %s, expected rect, circle, ellipse or polygon", text, logtable.Excerpt(kind))
 	}
-	return nil, fmt.Errorf("shape %q: unknown kind %q, expected rect, circle, ellipse or polygon", s, kind)
+	if err := shape.Validate(); err != nil {
+		return nil, fmt.Errorf("shape %s: %w", text, err)
+	}
+	return shape, nil
 }
 
 // FromImage turns a decoded mask image (any gray levels) into a mask:
-// nonzero pixels are measured.
+// nonzero pixels are measured. NaN pixels (a float mask image) are not.
 func FromImage(width, height int, pix []float32) *Mask {
 	m := &Mask{Width: width, Height: height, Pix: make([]uint8, width*height)}
 	for i, v := range pix {
-		if v != 0 {
+		if v != 0 && v == v {
 			m.Pix[i] = 255
 		}
 	}

@@ -18,6 +18,20 @@ type Shape interface {
 	Contains(x, y float64) bool
 	// Bounds returns the bounding box (x0, y0, x1, y1).
 	Bounds() (x0, y0, x1, y1 float64)
+	// Validate reports a shape that cannot be drawn: numbers that are not
+	// finite, sizes that are not positive, too few vertices. Such a shape
+	// would contain no pixel, or every pixel, without saying so.
+	Validate() error
+}
+
+// finite reports whether every v is neither NaN nor infinite.
+func finite(v ...float64) bool {
+	for _, x := range v {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return false
+		}
+	}
+	return true
 }
 
 // Rect is the axis-aligned rectangle X0 ≤ x ≤ X1, Y0 ≤ y ≤ Y1.
@@ -33,6 +47,17 @@ func (r Rect) Contains(x, y float64) bool { return x >= r.X0 && x <= r.X1 && y >
 
 // Bounds returns the rectangle itself.
 func (r Rect) Bounds() (x0, y0, x1, y1 float64) { return r.X0, r.Y0, r.X1, r.Y1 }
+
+// Validate reports corners that are not finite or out of order.
+func (r Rect) Validate() error {
+	switch {
+	case !finite(r.X0, r.Y0, r.X1, r.Y1):
+		return fmt.Errorf("rect corners (%g, %g) and (%g, %g), expected finite numbers of px", r.X0, r.Y0, r.X1, r.Y1)
+	case r.X1 < r.X0 || r.Y1 < r.Y0:
+		return fmt.Errorf("rect corners (%g, %g) and (%g, %g), expected x0 ≤ x1 and y0 ≤ y1", r.X0, r.Y0, r.X1, r.Y1)
+	}
+	return nil
+}
 
 // Ellipse is an ellipse centred at (Cx, Cy) with semi-axes Rx and Ry,
 // turned by AngleDeg (x towards y). A circle has Rx = Ry.
@@ -59,6 +84,26 @@ func (e Ellipse) Contains(x, y float64) bool {
 	}
 	qx, qy := dx/e.Rx, dy/e.Ry
 	return qx*qx+qy*qy < 1
+}
+
+// Validate reports a centre, semi-axis or angle that is not finite and a
+// semi-axis that is not positive.
+func (e Ellipse) Validate() error {
+	kind := "ellipse"
+	if e.Rx == e.Ry || (math.IsNaN(e.Rx) && math.IsNaN(e.Ry)) {
+		kind = "circle"
+	}
+	switch {
+	case !finite(e.Cx, e.Cy):
+		return fmt.Errorf("%s centre (%g, %g), expected a finite point in px", kind, e.Cx, e.Cy)
+	case (!finite(e.Rx, e.Ry) || !(e.Rx > 0) || !(e.Ry > 0)) && kind == "circle":
+		return fmt.Errorf("circle radius %g, expected a finite positive number of px", e.Rx)
+	case !finite(e.Rx, e.Ry) || !(e.Rx > 0) || !(e.Ry > 0):
+		return fmt.Errorf("ellipse semi-axes %g and %g, expected finite positive numbers of px", e.Rx, e.Ry)
+	case !finite(e.AngleDeg):
+		return fmt.Errorf("%s angle %g°, expected a finite number of degrees", kind, e.AngleDeg)
+	}
+	return nil
 }
 
 // Bounds returns a box that holds the ellipse.
@@ -97,16 +142,38 @@ func (p Polygon) Bounds() (x0, y0, x1, y1 float64) {
 	return
 }
 
-// Validate reports a polygon with fewer than three vertices or non-finite
-// coordinates.
+// Validate reports a polygon with fewer than three vertices, non-finite
+// coordinates, or no area (all vertices on one line).
 func (p Polygon) Validate() error {
 	if len(p) < 3 {
 		return fmt.Errorf("polygon with %d vertices, expected at least 3", len(p))
 	}
 	for i, v := range p {
-		if math.IsNaN(v[0]+v[1]) || math.IsInf(v[0]+v[1], 0) {
-			return fmt.Errorf("polygon vertex %d is not a finite point", i)
+		if !finite(v[0], v[1]) {
+			return fmt.Errorf("polygon vertex %d (%g, %g) is not a finite point", i+1, v[0], v[1])
 		}
 	}
+	if p.collinear() {
+		return fmt.Errorf("polygon of %d vertices encloses no area (its vertices lie on one line), expected a closed outline", len(p))
+	}
 	return nil
+}
+
+// collinear reports whether all vertices lie on one line (or one point):
+// no vertex is off the line from the first vertex to the one farthest
+// from it.
+func (p Polygon) collinear() bool {
+	far, fd := 0, 0.0
+	for i, v := range p {
+		if d := math.Hypot(v[0]-p[0][0], v[1]-p[0][1]); d > fd {
+			far, fd = i, d
+		}
+	}
+	dx, dy := p[far][0]-p[0][0], p[far][1]-p[0][1]
+	for _, v := range p {
+		if (v[0]-p[0][0])*dy-(v[1]-p[0][1])*dx != 0 {
+			return false
+		}
+	}
+	return true
 }

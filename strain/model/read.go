@@ -9,6 +9,8 @@ import (
 	"os"
 	"strconv"
 	"strings"
+
+	"spallscope/dic/logtable"
 )
 
 // Read reads a model field from the CSV file at path and maps it onto the
@@ -25,7 +27,11 @@ import (
 // Rows are points, in any order: a regular grid, a mesh's nodes or
 // element centroids.
 //
-// Errors name the file and, for a bad row, its line and column.
+// Errors name the file and, for a bad row, its line and column: a cell
+// that is not a number, an infinite one, a NaN position, a row with
+// missing or extra cells, a line longer than logtable.MaxLine bytes, and
+// a point or value that maps to a non-finite one in px (a huge number in
+// mm at a small scale). A huge cell or header name is shown as an excerpt.
 func Read(path string, f Format) (*Field, error) {
 	if err := f.Validate(); err != nil {
 		return nil, fmt.Errorf("model %s: %w", path, err)
@@ -73,7 +79,7 @@ func parseHeader(head []string, line int, path string, f Format) (columns, []str
 			if q, ok := parseQuantity(base); ok {
 				slot = &c.q[q]
 				if unit != "" && q.IsStrain() {
-					return c, nil, fmt.Errorf("model %s line %d column %d: strain column %q has a length unit", path, line, i+1, raw)
+					return c, nil, fmt.Errorf("model %s line %d column %d: strain column %s has a length unit", path, line, i+1, logtable.Excerpt(raw))
 				}
 			}
 		}
@@ -82,25 +88,25 @@ func parseHeader(head []string, line int, path string, f Format) (columns, []str
 			continue
 		}
 		if *slot >= 0 {
-			return c, nil, fmt.Errorf("model %s line %d column %d: %q repeats column %d (%s)", path, line, i+1, raw, *slot+1, head[*slot])
+			return c, nil, fmt.Errorf("model %s line %d column %d: %s repeats column %d (%s)", path, line, i+1, logtable.Excerpt(raw), *slot+1, logtable.Shown(head[*slot]))
 		}
 		if unit != "" && Units(unit) != f.Units {
-			return c, nil, fmt.Errorf("model %s line %d column %d: %q is in %s but the format says %s", path, line, i+1, raw, unit, f.Units)
+			return c, nil, fmt.Errorf("model %s line %d column %d: %s is in %s but the format says %s", path, line, i+1, logtable.Excerpt(raw), unit, f.Units)
 		}
 		*slot = i
 	}
 	switch {
 	case c.x < 0 || c.y < 0:
-		return c, nil, fmt.Errorf("model %s line %d: header %q lacks column x or y", path, line, strings.Join(head, ","))
+		return c, nil, fmt.Errorf("model %s line %d: header %s lacks column x or y", path, line, logtable.Excerpt(strings.Join(head, ",")))
 	case c.q == [numQuantities]int{-1, -1, -1, -1, -1}:
-		return c, nil, fmt.Errorf("model %s line %d: header %q has none of the columns u, v, exx, eyy, exy", path, line, strings.Join(head, ","))
+		return c, nil, fmt.Errorf("model %s line %d: header %s has none of the columns u, v, exx, eyy, exy", path, line, logtable.Excerpt(strings.Join(head, ",")))
 	}
 	return c, ignored, nil
 }
 
 // parse reads the CSV text of a model file.
 func parse(r io.Reader, path string, f Format) (*Field, error) {
-	cr := csv.NewReader(r)
+	cr := csv.NewReader(logtable.LimitLines(r, logtable.MaxLine))
 	cr.Comment = '#'
 	cr.FieldsPerRecord = -1
 	cr.ReuseRecord = true
@@ -122,23 +128,37 @@ func parse(r io.Reader, path string, f Format) (*Field, error) {
 			m.Quantities = append(m.Quantities, q)
 		}
 	}
+	// at names column col of line in errors.
+	at := func(line, col int) string {
+		return fmt.Sprintf("model %s line %d column %d (%s)", path, line, col+1, logtable.Shown(c.name[col]))
+	}
 	// number reads column col of rec; NaN is allowed only where nanOK.
 	number := func(rec []string, line, col int, nanOK bool) (float64, error) {
 		if col >= len(rec) {
-			return 0, fmt.Errorf("model %s line %d column %d (%s): missing, the row has %d of the header's %d columns", path, line, col+1, c.name[col], len(rec), len(c.name))
+			return 0, fmt.Errorf("%s: missing, the row has %d of the header's %d columns", at(line, col), len(rec), len(c.name))
 		}
 		s := strings.TrimSpace(rec[col])
 		if s == "" {
-			return 0, fmt.Errorf("model %s line %d column %d (%s): empty; write NaN for a point without this value", path, line, col+1, c.name[col])
+			return 0, fmt.Errorf("%s: empty; write NaN for a point without this value", at(line, col))
 		}
 		v, err := strconv.ParseFloat(s, 64)
 		switch {
+		case errors.Is(err, strconv.ErrRange):
+			return 0, fmt.Errorf("%s: %s is out of range, expected a finite number", at(line, col), logtable.Excerpt(s))
 		case err != nil:
-			return 0, fmt.Errorf("model %s line %d column %d (%s): %q is not a number", path, line, col+1, c.name[col], s)
+			return 0, fmt.Errorf("%s: %s is not a number", at(line, col), logtable.Excerpt(s))
 		case math.IsInf(v, 0), math.IsNaN(v) && !nanOK:
-			return 0, fmt.Errorf("model %s line %d column %d (%s): %q, expected a finite number", path, line, col+1, c.name[col], s)
+			return 0, fmt.Errorf("%s: %s, expected a finite number", at(line, col), logtable.Excerpt(s))
 		}
 		return v, nil
+	}
+	// mapped checks that a number the format maps to px stayed finite
+	// (NaN, for a value the file leaves out, stays NaN).
+	mapped := func(line, col int, model, px float64) error {
+		if math.IsInf(px, 0) || (math.IsNaN(px) && !math.IsNaN(model)) {
+			return fmt.Errorf("%s: %g %s maps to %g px, expected a number that stays finite in px (check the scale and units)", at(line, col), model, f.Units, px)
+		}
+		return nil
 	}
 	for {
 		rec, err := cr.Read()
@@ -171,6 +191,19 @@ func parse(r io.Reader, path string, f Format) (*Field, error) {
 		p.X, p.Y = f.ToImage(p.ModelX, p.ModelY)
 		p.Values[U], p.Values[V] = f.DisplacementToImage(raw[U], raw[V])
 		p.Values[Exx], p.Values[Eyy], p.Values[Exy] = f.StrainToImage(raw[Exx], raw[Eyy], raw[Exy])
+		if err := mapped(line, c.x, p.ModelX, p.X); err != nil {
+			return nil, err
+		}
+		if err := mapped(line, c.y, p.ModelY, p.Y); err != nil {
+			return nil, err
+		}
+		for _, q := range []Quantity{U, V} {
+			if c.q[q] >= 0 {
+				if err := mapped(line, c.q[q], raw[q], p.Values[q]); err != nil {
+					return nil, err
+				}
+			}
+		}
 		m.Points = append(m.Points, p)
 	}
 	if len(m.Points) == 0 {

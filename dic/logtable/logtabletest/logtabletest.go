@@ -42,3 +42,12 @@ func WantParseError(t testing.TB, name string, err error, line, col int, parts .
 		}
 	}
 }
+
+// WantBrief checks that err's message is at most limit bytes long: an
+// error about a huge cell shows an excerpt of it, never all of it.
+func WantBrief(t testing.TB, name string, err error, limit int) {
+	t.Helper()
+	if err != nil && len(err.Error()) > limit {
+		t.Errorf("%s: error of %d bytes, want at most %d: %.200s…", name, len(err.Error()), limit, err)
+	}
+}
