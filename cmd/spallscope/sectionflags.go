@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/pflag"
 
 	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic"
 	"spallscope/dic/loadlog"
 	"spallscope/dic/region"
@@ -55,6 +56,12 @@ func (b sectionFlags) float(p *float64, name, key string, def float64, usage str
 	b.key(name, key, true)
 }
 
+// plainInt binds an int whose zero is a value of its own.
+func (b sectionFlags) plainInt(p *int, name, key string, usage string) {
+	b.fs.IntVar(p, name, 0, usage)
+	b.key(name, key, false)
+}
+
 // plainFloat binds a float whose zero is a value of its own (an offset).
 func (b sectionFlags) plainFloat(p *float64, name, key string, usage string) {
 	b.fs.Float64Var(p, name, 0, usage)
@@ -89,16 +96,14 @@ func bindInputs(fs *pflag.FlagSet, t *config.Test) {
 func bindTimes(fs *pflag.FlagSet, t *config.Times) {
 	b := sectionFlags{fs}
 	b.str(&t.CSV, "times", "times.csv", "", "frame times: CSV with columns frame,time_s")
-	b.fs.Float64Var(&t.FPS, "fps", 0, "frame times: fixed rate in frames per second (default for video: its stated rate)")
-	b.key("fps", "times.fps", true)
+	b.float(&t.FPS, "fps", "times.fps", 0, "frame times: fixed rate in frames per second (default for video: its stated rate)")
 	b.bool(&t.MTime, "mtime", "times.mtime", "frame times: file modification times")
 }
 
 // bindScale binds the image-scale options.
 func bindScale(fs *pflag.FlagSet, s *config.Scale) {
 	b := sectionFlags{fs}
-	b.fs.Float64Var(&s.MMPerPx, "scale", 0, "image scale in mm per px")
-	b.key("scale", "scale.mm_per_px", true)
+	b.float(&s.MMPerPx, "scale", "scale.mm_per_px", 0, "image scale in mm per px")
 	b.value(&numbersValue{dst: &s.Line, n: 5, form: "X1,Y1,X2,Y2,MM"}, "scale-line", "scale.line",
 		"image scale from a known distance: x1,y1,x2,y2,MM (two reference points in px and their distance in mm)")
 }
@@ -119,8 +124,7 @@ func bindCorrelation(fs *pflag.FlagSet, c *config.Correlation) {
 	b.int(&c.EdgeGuard, "edge-guard", "correlation.edge_guard", d.EdgeGuard, "px along the rim of exclusions left out of subsets (negative: none)")
 	b.float(&c.MinValid, "min-valid", "correlation.min_valid", d.MinValidFraction, "smallest measured fraction of a subset's pixels")
 	b.value(&listValue[[]int]{dst: &c.Seeds, typ: "x,y", parse: parseSeed}, "seed", "correlation.seeds", "seed point x,y in px, repeatable (automatic seeds cover the rest)")
-	fs.IntVar(&c.Workers, "workers", 0, "goroutines (default: all cores); results do not depend on it")
-	b.key("workers", "correlation.workers", false)
+	b.plainInt(&c.Workers, "workers", "correlation.workers", "goroutines (default: all cores); results do not depend on it")
 }
 
 // bindStrain binds the strain options to the strain section.
@@ -165,8 +169,7 @@ func bindOpenings(fs *pflag.FlagSet, t *config.Test) {
 func bindLoad(fs *pflag.FlagSet, l *config.Load) {
 	b := sectionFlags{fs}
 	b.str(&l.File, "load", "load.file", "", "load log of the test frame (CSV or whitespace-delimited text)")
-	b.fs.Float64Var(&l.AreaMM2, "area", 0, "loaded area in mm² (nominal stress = force / area)")
-	b.key("area", "load.area_mm2", true)
+	b.float(&l.AreaMM2, "area", "load.area_mm2", 0, "loaded area in mm² (nominal stress = force / area)")
 	b.str(&l.TimeColumn, "time-col", "load.time_column", "", "load log: time column, by header name or 1-based index (default: first time-like column)")
 	b.str(&l.ForceColumn, "force-col", "load.force_column", "", "load log: force column, by name or index")
 	b.str(&l.StrokeColumn, "stroke-col", "load.stroke_column", "", "load log: stroke column, by name or index (optional)")
@@ -174,8 +177,7 @@ func bindLoad(fs *pflag.FlagSet, l *config.Load) {
 	b.str(&l.ForceUnit, "force-unit", "load.force_unit", "", "load log: force unit N, kN, lbf or kip")
 	b.str(&l.StrokeUnit, "stroke-unit", "load.stroke_unit", "", "load log: stroke unit mm or in")
 	b.value(&delimiterValue{dst: &l.Delimiter}, "delimiter", "load.delimiter", `load log: cell delimiter ",", ";", "tab" or "whitespace" (default: detected)`)
-	b.fs.IntVar(&l.SkipLines, "skip-lines", 0, "load log: lines to skip at the top, whatever they hold")
-	b.key("skip-lines", "load.skip_lines", false)
+	b.plainInt(&l.SkipLines, "skip-lines", "load.skip_lines", "load log: lines to skip at the top, whatever they hold")
 	b.str(&l.Comment, "comment", "load.comment", "", `load log: comment marker (default "#")`)
 	b.bool(&l.CompressionNegative, "compression-negative", "load.compression_negative", "load log: compressive forces are logged negative")
 	b.plainFloat(&l.ClockOffset, "clock-offset", "load.clock_offset_s", "load log clock minus camera clock, s")
@@ -303,7 +305,7 @@ func (v *openingsFileValue) Type() string   { return "file" }
 // parseOpening reads "NAME=SHAPE" or "SHAPE" (the i-th opening, named A,
 // B, ... by position).
 func parseOpening(s string, i int) (config.Opening, error) {
-	o := config.Opening{Name: string(rune('A' + i%26)), Shape: s}
+	o := config.Opening{Name: stage.DefaultOpeningName(i), Shape: s}
 	if n, rest, ok := strings.Cut(s, "="); ok {
 		o.Name, o.Shape = strings.TrimSpace(n), rest
 	}

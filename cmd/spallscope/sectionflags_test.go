@@ -223,15 +223,12 @@ func fieldByKey(v reflect.Value, key string) any {
 	return nil
 }
 
+// sectionField is the name of config.Test's field for a YAML section.
 func sectionField(sec string) string {
-	for _, k := range config.Keys(reflect.TypeOf(config.Test{})) {
-		if k.Name == sec {
-			for i := 0; i < reflect.TypeOf(config.Test{}).NumField(); i++ {
-				f := reflect.TypeOf(config.Test{}).Field(i)
-				if tag, _, _ := strings.Cut(f.Tag.Get("yaml"), ","); tag == sec {
-					return f.Name
-				}
-			}
+	tt := reflect.TypeOf(config.Test{})
+	for i := 0; i < tt.NumField(); i++ {
+		if tag, _, _ := strings.Cut(tt.Field(i).Tag.Get("yaml"), ","); tag == sec {
+			return tt.Field(i).Name
 		}
 	}
 	return ""

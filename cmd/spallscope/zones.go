@@ -103,9 +103,7 @@ engineers under local codes.`,
 	f.StringVar(&out, "out", "", "run folder to write into (default and only choice: the --strain run folder)")
 	bindOpenings(f, t)
 	bindZones(f, &t.Zones)
-	f.Float64Var(&t.Times.FPS, "fps", 0, "frame rate, when the run has no frame times")
-	f.SetAnnotation("fps", yamlKeyAnnotation, []string{"times.fps"})
-	f.SetAnnotation("fps", zeroDefaultAnnotation, []string{"true"})
+	sectionFlags{f}.float(&t.Times.FPS, "fps", "times.fps", 0, "frame rate, when the run has no frame times")
 	bindLoad(f, &t.Load)
 	return cmd
 }

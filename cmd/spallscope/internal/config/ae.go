@@ -1,8 +1,6 @@
 package config
 
 import (
-	"fmt"
-
 	"spallscope/dic/aelog"
 	"spallscope/dic/loadlog"
 )
@@ -25,17 +23,7 @@ type AE struct {
 }
 
 // Clock is the AE record's clock against the camera's.
-func (a AE) Clock() (loadlog.Clock, error) {
-	switch {
-	case len(a.Sync) == 2 && a.ClockOffset != 0:
-		return loadlog.Clock{}, fmt.Errorf("ae: give clock_offset_s or sync, not both")
-	case len(a.Sync) == 2:
-		return loadlog.Synced(a.Sync[0], a.Sync[1]), nil
-	case len(a.Sync) != 0:
-		return loadlog.Clock{}, fmt.Errorf("ae.sync: %d numbers, expected [camera_s, ae_s]", len(a.Sync))
-	}
-	return loadlog.Clock{Offset: a.ClockOffset}, nil
-}
+func (a AE) Clock() (loadlog.Clock, error) { return clockOf("ae", a.ClockOffset, a.Sync) }
 
 // OnsetRule is the section's hit-rate onset rule (zero fields: aelog's
 // defaults).

@@ -27,18 +27,13 @@ func (l Load) Stress(path string) (*loadlog.Stress, error) {
 		}
 		return nil, nil
 	}
-	lg, err := loadlog.Read(path, l.Format)
+	clock, err := clockOf("load", l.ClockOffset, l.Sync) // checked before the log is read
 	if err != nil {
 		return nil, err
 	}
-	clock := loadlog.Clock{Offset: l.ClockOffset}
-	switch {
-	case len(l.Sync) == 2 && l.ClockOffset != 0:
-		return nil, fmt.Errorf("load: give clock_offset_s or sync, not both")
-	case len(l.Sync) == 2:
-		clock = loadlog.Synced(l.Sync[0], l.Sync[1])
-	case len(l.Sync) != 0:
-		return nil, fmt.Errorf("load.sync: %d numbers, expected [camera_s, log_s]", len(l.Sync))
+	lg, err := loadlog.Read(path, l.Format)
+	if err != nil {
+		return nil, err
 	}
 	return loadlog.NewStress(lg, l.AreaMM2, clock)
 }

@@ -19,8 +19,8 @@ import (
 // Track runs the track stage of test t alone into run folder out: it
 // opens the photos, reference and mask, builds the tracker from the
 // correlation section and tracks every frame. progress gets the frame
-// count and each field.
-func Track(t *config.Test, out, tool string, progress func(done, total, points int, f *dic.Field)) (runfolder.TrackRecord, error) {
+// count, the frames in all and the points of a frame.
+func Track(t *config.Test, out, tool string, progress func(done, total, points int)) (runfolder.TrackRecord, error) {
 	tp, err := prepareTrack(t, tool)
 	if err != nil {
 		return runfolder.TrackRecord{}, err
@@ -31,9 +31,9 @@ func Track(t *config.Test, out, tool string, progress func(done, total, points i
 		return runfolder.TrackRecord{}, err
 	}
 	n, points := tp.in.Seq.Len(), tracker.Grid().Len()
-	return stage.Track(out, tp.in.Seq, tracker, tp.record(t, tool), 0, func(done int, f *dic.Field) {
+	return stage.Track(out, tp.in.Seq, tracker, tp.record(t, tool), 0, func(done int, _ *dic.Field) {
 		if progress != nil {
-			progress(done, n, points, f)
+			progress(done, n, points)
 		}
 	})
 }
@@ -71,7 +71,7 @@ func Zones(t *config.Test, dir, tool string) (rep *strainfile.OnsetReport, notes
 	openings := t.Openings
 	if len(openings) == 0 && haveTrack {
 		for i, s := range tr.Exclude {
-			openings = append(openings, config.Opening{Name: string(rune('A' + i%26)), Shape: s})
+			openings = append(openings, config.Opening{Name: stage.DefaultOpeningName(i), Shape: s})
 		}
 	}
 	st, err := t.Zones.Stage(openings)

@@ -26,6 +26,9 @@ type ZoneStage struct {
 	K, UCS float64
 }
 
+// DefaultOpeningName names the i-th opening when it has no name: A, B, ...
+func DefaultOpeningName(i int) string { return string(rune('A' + i%26)) }
+
 // Effective returns the settings with defaults in their zero fields
 // (calibration up to 0.2 of the peak, or the first 3 frames without a
 // load, and the finder's defaults), as the stage applies them.
@@ -110,7 +113,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 		case i < len(st.OpeningNames) && st.OpeningNames[i] != "":
 			return st.OpeningNames[i]
 		}
-		return string(rune('A' + i%26))
+		return DefaultOpeningName(i)
 	}
 	for i := range st.Finder.Sectors.Openings {
 		rep.Openings = append(rep.Openings, strainfile.OpeningRecord{Index: i, Name: openingName(i)})
