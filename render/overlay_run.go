@@ -1,6 +1,7 @@
 package render
 
 import (
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -88,8 +89,9 @@ type Result struct {
 // whole sequence, so a colour means the same value in every frame. Zone
 // outlines (zones.csv, zone_cells.csv), onset badges (onset.json, from the
 // onset's frame on), frame times and nominal stress (run.json's timeline)
-// are drawn when the run folder has them.
-func Run(dir string, opt Options) (Result, error) {
+// are drawn when the run folder has them. Run stops between frames when
+// ctx is done, with ctx's error; the video is then not written.
+func Run(ctx context.Context, dir string, opt Options) (Result, error) {
 	if opt.Field == "" {
 		opt.Field = "e1"
 	}
@@ -173,6 +175,9 @@ func Run(dir string, opt Options) (Result, error) {
 		}
 	}()
 	for k, name := range rr.names {
+		if err := ctx.Err(); err != nil {
+			return res, fmt.Errorf("render stopped before frame %s: %w", name, context.Cause(ctx))
+		}
 		fv, err := rr.frameValues(q, name, opt.On == OnCurrent || opt.Vectors)
 		if err != nil {
 			return res, err
@@ -205,7 +210,7 @@ func Run(dir string, opt Options) (Result, error) {
 			return res, fmt.Errorf("frame %s: %w", name, err)
 		}
 		if opt.Video {
-			err = rr.writeVideoFrame(&video, canvas, name, opt, filepath.Join(dir, "video."+opt.Format))
+			err = rr.writeVideoFrame(&video, canvas, name, opt, filepath.Join(dir, VideoFile(opt.Format)))
 		}
 		canvas.Close()
 		if err != nil {

@@ -6,11 +6,9 @@ import (
 	"html/template"
 	"os"
 	"path/filepath"
-)
 
-// modelDir is the run folder's subfolder of a model comparison (written
-// by the compare command or the run's model stage).
-const modelDir = "model"
+	"spallscope/strain/model"
+)
 
 // pageModel is the page's measured-against-model section.
 type pageModel struct {
@@ -27,7 +25,7 @@ type pageModelRow struct {
 // modelSection reads RUN/model/model-summary.json and the side-by-side
 // images; nil when the run holds no comparison.
 func modelSection(dir string, im pageImages) (*pageModel, error) {
-	data, err := os.ReadFile(filepath.Join(dir, modelDir, "model-summary.json"))
+	data, err := os.ReadFile(filepath.Join(dir, model.Dir, model.SummaryFile))
 	if err != nil {
 		return nil, nil
 	}
@@ -60,7 +58,7 @@ func modelSection(dir string, im pageImages) (*pageModel, error) {
 		pm.Rows = append(pm.Rows, pageModelRow{Quantity: fmt.Sprint(q.Quantity), Unit: q.Unit, Count: fmt.Sprint(q.Count),
 			Bias: f(q.Bias, "%.3g"), RMS: f(q.RMS, "%.3g"), Max: f(q.MaxAbs, "%.3g"), Correlation: f(q.Correlation, "%.3f"), Ratio: f(q.Ratio, "%.2f")})
 	}
-	imgs, _ := filepath.Glob(filepath.Join(dir, modelDir, "compare_*.png"))
+	imgs, _ := filepath.Glob(filepath.Join(dir, model.Dir, "compare_*.png"))
 	for _, p := range imgs {
 		u, err := im.URL(p)
 		if err != nil {

@@ -19,6 +19,10 @@ const (
 	VideoAVI = "avi"
 )
 
+// VideoFile is the name of a run folder's video in format (VideoMP4 or
+// VideoAVI).
+func VideoFile(format string) string { return "video." + format }
+
 // DefaultFPS is the default frame rate of rendered videos.
 const DefaultFPS = 10
 

@@ -2,6 +2,7 @@ package render
 
 import (
 	"bufio"
+	"context"
 	"encoding/json"
 	"fmt"
 	"math"
@@ -174,7 +175,7 @@ func TestVideoOfRunFolder(t *testing.T) {
 	const n = 4
 	dir, sc := synthRun(t, n)
 	var done int
-	res, err := Run(dir, Options{Field: "exx", Video: true, SideBySide: true, FPS: 4, Progress: func(d, _ int) { done = d }})
+	res, err := Run(context.Background(), dir, Options{Field: "exx", Video: true, SideBySide: true, FPS: 4, Progress: func(d, _ int) { done = d }})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -203,7 +203,7 @@ folder of a submitted campaign.`,
 				return err
 			}
 			r := reporter(cmd)
-			results, err := cluster.Merge(c, plan, o, tool, campaignProgress(r, len(c.Tests)))
+			results, err := cluster.Merge(cmd.Context(), c, plan, o, tool, campaignProgress(r, len(c.Tests)))
 			r.Wait()
 			if err != nil {
 				return err

@@ -9,13 +9,14 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/demo"
 	"spallscope/cmd/spallscope/internal/job"
 	"spallscope/strain/model"
 )
 
 // printFaces prints the onsets of every face on the load log's clock.
 func printFaces(cmd *cobra.Command, run string) {
-	data, err := os.ReadFile(filepath.Join(run, "faces.json"))
+	data, err := os.ReadFile(filepath.Join(run, job.FacesFile))
 	if err != nil {
 		return
 	}
@@ -24,7 +25,7 @@ func printFaces(cmd *cobra.Command, run string) {
 		return
 	}
 	o := cmd.OutOrStdout()
-	fmt.Fprintf(o, "  onsets of both faces on the load log's clock (UCS %.0f MPa, K = %.2f assumed for the context):\n", demoUCS, demoK)
+	fmt.Fprintf(o, "  onsets of both faces on the load log's clock (UCS %.0f MPa, K = %.2f assumed for the context):\n", demo.UCS, demo.K)
 	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
 	fmt.Fprintln(w, "    face\tclass\tsector\tindicator\tframe\tlog_time_s\tstress_MPa\tpct_of_peak")
 	for _, on := range rep.Onsets {
@@ -54,7 +55,7 @@ func printModel(cmd *cobra.Command, dir string) {
 	if json.Unmarshal(data, &s) != nil {
 		return
 	}
-	fmt.Fprintf(cmd.OutOrStdout(), "  model (elastic Kirsch at %g MPa) against the front face at %s:", demoModelMPa, s.FrameName)
+	fmt.Fprintf(cmd.OutOrStdout(), "  model (elastic Kirsch at %g MPa) against the front face at %s:", demo.ModelMPa, s.FrameName)
 	for _, q := range s.Quantities {
 		if q.RMS != nil && q.Correlation != nil && q.Ratio != nil {
 			fmt.Fprintf(cmd.OutOrStdout(), " %v RMS %.2g (%.1f× resolution, r = %.3f);", q.Quantity, *q.RMS, *q.Ratio, *q.Correlation)

@@ -2,8 +2,8 @@
 // faces of rock specimens under compression and times the onset of
 // fracturing around openings. See README.md for the job it does.
 //
-// This package only parses flags and prints; the work is done by the
-// packages dic, subset, strain and render.
+// This package only parses flags, calls one function of the job's
+// packages (internal/...) and prints.
 package main
 
 import (
@@ -15,8 +15,13 @@ import (
 const version = "0.1.0-dev"
 
 func main() {
-	if err := newRoot().Execute(); err != nil {
+	ctx, release := stopOnSignal(os.Stderr)
+	err := newRoot().ExecuteContext(ctx)
+	code := 0
+	if err != nil {
 		fmt.Fprintln(os.Stderr, "spallscope:", err)
-		os.Exit(1)
+		code = exitCode(ctx, err)
 	}
+	release()
+	os.Exit(code)
 }

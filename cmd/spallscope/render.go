@@ -80,7 +80,7 @@ AVI Motion JPEG where this machine's OpenCV cannot write MP4, which is said).`,
 			r := reporter(cmd)
 			defer r.Wait()
 			opt.Progress = progress.Task(r, "render")
-			res, err := render.Run(args[0], opt)
+			res, err := render.Run(cmd.Context(), args[0], opt)
 			if err != nil {
 				return err
 			}

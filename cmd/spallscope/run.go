@@ -37,7 +37,7 @@ the measurement resolution.`,
 				return err
 			}
 			r := reporter(cmd)
-			s, err := job.Run(t, out, "spallscope "+version, testProgress(r, t.Name))
+			s, err := job.Run(cmd.Context(), t, out, "spallscope "+version, testProgress(r, t.Name))
 			r.Wait()
 			if err != nil {
 				return err
@@ -72,10 +72,7 @@ func printSummary(cmd *cobra.Command, s *job.Summary) {
 }
 
 func newBatchCmd() *cobra.Command {
-	var (
-		out, shardFlag           string
-		jobs, shardCount, frames int
-	)
+	var opt cluster.BatchOptions
 	cmd := &cobra.Command{
 		Use:   "batch CAMPAIGN.yaml|FOLDER [--jobs N] [--out DIR] [--shard i/n]",
 		Short: "Run a campaign of tests, with progress per test, and write a campaign summary",
@@ -101,77 +98,29 @@ frames are tracked in frame parts, and merge finishes them.`,
 			if err != nil {
 				return err
 			}
-			out = campaignOut(c, out)
-			// --shard wins over the environment: a resubmission of some of
-			// the tasks has fewer array tasks than the plan has.
-			var shard cluster.Shard
-			var sharded bool
-			if shardFlag != "" {
-				if shard, err = cluster.ParseShard(shardFlag); err != nil {
-					return err
-				}
-				sharded = shard.N > 1
-			} else if shard, sharded, err = cluster.FromEnv(shardCount); err != nil {
+			r := reporter(cmd)
+			opt.Tool, opt.Progress = "spallscope "+version, campaignProgress(r, len(c.Tests))
+			b, err := cluster.RunBatch(cmd.Context(), c, opt)
+			r.Wait()
+			if err != nil {
 				return err
 			}
-			if frames > 0 && !sharded {
-				return fmt.Errorf("--frames-per-task divides tests over the tasks of an array job: give --shard i/n too (or use 'spallscope cluster submit')")
-			}
-			tool := "spallscope " + version
-			include := shard.Has
-			var parts []cluster.Unit
-			if sharded {
-				plan, err := cluster.NewPlan(c, frames, shard.N)
-				if err != nil {
-					return err
-				}
-				if plan.Tasks != shard.N {
-					return fmt.Errorf("shard %d/%d: the campaign has only %d units of work", shard.I, shard.N, plan.Tasks)
-				}
-				if err := cluster.CheckPlan(out, plan); err != nil {
-					return fmt.Errorf("shard %d/%d: %w", shard.I, shard.N, err)
-				}
-				whole := map[string]bool{}
-				for _, u := range plan.Task(shard.I) {
-					if u.Part == nil {
-						whole[u.Config] = true
-					} else {
-						parts = append(parts, u)
-					}
-				}
-				include = func(k int) bool { return whole[c.Tests[k]] }
-			}
-			r := reporter(cmd)
-			show := campaignProgress(r, len(c.Tests))
-			results := job.RunCampaign(c, out, tool, jobs, include, show)
-			partErrs := runParts(parts, out, tool, show)
-			r.Wait()
-			if !sharded {
-				if err := job.WriteCampaignSummary(out, c.Name, results); err != nil {
-					return err
-				}
-			}
-			failed := 0
-			for _, r := range results {
+			for _, r := range b.Results {
 				if r.Err != "" {
-					failed++
 					fmt.Fprintf(cmd.ErrOrStderr(), "%s: %s\n", r.Config, r.Err)
 				} else {
 					printSummary(cmd, r.Summary)
 				}
 			}
-			for _, e := range partErrs {
-				failed++
+			for _, e := range b.PartErrs {
 				fmt.Fprintln(cmd.ErrOrStderr(), e)
 			}
-			where := filepath.Join(out, "summary.html")
-			if sharded {
-				where = fmt.Sprintf("(shard %d/%d: no summary; run spallscope cluster merge)", shard.I, shard.N)
+			where := b.Summary
+			if b.Sharded {
+				where = fmt.Sprintf("(shard %d/%d: no summary; run spallscope cluster merge)", b.Shard.I, b.Shard.N)
 			}
-			units, what := len(results)+len(parts), "tests"
-			if len(parts) > 0 {
-				what = "units (tests and frame parts)"
-			}
+			units, what := b.Units()
+			failed := b.Failed()
 			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d %s, %d failed; summary %s\n", c.Name, units, what, failed, where)
 			if failed > 0 {
 				return fmt.Errorf("%d of %d %s failed", failed, units, what)
@@ -179,25 +128,10 @@ frames are tracked in frame parts, and merge finishes them.`,
 			return nil
 		},
 	}
-	cmd.Flags().StringVar(&out, "out", "", "folder for the runs and the summary")
-	cmd.Flags().IntVar(&jobs, "jobs", 0, "tests at once (default: the campaign's jobs, else 1)")
-	cmd.Flags().StringVar(&shardFlag, "shard", "", "run only share i of n of the tests (i/n); the summary is left to 'cluster merge'")
-	cmd.Flags().IntVar(&shardCount, "shard-count", 0, "number of shards when the index comes from JOB_COMPLETION_INDEX")
-	cmd.Flags().IntVar(&frames, "frames-per-task", 0, "with --shard: track tests longer than this in frame parts (as planned by 'cluster submit')")
+	cmd.Flags().StringVar(&opt.Out, "out", "", "folder for the runs and the summary")
+	cmd.Flags().IntVar(&opt.Jobs, "jobs", 0, "tests at once (default: the campaign's jobs, else 1)")
+	cmd.Flags().StringVar(&opt.Shard, "shard", "", "run only share i of n of the tests (i/n); the summary is left to 'cluster merge'")
+	cmd.Flags().IntVar(&opt.ShardCount, "shard-count", 0, "number of shards when the index comes from JOB_COMPLETION_INDEX")
+	cmd.Flags().IntVar(&opt.FramesPerTask, "frames-per-task", 0, "with --shard: track tests longer than this in frame parts (as planned by 'cluster submit')")
 	return cmd
-}
-
-// runParts tracks the frame parts of a shard one after the other, each
-// into its test's run folder under out, and returns their errors.
-func runParts(units []cluster.Unit, out, tool string, progress job.CampaignProgress) []error {
-	var errs []error
-	for _, u := range units {
-		label := u.Test + " " + u.Part.String()
-		err := job.TrackPart(u.Config, filepath.Join(out, u.Test), tool, *u.Part,
-			func(stage string, done, total int) { progress(label, stage, done, total) })
-		if err != nil {
-			errs = append(errs, fmt.Errorf("%s: %w", u, err))
-		}
-	}
-	return errs
 }

@@ -75,7 +75,7 @@ RUN/run.json. Re-running with another window does not re-track.`,
 			}
 			r := reporter(cmd)
 			defer r.Wait()
-			rec, res, err := job.Strain(t, fields, subsetSize, progress.Task(r, "strain"))
+			rec, res, err := job.Strain(cmd.Context(), t, fields, subsetSize, progress.Task(r, "strain"))
 			if err != nil {
 				return err
 			}

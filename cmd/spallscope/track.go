@@ -63,7 +63,7 @@ read stops the run with an error naming it and keeps the fields written.`,
 				return err
 			}
 			r := reporter(cmd)
-			rec, err := job.Track(t, out, "spallscope "+version, func(done, total, points int) {
+			rec, err := job.Track(cmd.Context(), t, out, "spallscope "+version, func(done, total, points int) {
 				r.Update(fmt.Sprintf("track (%d points a frame)", points), done, total)
 			})
 			r.Wait()

@@ -13,7 +13,7 @@ import (
 // and the previous file, if any, is left untouched.
 func WriteAtomic(path string, write func(w *bufio.Writer) error) error {
 	dir := filepath.Dir(path)
-	f, err := os.CreateTemp(dir, "."+filepath.Base(path)+".partial-*")
+	f, err := os.CreateTemp(dir, "."+filepath.Base(path)+partialMark+"*")
 	if err != nil {
 		return fmt.Errorf("write %s: %w", path, err)
 	}

@@ -11,6 +11,9 @@ import (
 	"spallscope/dic/runfolder"
 )
 
+// Dir is a run folder's subfolder of its model comparison.
+const Dir = "model"
+
 // File names of a comparison's outputs in its folder.
 const (
 	DiffFile    = "model-diff.csv"

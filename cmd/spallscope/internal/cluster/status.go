@@ -1,6 +1,7 @@
 package cluster
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"io/fs"
@@ -107,7 +108,7 @@ func Unfinished(p *Plan, out, tool string) ([]int, error) {
 // then writes the campaign summary (summary.csv and summary.html in out).
 // While a test is not done, the others are still assembled, but no summary
 // is written and the error lists the tests that are missing with why.
-func Merge(c *config.Campaign, p *Plan, out, tool string, progress job.CampaignProgress) ([]job.Result, error) {
+func Merge(ctx context.Context, c *config.Campaign, p *Plan, out, tool string, progress job.CampaignProgress) ([]job.Result, error) {
 	states, err := Status(p, out)
 	if err != nil {
 		return nil, err
@@ -139,7 +140,7 @@ func Merge(c *config.Campaign, p *Plan, out, tool string, progress job.CampaignP
 			continue
 		}
 		if us[0].Part != nil {
-			r := assemble(path, out, tool, p.Parts(name), progress)
+			r := assemble(ctx, path, out, tool, p.Parts(name), progress)
 			if err := job.WriteOutcome(out, r); err != nil && r.Err == "" {
 				r.Err = err.Error()
 			}
@@ -162,7 +163,7 @@ func Merge(c *config.Campaign, p *Plan, out, tool string, progress job.CampaignP
 }
 
 // assemble joins a test's frame parts and runs the rest of its pipeline.
-func assemble(path, out, tool string, parts []job.Part, progress job.CampaignProgress) job.Result {
+func assemble(ctx context.Context, path, out, tool string, parts []job.Part, progress job.CampaignProgress) job.Result {
 	res := job.Result{Config: path}
 	t, err := config.Read(path)
 	if err != nil {
@@ -178,7 +179,7 @@ func assemble(path, out, tool string, parts []job.Part, progress job.CampaignPro
 	if progress != nil {
 		pr = func(stage string, done, total int) { progress(t.Name, stage, done, total) }
 	}
-	s, err := job.Run(t, dir, tool, pr)
+	s, err := job.Run(ctx, t, dir, tool, pr)
 	if err != nil {
 		res.Err = err.Error()
 		return res

@@ -1,5 +1,7 @@
 package config
 
+import "spallscope/strain/model"
+
 // Model is a numerical model's field to hold against the measurement: a
 // CSV of points (x, y and any of u, v, exx, eyy, exy) at the load level
 // LoadMPa, compared at the frame whose nominal stress is nearest. Its
@@ -15,4 +17,17 @@ type Model struct {
 	YUp                 bool      `yaml:"y_up"`
 	CompressionPositive bool      `yaml:"compression_positive"`
 	Face                string    `yaml:"face"`
+}
+
+// Format is how the model file maps onto the photos (mm when Units is
+// empty), without the scale, which comes from the run.
+func (m Model) Format() model.Format {
+	f := model.Format{Units: model.Units(m.Units), YUp: m.YUp, CompressionPositive: m.CompressionPositive}
+	if f.Units == "" {
+		f.Units = model.MM
+	}
+	if len(m.Origin) == 2 {
+		f.OriginX, f.OriginY = m.Origin[0], m.Origin[1]
+	}
+	return f
 }

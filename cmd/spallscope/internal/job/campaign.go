@@ -2,6 +2,7 @@ package job
 
 import (
 	"bufio"
+	"context"
 	"encoding/csv"
 	"fmt"
 	"html/template"
@@ -27,12 +28,30 @@ type Result struct {
 // CampaignProgress reports progress of one test of a campaign.
 type CampaignProgress func(test, stage string, done, total int)
 
+// File names of a campaign's summary in its output folder.
+const (
+	SummaryCSV  = "summary.csv"
+	SummaryHTML = "summary.html"
+)
+
+// CampaignOut is campaign c's output folder: out when given, else the
+// campaign's out key, else "<name>_runs" beside the campaign file.
+func CampaignOut(c *config.Campaign, out string) string {
+	if out == "" {
+		out = c.Out
+	}
+	if out == "" {
+		out = filepath.Join(c.Dir, c.Name+"_runs")
+	}
+	return out
+}
+
 // RunCampaign runs the tests of campaign c that include selects (nil: all;
 // a cluster task's share), at most jobs at once, each into <out>/<test
 // name>, and records each test's outcome there (OutcomeFile). A failing
 // test does not stop the others; its Result carries the error. Results are
 // in the campaign's order, for the selected tests only.
-func RunCampaign(c *config.Campaign, out, tool string, jobs int, include func(k int) bool, progress CampaignProgress) []Result {
+func RunCampaign(ctx context.Context, c *config.Campaign, out, tool string, jobs int, include func(k int) bool, progress CampaignProgress) []Result {
 	if jobs <= 0 {
 		jobs = max(c.Jobs, 1)
 	}
@@ -51,7 +70,7 @@ func RunCampaign(c *config.Campaign, out, tool string, jobs int, include func(k 
 			defer wg.Done()
 			sem <- struct{}{}
 			defer func() { <-sem }()
-			results[i] = runOne(path, out, tool, progress)
+			results[i] = runOne(ctx, path, out, tool, progress)
 			if err := WriteOutcome(out, results[i]); err != nil && results[i].Err == "" {
 				results[i].Err = err.Error()
 			}
@@ -61,7 +80,7 @@ func RunCampaign(c *config.Campaign, out, tool string, jobs int, include func(k 
 	return results
 }
 
-func runOne(path, out, tool string, progress CampaignProgress) (res Result) {
+func runOne(ctx context.Context, path, out, tool string, progress CampaignProgress) (res Result) {
 	res.Config = path
 	defer func() {
 		if r := recover(); r != nil { // one test's bug must not lose the others' results
@@ -77,7 +96,7 @@ func runOne(path, out, tool string, progress CampaignProgress) (res Result) {
 	if progress != nil {
 		p = func(stage string, done, total int) { progress(t.Name, stage, done, total) }
 	}
-	s, err := Run(t, filepath.Join(out, t.Name), tool, p)
+	s, err := Run(ctx, t, filepath.Join(out, t.Name), tool, p)
 	if err != nil {
 		res.Err = err.Error()
 		return res
@@ -90,13 +109,14 @@ func runOne(path, out, tool string, progress CampaignProgress) (res Result) {
 // (or one row for a test without onsets or that failed).
 const SummaryHeader = "test,status,frames,peak_MPa,peak_time_s,u_noise_px,exx_noise,vsg_px,class,opening,sector,indicator,onset_frame,onset_time_s,onset_MPa,percent_of_peak,error"
 
-// WriteCampaignSummary writes dir/summary.csv and dir/summary.html.
+// WriteCampaignSummary writes dir/summary.csv and dir/summary.html (one
+// row per onset, with the cautions).
 func WriteCampaignSummary(dir, name string, results []Result) error {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
 	rows := summaryRows(results)
-	err := runfolder.WriteAtomic(filepath.Join(dir, "summary.csv"), func(w *bufio.Writer) error {
+	err := runfolder.WriteAtomic(filepath.Join(dir, SummaryCSV), func(w *bufio.Writer) error {
 		cw := csv.NewWriter(w)
 		cw.Write(splitHeader())
 		for _, r := range rows {
@@ -108,7 +128,7 @@ func WriteCampaignSummary(dir, name string, results []Result) error {
 	if err != nil {
 		return err
 	}
-	return runfolder.WriteAtomic(filepath.Join(dir, "summary.html"), func(w *bufio.Writer) error {
+	return runfolder.WriteAtomic(filepath.Join(dir, SummaryHTML), func(w *bufio.Writer) error {
 		return summaryPage.Execute(w, struct {
 			Name     string
 			Header   []string

@@ -2,6 +2,7 @@ package job
 
 import (
 	"bufio"
+	"context"
 	"fmt"
 	"html/template"
 	"path/filepath"
@@ -16,6 +17,10 @@ import (
 
 // FacesDir is the run folder's subfolder of per-face run folders.
 const FacesDir = "faces"
+
+// FacesFile is the run folder's record of every face's onsets on the load
+// log's clock (FacesReport).
+const FacesFile = "faces.json"
 
 // FaceOnset is an onset of one face placed on the load log's clock.
 type FaceOnset struct {
@@ -40,13 +45,13 @@ type FacesReport struct {
 // runFaces runs each face of t as its own test into out/faces/<name> and
 // writes the combined faces.json and an index page report.html showing the
 // faces' reports side by side.
-func runFaces(t *config.Test, out, tool string, progress Progress) (*Summary, error) {
+func runFaces(ctx context.Context, t *config.Test, out, tool string, progress Progress) (*Summary, error) {
 	start := time.Now()
 	sum := &Summary{Name: t.Name, Out: out}
 	rep := FacesReport{Tool: tool, Cautions: strainfile.Cautions}
 	for i := range t.Faces {
 		ft := t.FaceTest(i)
-		s, err := Run(ft, filepath.Join(out, FacesDir, ft.Name), tool, func(stage string, done, total int) {
+		s, err := Run(ctx, ft, filepath.Join(out, FacesDir, ft.Name), tool, func(stage string, done, total int) {
 			progress(ft.Name+"/"+stage, done, total)
 		})
 		if err != nil {
@@ -108,12 +113,12 @@ func runFaces(t *config.Test, out, tool string, progress Progress) (*Summary, er
 			timeline = fig.PNG
 		}
 	}
-	err := runfolder.WriteJSON(filepath.Join(out, "faces.json"), rep)
+	err := runfolder.WriteJSON(filepath.Join(out, FacesFile), rep)
 	if err != nil {
 		return nil, err
 	}
 	if t.Outputs.WantReport() {
-		err = runfolder.WriteAtomic(filepath.Join(out, "report.html"), func(w *bufio.Writer) error {
+		err = runfolder.WriteAtomic(filepath.Join(out, render.ReportFile), func(w *bufio.Writer) error {
 			return facesPage.Execute(w, struct {
 				Name     string
 				Timeline string
@@ -123,7 +128,7 @@ func runFaces(t *config.Test, out, tool string, progress Progress) (*Summary, er
 		if err != nil {
 			return nil, err
 		}
-		sum.Report = filepath.Join(out, "report.html")
+		sum.Report = filepath.Join(out, render.ReportFile)
 	}
 	sum.Seconds = time.Since(start).Seconds()
 	return sum, nil

@@ -2,6 +2,7 @@ package job
 
 import (
 	"bufio"
+	"context"
 	"errors"
 	"fmt"
 	"io"
@@ -120,11 +121,16 @@ func CanSplit(t *config.Test) error {
 // outcome there, failures included. A part that was interrupted resumes
 // after its last complete field when its inputs and settings are
 // unchanged.
-func TrackPart(configPath, testDir, tool string, p Part, progress Progress) (err error) {
+func TrackPart(ctx context.Context, configPath, testDir, tool string, p Part, progress Progress) (err error) {
 	dir := p.Dir(testDir)
-	if err := os.MkdirAll(dir, 0o755); err != nil {
+	if err := runfolder.Claim(testDir, tool); err != nil {
 		return err
 	}
+	unlock, err := claimAndLock(dir, tool)
+	if err != nil {
+		return err
+	}
+	defer unlock()
 	recPath := filepath.Join(dir, partRecordFile)
 	if err := os.Remove(recPath); err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return err
@@ -186,7 +192,7 @@ func TrackPart(configPath, testDir, tool string, p Part, progress Progress) (err
 		return err
 	}
 	start := time.Now()
-	tr, err := stage.Track(dir, headSequence{tp.in.Seq, p.To}, tracker, tp.record(t, tool), from,
+	tr, err := stage.Track(ctx, dir, headSequence{tp.in.Seq, p.To}, tracker, tp.record(t, tool), from,
 		func(done int, _ *dic.Field) { progress("track", done-p.From, p.To-p.From) })
 	if err != nil {
 		return fmt.Errorf("test %s, %s: %w", t.Name, p, err)
@@ -234,7 +240,9 @@ func AssembleParts(t *config.Test, testDir, tool string, parts []Part) error {
 	if st := stages["track"]; st.Fingerprint == tp.fingerprint && st.Complete {
 		return nil // already assembled
 	}
-	clearFrom(testDir, "track")
+	for _, s := range pipeline {
+		removeOutputs(testDir, s.outputs)
+	}
 	if err := os.MkdirAll(filepath.Join(testDir, runfolder.FieldsDir), 0o755); err != nil {
 		return err
 	}

@@ -1,6 +1,7 @@
 package job
 
 import (
+	"context"
 	"fmt"
 	"os"
 
@@ -20,7 +21,12 @@ import (
 // opens the photos, reference and mask, builds the tracker from the
 // correlation section and tracks every frame. progress gets the frame
 // count, the frames in all and the points of a frame.
-func Track(t *config.Test, out, tool string, progress func(done, total, points int)) (runfolder.TrackRecord, error) {
+func Track(ctx context.Context, t *config.Test, out, tool string, progress func(done, total, points int)) (runfolder.TrackRecord, error) {
+	unlock, err := claimAndLock(out, tool)
+	if err != nil {
+		return runfolder.TrackRecord{}, err
+	}
+	defer unlock()
 	tp, err := prepareTrack(t, tool)
 	if err != nil {
 		return runfolder.TrackRecord{}, err
@@ -31,7 +37,7 @@ func Track(t *config.Test, out, tool string, progress func(done, total, points i
 		return runfolder.TrackRecord{}, err
 	}
 	n, points := tp.in.Seq.Len(), tracker.Grid().Len()
-	return stage.Track(out, tp.in.Seq, tracker, tp.record(t, tool), 0, func(done int, _ *dic.Field) {
+	return stage.Track(ctx, out, tp.in.Seq, tracker, tp.record(t, tool), 0, func(done int, _ *dic.Field) {
 		if progress != nil {
 			progress(done, n, points)
 		}
@@ -41,7 +47,7 @@ func Track(t *config.Test, out, tool string, progress func(done, total, points i
 // Strain runs the strain stage alone over run folder dir with test t's
 // strain section and scale. subsetSize is the correlation subset for the
 // VSG (0: from the track record).
-func Strain(t *config.Test, dir string, subsetSize int, progress func(done, total int)) (strainfile.StrainRecord, *strainfile.ResolutionRecord, error) {
+func Strain(ctx context.Context, t *config.Test, dir string, subsetSize int, progress func(done, total int)) (strainfile.StrainRecord, *strainfile.ResolutionRecord, error) {
 	win, err := t.Strain.StrainWindow()
 	if err != nil {
 		return strainfile.StrainRecord{}, nil, err
@@ -50,10 +56,12 @@ func Strain(t *config.Test, dir string, subsetSize int, progress func(done, tota
 	if err != nil {
 		return strainfile.StrainRecord{}, nil, err
 	}
-	if _, err := os.Stat(dir); err != nil {
+	unlock, err := lockRun(dir)
+	if err != nil {
 		return strainfile.StrainRecord{}, nil, err
 	}
-	return stage.Strain(dir, win, subsetSize, scale, t.Strain.StaticFrames, progress)
+	defer unlock()
+	return stage.Strain(ctx, dir, win, subsetSize, scale, t.Strain.StaticFrames, progress)
 }
 
 // Zones runs the zones stage alone over run folder dir with test t's
@@ -63,9 +71,11 @@ func Strain(t *config.Test, dir string, subsetSize int, progress func(done, tota
 // scale and subset size from the track and strain records. notes are the
 // load log's remarks.
 func Zones(t *config.Test, dir, tool string) (rep *strainfile.OnsetReport, notes []string, err error) {
-	if _, err := os.Stat(dir); err != nil {
+	unlock, err := lockRun(dir)
+	if err != nil {
 		return nil, nil, err
 	}
+	defer unlock()
 	var tr runfolder.TrackRecord
 	haveTrack := runfolder.Section(dir, "track", &tr) == nil
 	openings := t.Openings
@@ -107,4 +117,16 @@ func Zones(t *config.Test, dir, tool string) (rep *strainfile.OnsetReport, notes
 	}
 	rep, err = stage.Zones(dir, st, stage.FrameStates(names, times, sigma), tool)
 	return rep, notes, err
+}
+
+// lockRun locks an existing run folder that a stage run alone is about to
+// write: it must be a run folder (a folder of the user's is refused).
+func lockRun(dir string) (unlock func(), err error) {
+	if _, err := os.Stat(dir); err != nil {
+		return nil, err
+	}
+	if !runfolder.IsRunFolder(dir) {
+		return nil, fmt.Errorf("%s is not a run folder (no %s with a track record): %w", dir, runfolder.ManifestFile, runfolder.ErrForeignFolder)
+	}
+	return runfolder.Lock(dir)
 }

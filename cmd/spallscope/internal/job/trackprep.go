@@ -3,6 +3,7 @@ package job
 import (
 	"fmt"
 	"os"
+	"strconv"
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/dic"
@@ -20,6 +21,7 @@ type trackInputs struct {
 	exclude     []string
 	maskHash    string
 	hashes      map[string]string // "mask" and "images", for run.json
+	inputs      []any             // what decides the track stage's output
 	fingerprint string
 }
 
@@ -54,7 +56,8 @@ func prepareTrack(t *config.Test, tool string) (*trackInputs, error) {
 	}
 	tp.hashes["mask"] = tp.maskHash
 	tp.hashes["images"] = sequenceDigest(tp.in.Seq)
-	tp.fingerprint = fingerprint("track", tool, tp.hashes["images"], resolveRef(t), t.ROI, tp.exclude, tp.maskHash, tp.settings, tp.scale)
+	tp.inputs = []any{tool, tp.hashes["images"], resolveRef(t), t.ROI, tp.exclude, tp.maskHash, tp.settings, tp.scale}
+	tp.fingerprint = stageFingerprint("track", "", tp.inputs)
 	return tp, nil
 }
 
@@ -96,4 +99,16 @@ func inTest(t *config.Test, err error) error {
 		return err
 	}
 	return fmt.Errorf("test %s: %w", t.Name, err)
+}
+
+// resolveRef is the test's reference: a frame index (default 0) or the
+// path of an image file.
+func resolveRef(t *config.Test) string {
+	if t.Reference == "" {
+		return "0"
+	}
+	if _, err := strconv.Atoi(t.Reference); err == nil {
+		return t.Reference
+	}
+	return t.Resolve(t.Reference)
 }

@@ -1,6 +1,7 @@
 package stage
 
 import (
+	"context"
 	"fmt"
 	"time"
 
@@ -16,7 +17,10 @@ import (
 // (0: taken from the track section). If static > 0, the first static
 // frames are static shots whose scatter gives the noise floor, written as
 // the "resolution" section.
-func Strain(dir string, w strain.Window, subsetSize int, scale dic.Scale, static int, progress func(done, total int)) (strainfile.StrainRecord, *strainfile.ResolutionRecord, error) {
+//
+// When ctx is done the stage stops before its next frame with a *Stopped
+// error.
+func Strain(ctx context.Context, dir string, w strain.Window, subsetSize int, scale dic.Scale, static int, progress func(done, total int)) (strainfile.StrainRecord, *strainfile.ResolutionRecord, error) {
 	start := time.Now()
 	names, err := runfolder.Frames(dir)
 	if err != nil {
@@ -43,6 +47,9 @@ func Strain(dir string, w strain.Window, subsetSize int, scale dic.Scale, static
 	var staticFields []*dic.Field
 	var staticStrains []*strain.Field
 	for i, name := range names {
+		if ctx.Err() != nil {
+			return rec, nil, &Stopped{Stage: "strain", Done: i, Total: len(names), Cause: context.Cause(ctx)}
+		}
 		f, err := runfolder.ReadField(runfolder.FieldPath(dir, name))
 		if err != nil {
 			return rec, nil, err

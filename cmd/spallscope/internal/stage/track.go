@@ -1,6 +1,7 @@
 package stage
 
 import (
+	"context"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -19,8 +20,10 @@ import (
 // count and the field.
 // rec.Times, when set, must hold one time per frame. A
 // frame that cannot be read stops the stage with an error naming it; the
-// fields already written stay.
-func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec runfolder.TrackRecord, from int, progress func(done int, f *dic.Field)) (runfolder.TrackRecord, error) {
+// fields already written stay. When ctx is done the stage stops before
+// its next frame with a *Stopped error; the fields written stay, so that
+// the run can resume after them.
+func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tracker, rec runfolder.TrackRecord, from int, progress func(done int, f *dic.Field)) (runfolder.TrackRecord, error) {
 	if err := os.MkdirAll(filepath.Join(dir, runfolder.FieldsDir), 0o755); err != nil {
 		return rec, err
 	}
@@ -33,6 +36,9 @@ func Track(dir string, seq frames.Sequence, tracker *dic.Tracker, rec runfolder.
 		rec.Frames = append(rec.Frames, seq.Name(i))
 	}
 	for i := from; i < seq.Len(); i++ {
+		if ctx.Err() != nil {
+			return rec, &Stopped{Stage: "track", Done: i, Total: seq.Len(), Cause: context.Cause(ctx)}
+		}
 		img, err := seq.Read(i)
 		if err != nil {
 			return rec, fmt.Errorf("track stopped; the fields of frames before %d are in %s: %w", i, filepath.Join(dir, runfolder.FieldsDir), err)

@@ -1,0 +1,217 @@
+package job
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"os"
+	"path/filepath"
+	"reflect"
+	"slices"
+	"strings"
+	"testing"
+	"time"
+
+	"spallscope/dic/runfolder"
+	"spallscope/strain/strainfile"
+)
+
+const tool = "spallscope test"
+
+// A run with nothing changed skips every stage; a new strain window reruns
+// strain and the stages after it, not tracking (the fingerprint rule of
+// the stage table, common practice for build tools, no source).
+func TestRunSkipsWhatIsUpToDate(t *testing.T) {
+	tc := bandTest(t, "band", bandConfig)
+	out := filepath.Join(t.TempDir(), "run")
+	first, err := Run(context.Background(), tc, out, tool, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(first.Skipped) != 0 || first.Frames != 14 {
+		t.Fatalf("first run skipped %v, %d frames; want none skipped, 14 frames", first.Skipped, first.Frames)
+	}
+	again, err := Run(context.Background(), tc, out, tool, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(again.Skipped, Stages) {
+		t.Errorf("unchanged run skipped %v, want %v", again.Skipped, Stages)
+	}
+	field := runfolder.FieldPath(out, "band_0005")
+	before, _ := os.Stat(field)
+	wider := bandTest(t, "band-wider", strings.Replace(bandConfig, "strain: {window: 5}", "strain: {window: 7}", 1))
+	s, err := Run(context.Background(), wider, out, tool, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(s.Skipped, []string{"track"}) {
+		t.Errorf("after a strain-window change skipped %v, want [track]", s.Skipped)
+	}
+	if after, _ := os.Stat(field); !after.ModTime().Equal(before.ModTime()) {
+		t.Error("tracking was redone for a strain-window change")
+	}
+	var sr strainfile.StrainRecord
+	if runfolder.Section(out, "strain", &sr); sr.Window != 7 {
+		t.Errorf("strain record window %d, want 7", sr.Window)
+	}
+	// A zone setting reruns zones and outputs only.
+	zones := bandTest(t, "band-zones", strings.Replace(bandConfig, "strain: {window: 5}", "strain: {window: 7}", 1)+"outputs: {report: false}\n")
+	if s, err = Run(context.Background(), zones, out, tool, nil); err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(s.Skipped, []string{"track", "strain", "zones"}) {
+		t.Errorf("after an outputs change skipped %v, want [track strain zones]", s.Skipped)
+	}
+}
+
+// A run whose context ends mid-tracking stops at a frame boundary with a
+// Stopped error that says how to resume, keeps the finished fields and
+// leaves no temporary file and no lock; running again resumes after the
+// kept frames and gives the same bytes as an uninterrupted run.
+func TestStoppedRunResumes(t *testing.T) {
+	tc := bandTest(t, "band", bandConfig)
+	whole := filepath.Join(t.TempDir(), "whole")
+	if _, err := Run(context.Background(), tc, whole, tool, nil); err != nil {
+		t.Fatal(err)
+	}
+	cut := filepath.Join(t.TempDir(), "cut")
+	ctx, cancel := context.WithCancelCause(context.Background())
+	stopAfter := 5
+	_, err := Run(ctx, tc, cut, tool, func(stage string, done, total int) {
+		if stage == "track" && done == stopAfter {
+			cancel(errors.New("test interrupt"))
+		}
+	})
+	if !IsStopped(err) {
+		t.Fatalf("got %v, want a Stopped error", err)
+	}
+	for _, want := range []string{"test interrupt", "track", fmt.Sprintf("%d of 14 frames", stopAfter), "run the same command again to resume"} {
+		if !strings.Contains(err.Error(), want) {
+			t.Errorf("stop message %q lacks %q", err, want)
+		}
+	}
+	fields, _ := filepath.Glob(filepath.Join(cut, runfolder.FieldsDir, "*.csv"))
+	if len(fields) != stopAfter {
+		t.Errorf("%d fields kept, want %d", len(fields), stopAfter)
+	}
+	if n, _ := runfolder.RemovePartials(cut); n != 0 {
+		t.Errorf("%d temporary files left by the stop", n)
+	}
+	if _, err := os.Stat(filepath.Join(cut, runfolder.LockFile)); !os.IsNotExist(err) {
+		t.Errorf("lock left after the stop: %v", err)
+	}
+	s, err := Run(context.Background(), tc, cut, tool, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Resumed != stopAfter {
+		t.Errorf("resumed after %d frames, want %d", s.Resumed, stopAfter)
+	}
+	sameResults(t, whole, cut)
+}
+
+// A temporary file left by a process killed mid-write is removed when the
+// next run takes the folder.
+func TestRunRemovesPartialsOfAKilledWrite(t *testing.T) {
+	tc := bandTest(t, "band", bandConfig)
+	out := filepath.Join(t.TempDir(), "run")
+	if _, err := Run(context.Background(), tc, out, tool, nil); err != nil {
+		t.Fatal(err)
+	}
+	partial := filepath.Join(out, runfolder.FieldsDir, ".band_0003.csv.partial-77")
+	os.WriteFile(partial, []byte("x,y\n1,"), 0o644)
+	if _, err := Run(context.Background(), tc, out, tool, nil); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(partial); !os.IsNotExist(err) {
+		t.Errorf("partial file left: %v", err)
+	}
+}
+
+// --out into a folder of the user's that is not a run folder is refused
+// before any work, and nothing in it changes; a folder another live
+// process is writing is refused naming its PID.
+func TestRunRefusesForeignAndLockedFolders(t *testing.T) {
+	tc := bandTest(t, "band", bandConfig)
+	foreign := t.TempDir()
+	for _, sub := range []string{runfolder.FieldsDir, strainfile.StrainDir} {
+		os.Mkdir(filepath.Join(foreign, sub), 0o755)
+		os.WriteFile(filepath.Join(foreign, sub, "mine.csv"), []byte("only copy"), 0o644)
+	}
+	_, err := Run(context.Background(), tc, foreign, tool, nil)
+	if !errors.Is(err, runfolder.ErrForeignFolder) {
+		t.Fatalf("foreign folder: got %v", err)
+	}
+	for _, sub := range []string{runfolder.FieldsDir, strainfile.StrainDir} {
+		if b, err := os.ReadFile(filepath.Join(foreign, sub, "mine.csv")); err != nil || string(b) != "only copy" {
+			t.Errorf("user's file in %s changed: %q %v", sub, b, err)
+		}
+	}
+
+	locked := filepath.Join(t.TempDir(), "run")
+	os.MkdirAll(locked, 0o755)
+	unlock, err := runfolder.Lock(locked)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer unlock()
+	_, err = Run(context.Background(), tc, locked, tool, nil)
+	if !errors.Is(err, runfolder.ErrLocked) || !strings.Contains(err.Error(), fmt.Sprint(os.Getpid())) {
+		t.Errorf("locked folder: got %v, want ErrLocked naming PID %d", err, os.Getpid())
+	}
+}
+
+// What the late stages need is read before tracking starts: a load log
+// with a broken cell fails in well under the time of tracking, naming the
+// file and line, with no field written.
+func TestRunChecksLateInputsBeforeTracking(t *testing.T) {
+	dir := bandPhotos(t)
+	bad := filepath.Join(dir, "broken-load.csv")
+	data, err := os.ReadFile(filepath.Join(dir, "synth", "loadlog.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	lines := strings.Split(string(data), "\n")
+	lines[5] = "12.5,not-a-number"
+	os.WriteFile(bad, []byte(strings.Join(lines, "\n")), 0o644)
+	for name, cfg := range map[string]string{
+		"load log": strings.Replace(bandConfig, "file: synth/loadlog.csv", "file: broken-load.csv", 1),
+		"AE log":   bandConfig + "ae: {file: missing-hits.csv}\n",
+		"model":    bandConfig + "model: {file: missing-model.csv, load_mpa: 5}\n",
+	} {
+		tc := bandTest(t, "band-"+strings.ReplaceAll(name, " ", "-"), cfg)
+		out := filepath.Join(t.TempDir(), "run")
+		start := time.Now()
+		_, err := Run(context.Background(), tc, out, tool, nil)
+		if err == nil {
+			t.Errorf("%s: run succeeded", name)
+			continue
+		}
+		fields, _ := filepath.Glob(filepath.Join(out, runfolder.FieldsDir, "*.csv"))
+		if len(fields) != 0 {
+			t.Errorf("%s: %d fields tracked before the error %v", name, len(fields), err)
+		}
+		if name == "load log" && !strings.Contains(err.Error(), "broken-load.csv") {
+			t.Errorf("%s: error %q does not name the file", name, err)
+		}
+		t.Logf("%s: %v (%.2f s)", name, err, time.Since(start).Seconds())
+	}
+}
+
+// The stage table lists the stages in the order of the pipeline, and
+// every stage's outputs are its own.
+func TestStageTable(t *testing.T) {
+	if want := []string{"track", "strain", "zones", "outputs"}; !slices.Equal(Stages, want) {
+		t.Fatalf("stages %v, want %v", Stages, want)
+	}
+	owner := map[string]string{}
+	for _, s := range pipeline {
+		for _, o := range s.outputs {
+			if prev, ok := owner[o]; ok {
+				t.Errorf("%s is an output of both %s and %s", o, prev, s.name)
+			}
+			owner[o] = s.name
+		}
+	}
+}

@@ -1,0 +1,33 @@
+package runfolder
+
+import (
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strings"
+)
+
+// partialMark is in the name of every temporary file WriteAtomic writes.
+const partialMark = ".partial-"
+
+// RemovePartials removes the temporary files that WriteAtomic leaves
+// behind when its process is killed in the middle of a write, from dir
+// and its subfolders, and returns how many it removed. Only files named
+// as WriteAtomic names them (".<name>.partial-<random>") are touched.
+func RemovePartials(dir string) (int, error) {
+	n := 0
+	err := filepath.WalkDir(dir, func(path string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		name := d.Name()
+		if !d.IsDir() && strings.HasPrefix(name, ".") && strings.Contains(name, partialMark) {
+			if err := os.Remove(path); err != nil {
+				return err
+			}
+			n++
+		}
+		return nil
+	})
+	return n, err
+}
