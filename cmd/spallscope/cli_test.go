@@ -2,10 +2,13 @@ package main
 
 import (
 	"bytes"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"gocv.io/x/gocv"
 )
 
 // run executes the command line with args and returns stdout and the error.
@@ -70,5 +73,28 @@ func TestSynthBadInput(t *testing.T) {
 	os.WriteFile(spec, []byte(`{"name":"x","widht_px":64}`), 0o644)
 	if _, err := run(t, "synth", "--spec", spec, "--out", dir); err == nil || !strings.Contains(err.Error(), "widht_px") {
 		t.Errorf("unknown key: error %v should name it", err)
+	}
+}
+
+// inspect tells of NaN and infinite pixels of a float frame, per frame,
+// and that tracking treats them as unmeasured.
+func TestInspectNonFinitePixels(t *testing.T) {
+	dir := t.TempDir()
+	m := gocv.NewMatWithSize(8, 8, gocv.MatTypeCV32F)
+	defer m.Close()
+	for i := 0; i < 64; i++ {
+		m.SetFloatAt(i/8, i%8, float32(i))
+	}
+	m.SetFloatAt(2, 3, float32(math.NaN()))
+	m.SetFloatAt(5, 5, float32(math.Inf(-1)))
+	if !gocv.IMWrite(filepath.Join(dir, "f_1.tif"), m) {
+		t.Skip("OpenCV here cannot write a float TIFF")
+	}
+	out, err := run(t, "inspect", dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(out, "note: frame 0 (f_1): 2 pixels are NaN or infinite; tracking treats them as unmeasured") {
+		t.Errorf("inspect output lacks the note of 2 non-finite pixels:\n%s", out)
 	}
 }

@@ -51,6 +51,7 @@ every frame that fails instead of stopping at the first.`,
 			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
 			fmt.Fprintln(w, "frame\tname\tsize\tdepth\tmin\tmean\tmax\tsaturated\tdark\ttime_s")
 			var bad []error
+			var notes []string
 			for i := 0; i < seq.Len(); i++ {
 				img, err := seq.Read(i)
 				if err != nil {
@@ -59,6 +60,9 @@ every frame that fails instead of stopping at the first.`,
 					continue
 				}
 				st := frames.Describe(img)
+				if st.NonFinite > 0 {
+					notes = append(notes, fmt.Sprintf("frame %d (%s): %d pixels are NaN or infinite; tracking treats them as unmeasured", i, seq.Name(i), st.NonFinite))
+				}
 				t := "-"
 				if times != nil {
 					t = fmt.Sprintf("%.3f", times[i])
@@ -67,6 +71,9 @@ every frame that fails instead of stopping at the first.`,
 					img.Width, img.Height, img.Depth, st.Min, st.Mean, st.Max, 100*st.Saturated, 100*st.Dark, t)
 			}
 			w.Flush()
+			for _, n := range append(notes, frames.Notes(seq)...) {
+				fmt.Fprintln(cmd.OutOrStdout(), "note:", n)
+			}
 			if len(bad) > 0 {
 				return fmt.Errorf("%d of %d frames failed:\n%w", len(bad), seq.Len(), errors.Join(bad...))
 			}

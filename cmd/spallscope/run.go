@@ -61,6 +61,9 @@ func printSummary(cmd *cobra.Command, s *job.Summary) {
 		fmt.Fprintf(o, " (resumed after %d frames)", s.Resumed)
 	}
 	fmt.Fprintln(o)
+	for _, n := range s.Notes {
+		fmt.Fprintf(o, "note: %s\n", n)
+	}
 	if s.Resolution != nil {
 		fmt.Fprintf(o, "resolution: u %.4f px, exx %.0f µε (VSG %d px)\n", s.Resolution.U, s.Resolution.Exx*1e6, s.Resolution.VSG)
 	}

@@ -129,36 +129,6 @@ func TestKillAndResume(t *testing.T) {
 	}
 }
 
-// A settings change invalidates exactly the stages it affects: a new strain
-// window reruns strain and zones but not tracking; nothing changed reruns
-// nothing.
-func TestSettingsChangeReruns(t *testing.T) {
-	cfg := bandTest(t, "")
-	out := filepath.Join(t.TempDir(), "run")
-	if _, err := run(t, "run", cfg, "--out", out); err != nil {
-		t.Fatal(err)
-	}
-	msg, err := run(t, "run", cfg, "--out", out)
-	if err != nil || !strings.Contains(msg, "up to date: [track strain zones outputs]") {
-		t.Errorf("unchanged run: %q %v", msg, err)
-	}
-	field := runfolder.FieldPath(out, "band_0005")
-	st0, _ := os.Stat(field)
-	data, _ := os.ReadFile(cfg)
-	os.WriteFile(cfg, []byte(strings.Replace(string(data), "strain: {window: 5}", "strain: {window: 7}", 1)), 0o644)
-	msg, err = run(t, "run", cfg, "--out", out)
-	if err != nil || !strings.Contains(msg, "up to date: [track]") {
-		t.Errorf("after a strain change: %q %v", msg, err)
-	}
-	if st1, _ := os.Stat(field); !st1.ModTime().Equal(st0.ModTime()) {
-		t.Error("tracking was redone for a strain-window change")
-	}
-	var sr strainfile.StrainRecord
-	if runfolder.Section(out, "strain", &sr); sr.Window != 7 {
-		t.Errorf("strain record window %d, want 7", sr.Window)
-	}
-}
-
 // A campaign of three tests, one of them broken: the other two finish, the
 // summary lists all three with the error of the broken one.
 func TestBatchOfThree(t *testing.T) {

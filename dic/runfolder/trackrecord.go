@@ -26,6 +26,9 @@ type TrackRecord struct {
 	Times []float64 `json:"times_s,omitempty"`
 	// Exclude lists the excluded shapes as given (openings and the like).
 	Exclude []string `json:"exclude,omitempty"`
+	// Unmeasured lists the frames in which no point was measured
+	// (untextured, blank or lost photos).
+	Unmeasured []string `json:"unmeasured_frames,omitempty"`
 }
 
 // Frames lists the frames of a run folder whose displacement fields exist,

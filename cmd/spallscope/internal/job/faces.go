@@ -58,6 +58,9 @@ func runFaces(ctx context.Context, t *config.Test, out, tool string, progress Pr
 			return nil, fmt.Errorf("face %s: %w", ft.Name, err)
 		}
 		rep.Faces = append(rep.Faces, ft.Name)
+		for _, n := range s.Notes {
+			sum.Notes = append(sum.Notes, "face "+ft.Name+": "+n)
+		}
 		offset := ft.Load.ClockOffset
 		if len(ft.Load.Sync) == 2 {
 			offset = ft.Load.Sync[1] - ft.Load.Sync[0]

@@ -80,6 +80,7 @@ type testRun struct {
 	out, tool string
 	progress  Progress
 	hashes    map[string]string // run.json's input_sha256
+	notes     []string          // what the user should know of the inputs and results
 
 	tp      *trackInputs
 	resumed int // frames kept from an interrupted tracking run

@@ -24,10 +24,14 @@ type Summary struct {
 	Onsets     []strainfile.OnsetRecord     `json:"onsets"`
 	Resolution *strainfile.ResolutionRecord `json:"resolution,omitempty"`
 	Skipped    []string                     `json:"skipped_stages,omitempty"`
-	Resumed    int                          `json:"resumed_after_frames,omitempty"`
-	Report     string                       `json:"report,omitempty"`
-	AE         *runfolder.AERecord          `json:"ae,omitempty"`
-	Seconds    float64                      `json:"seconds"`
+	// Notes are what the user should know of the inputs and results: frames
+	// outside the load log, a video shorter than declared, frames without
+	// a measured point.
+	Notes   []string            `json:"notes,omitempty"`
+	Resumed int                 `json:"resumed_after_frames,omitempty"`
+	Report  string              `json:"report,omitempty"`
+	AE      *runfolder.AERecord `json:"ae,omitempty"`
+	Seconds float64             `json:"seconds"`
 }
 
 // StageRecord is one stage's entry in the run.json "stages" section.
@@ -44,6 +48,7 @@ type RunRecord struct {
 	Hashes  map[string]string  `json:"input_sha256"`
 	Started string             `json:"started"`
 	Seconds map[string]float64 `json:"stage_seconds"`
+	Notes   []string           `json:"notes,omitempty"`
 }
 
 // Run does the whole job for test t into run folder out (default: a folder
@@ -84,7 +89,11 @@ func Run(ctx context.Context, t *config.Test, out, tool string, progress Progres
 	if err != nil {
 		return nil, err
 	}
-	sum := &Summary{Name: t.Name, Out: out, Frames: r.tp.in.Seq.Len(), Skipped: skipped, Resumed: r.resumed}
+	var tr runfolder.TrackRecord
+	if runfolder.Section(out, "track", &tr) == nil && len(tr.Unmeasured) > 0 {
+		r.notes = append(r.notes, unmeasuredNote(tr.Unmeasured, len(tr.Frames)))
+	}
+	sum := &Summary{Name: t.Name, Out: out, Frames: r.tp.in.Seq.Len(), Skipped: skipped, Resumed: r.resumed, Notes: r.notes}
 	if t.Outputs.WantReport() {
 		sum.Report = filepath.Join(out, render.ReportFile)
 	}
@@ -98,7 +107,7 @@ func Run(ctx context.Context, t *config.Test, out, tool string, progress Progres
 		sum.AE = &aer
 	}
 	sum.Seconds = time.Since(start).Seconds()
-	rr := RunRecord{Tool: tool, Config: t.Path, Hashes: r.hashes, Started: start.UTC().Format(time.RFC3339), Seconds: seconds}
+	rr := RunRecord{Tool: tool, Config: t.Path, Hashes: r.hashes, Started: start.UTC().Format(time.RFC3339), Seconds: seconds, Notes: r.notes}
 	if err := runfolder.SetSection(out, "run", rr); err != nil {
 		return nil, err
 	}

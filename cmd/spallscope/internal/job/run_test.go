@@ -4,6 +4,8 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"image"
+	"image/png"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -12,6 +14,9 @@ import (
 	"testing"
 	"time"
 
+	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/stage"
+	"spallscope/dic/loadlog"
 	"spallscope/dic/runfolder"
 	"spallscope/strain/strainfile"
 )
@@ -213,5 +218,58 @@ func TestStageTable(t *testing.T) {
 			}
 			owner[o] = s.name
 		}
+	}
+}
+
+// A load log on another clock is caught before tracking: one that covers
+// no frame is an error naming the clocks; one that ends before the last
+// frames is a note that names them (the log spans log time 1 to 16 s; at
+// an offset of 6 s, camera frames 11 to 13 fall after it).
+func TestRunLoadLogCoverage(t *testing.T) {
+	none := bandTest(t, "band-no-overlap", strings.Replace(bandConfig, "clock_offset_s: 2", "clock_offset_s: 1000", 1))
+	out := filepath.Join(t.TempDir(), "run")
+	_, err := Run(context.Background(), none, out, tool, nil)
+	if !errors.Is(err, loadlog.ErrNoOverlap) {
+		t.Fatalf("no overlap: got %v, want ErrNoOverlap", err)
+	}
+	if fields, _ := filepath.Glob(filepath.Join(out, runfolder.FieldsDir, "*.csv")); len(fields) != 0 {
+		t.Errorf("no overlap: %d fields tracked before the error", len(fields))
+	}
+	late := bandTest(t, "band-late", strings.Replace(bandConfig, "clock_offset_s: 2", "clock_offset_s: 6", 1))
+	s, err := Run(context.Background(), late, filepath.Join(t.TempDir(), "run"), tool, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !slices.ContainsFunc(s.Notes, func(n string) bool { return strings.Contains(n, "3 of 14 frames are outside the load log") }) {
+		t.Errorf("notes %q do not tell of the 3 frames after the log", s.Notes)
+	}
+}
+
+// Blank photos are not a quiet test: a run in which no point is measured
+// fails, in capitals, with ErrNothingMeasured.
+func TestRunOfBlankPhotosFails(t *testing.T) {
+	dir := t.TempDir()
+	os.Mkdir(filepath.Join(dir, "blank"), 0o755)
+	for i := range 4 {
+		img := image.NewGray(image.Rect(0, 0, 96, 80))
+		for k := range img.Pix {
+			img.Pix[k] = 128
+		}
+		f, err := os.Create(filepath.Join(dir, "blank", fmt.Sprintf("b_%02d.png", i)))
+		if err != nil {
+			t.Fatal(err)
+		}
+		png.Encode(f, img)
+		f.Close()
+	}
+	path := filepath.Join(dir, "blank.yaml")
+	os.WriteFile(path, []byte("name: blank\nimages: blank\ntimes: {fps: 1}\ncorrelation: {subset: 21, step: 10}\n"), 0o644)
+	tc, err := config.Read(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = Run(context.Background(), tc, filepath.Join(dir, "run"), tool, nil)
+	if !errors.Is(err, stage.ErrNothingMeasured) || !strings.Contains(err.Error(), "NOTHING WAS MEASURED") {
+		t.Fatalf("blank photos: got %v, want ErrNothingMeasured in capitals", err)
 	}
 }

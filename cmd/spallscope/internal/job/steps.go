@@ -5,10 +5,13 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"slices"
+	"strings"
 
 	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic"
 	"spallscope/dic/aelog"
+	"spallscope/dic/frames"
 	"spallscope/dic/runfolder"
 	"spallscope/render"
 	"spallscope/render/export"
@@ -28,6 +31,7 @@ func (r *testRun) prepareTrack() ([]any, error) {
 	for k, v := range tp.hashes {
 		r.hashes[k] = v
 	}
+	r.notes = append(r.notes, frames.Notes(tp.in.Seq)...)
 	return tp.inputs, nil
 }
 
@@ -90,6 +94,15 @@ func (r *testRun) prepareZones() ([]any, error) {
 	}
 	if r.sigma, err = t.Load.Stress(loadPath); err != nil {
 		return nil, err
+	}
+	if r.sigma != nil {
+		cov, err := r.sigma.Cover(r.tp.times)
+		if err != nil {
+			return nil, err
+		}
+		if cov.Note != "" {
+			r.notes = append(r.notes, cov.Note)
+		}
 	}
 	aePath := t.Resolve(t.AE.File)
 	if r.hashes["ae_log"], err = fileHash(aePath); err != nil {
@@ -180,4 +193,13 @@ func (r *testRun) outputs(ctx context.Context, _ bool) error {
 		}
 	}
 	return nil
+}
+
+// unmeasuredNote tells of the frames in which no point was measured.
+func unmeasuredNote(names []string, frames int) string {
+	list := names
+	if len(list) > 5 {
+		list = append(slices.Clone(list[:5]), fmt.Sprintf("and %d more", len(names)-5))
+	}
+	return fmt.Sprintf("%d of %d frames have no measured point (%s): blank, untextured or lost photos; their fields are empty", len(names), frames, strings.Join(list, ", "))
 }

@@ -2,6 +2,7 @@ package stage
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -11,6 +12,11 @@ import (
 	"spallscope/dic/frames"
 	"spallscope/dic/runfolder"
 )
+
+// ErrNothingMeasured is wrapped by Track's error when no point was
+// measured in any frame: a run of blank photos must not read as a quiet
+// test.
+var ErrNothingMeasured = errors.New("nothing measured")
 
 // Track runs tracker over the frames of seq from index from on (the fields
 // of earlier frames are already in dir and the tracker resumed after them)
@@ -31,7 +37,7 @@ func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tr
 		return rec, fmt.Errorf("track: %d frame times for %d frames", len(rec.Times), seq.Len())
 	}
 	start := time.Now()
-	rec.Settings, rec.Grid, rec.Frames = tracker.Settings(), tracker.Grid(), nil
+	rec.Settings, rec.Grid, rec.Frames, rec.Unmeasured = tracker.Settings(), tracker.Grid(), nil, nil
 	for i := 0; i < from && i < seq.Len(); i++ {
 		rec.Frames = append(rec.Frames, seq.Name(i))
 	}
@@ -51,10 +57,20 @@ func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tr
 			return rec, err
 		}
 		rec.Frames = append(rec.Frames, seq.Name(i))
+		if field.Valid() == 0 {
+			rec.Unmeasured = append(rec.Unmeasured, seq.Name(i))
+		}
 		if progress != nil {
 			progress(i+1, field)
 		}
 	}
 	rec.Seconds = time.Since(start).Seconds()
-	return rec, runfolder.SetSection(dir, "track", rec)
+	if err := runfolder.SetSection(dir, "track", rec); err != nil {
+		return rec, err
+	}
+	if from == 0 && len(rec.Unmeasured) == seq.Len() {
+		return rec, fmt.Errorf("NOTHING WAS MEASURED: none of the grid's %d points was tracked in any of the %d frames (blank or untextured photos, or a region of interest and mask without speckle?); check the photos with 'spallscope inspect' and the pattern with 'spallscope pattern': %w",
+			rec.Grid.Len(), seq.Len(), ErrNothingMeasured)
+	}
+	return rec, nil
 }
