@@ -48,7 +48,7 @@ func CampaignOut(c *config.Campaign, out string) string {
 
 // RunCampaign runs the tests of campaign c that include selects (nil: all;
 // a cluster task's share), at most jobs at once, each into <out>/<test
-// name>, and records each test's outcome there (OutcomeFile). A failing
+// name>, and records each test's outcome there (outcomeFile). A failing
 // test does not stop the others; its Result carries the error. Results are
 // in the campaign's order, for the selected tests only.
 func RunCampaign(ctx context.Context, c *config.Campaign, out, tool string, jobs int, include func(k int) bool, progress CampaignProgress) []Result {
@@ -105,9 +105,9 @@ func runOne(ctx context.Context, path, out, tool string, progress CampaignProgre
 	return res
 }
 
-// SummaryHeader is the campaign summary's CSV header: one row per onset
+// summaryHeader is the campaign summary's CSV header: one row per onset
 // (or one row for a test without onsets or that failed).
-const SummaryHeader = "test,status,frames,peak_MPa,peak_time_s,u_noise_px,exx_noise,vsg_px,class,opening,sector,indicator,onset_frame,onset_time_s,onset_MPa,percent_of_peak,error"
+const summaryHeader = "test,status,frames,peak_MPa,peak_time_s,u_noise_px,exx_noise,vsg_px,class,opening,sector,indicator,onset_frame,onset_time_s,onset_MPa,percent_of_peak,error"
 
 // WriteCampaignSummary writes dir/summary.csv and dir/summary.html (one
 // row per onset, with the cautions).
@@ -138,7 +138,7 @@ func WriteCampaignSummary(dir, name string, results []Result) error {
 	})
 }
 
-func splitHeader() []string { return strings.Split(SummaryHeader, ",") }
+func splitHeader() []string { return strings.Split(summaryHeader, ",") }
 
 func summaryRows(results []Result) [][]string {
 	f := func(v float64, prec int) string { return strconv.FormatFloat(v, 'f', prec, 64) }
@@ -183,11 +183,11 @@ td.failed{color:#a01818}
 </body></html>
 `))
 
-// OutcomeFile is the file in a test's run folder that says how its last
+// outcomeFile is the file in a test's run folder that says how its last
 // campaign run ended: written at the end, so a task that died leaves none.
-const OutcomeFile = "outcome.json"
+const outcomeFile = "outcome.json"
 
-// Outcome is the content of OutcomeFile.
+// Outcome is the content of outcomeFile.
 type Outcome struct {
 	Config string `json:"config"`
 	OK     bool   `json:"ok"`
@@ -209,13 +209,13 @@ func WriteOutcome(out string, r Result) error {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
-	return runfolder.WriteJSON(filepath.Join(dir, OutcomeFile), Outcome{Config: r.Config, OK: r.Err == "", Error: r.Err})
+	return runfolder.WriteJSON(filepath.Join(dir, outcomeFile), Outcome{Config: r.Config, OK: r.Err == "", Error: r.Err})
 }
 
 // ReadOutcome reads a test's outcome; fs.ErrNotExist when it has none yet.
 func ReadOutcome(out, configPath string) (Outcome, error) {
 	var o Outcome
-	err := readJSON(filepath.Join(out, TestName(configPath), OutcomeFile), &o)
+	err := readJSON(filepath.Join(out, TestName(configPath), outcomeFile), &o)
 	return o, err
 }
 

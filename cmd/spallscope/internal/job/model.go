@@ -89,7 +89,7 @@ func drawComparison(run, out string, c *model.Comparison, disp *dic.Field, sf *s
 	if runfolder.Section(run, "track", &tr) != nil {
 		return nil
 	}
-	in, err := Open(tr.Images, tr.Reference, "", tr.Exclude, "")
+	in, err := openPhotos(tr.Images, tr.Reference, "", tr.Exclude, "")
 	if err != nil {
 		return nil
 	}

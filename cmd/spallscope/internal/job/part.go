@@ -39,8 +39,8 @@ type Part struct {
 	To    int `json:"to"`
 }
 
-// PartsDir is the folder of a test's run folder that holds its parts.
-const PartsDir = "parts"
+// partsDir is the folder of a test's run folder that holds its parts.
+const partsDir = "parts"
 
 // partRecordFile is the file in a part's folder that says how the part's
 // last task ended: written at the end, so a task that died leaves none.
@@ -62,7 +62,7 @@ func SplitFrames(n, perTask int) []Part {
 
 // Dir is the part's folder under the test's run folder testDir.
 func (p Part) Dir(testDir string) string {
-	return filepath.Join(testDir, PartsDir, fmt.Sprintf("%d-of-%d", p.Index+1, p.Count))
+	return filepath.Join(testDir, partsDir, fmt.Sprintf("%d-of-%d", p.Index+1, p.Count))
 }
 
 // String names the part for messages: "part 2/3 (frames 10–19)".
@@ -173,7 +173,7 @@ func TrackPart(ctx context.Context, configPath, testDir, tool string, p Part, pr
 		progress = func(string, int, int) {}
 	}
 
-	var stages map[string]StageRecord
+	var stages map[string]stageRecord
 	if err := runfolder.Section(dir, "stages", &stages); err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return err
 	}
@@ -188,7 +188,7 @@ func TrackPart(ctx context.Context, configPath, testDir, tool string, p Part, pr
 	if from == p.From {
 		os.RemoveAll(filepath.Join(dir, runfolder.FieldsDir))
 	}
-	if err := runfolder.SetSection(dir, "stages", map[string]StageRecord{"track": {Fingerprint: tp.fingerprint}}); err != nil {
+	if err := runfolder.SetSection(dir, "stages", map[string]stageRecord{"track": {Fingerprint: tp.fingerprint}}); err != nil {
 		return err
 	}
 	start := time.Now()
@@ -199,7 +199,7 @@ func TrackPart(ctx context.Context, configPath, testDir, tool string, p Part, pr
 	}
 	tr.Frames = tr.Frames[p.From:]
 	rec.Track = &tr
-	return runfolder.SetSection(dir, "stages", map[string]StageRecord{"track": {Fingerprint: tp.fingerprint, Complete: true, Seconds: time.Since(start).Seconds()}})
+	return runfolder.SetSection(dir, "stages", map[string]stageRecord{"track": {Fingerprint: tp.fingerprint, Complete: true, Seconds: time.Since(start).Seconds()}})
 }
 
 // AssembleParts makes test t's run folder testDir whole from its finished
@@ -233,7 +233,7 @@ func AssembleParts(t *config.Test, testDir, tool string, parts []Part) error {
 	if len(problems) > 0 {
 		return fmt.Errorf("test %s: %w", t.Name, errors.Join(problems...))
 	}
-	var stages map[string]StageRecord
+	var stages map[string]stageRecord
 	if err := runfolder.Section(testDir, "stages", &stages); err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return err
 	}
@@ -263,7 +263,7 @@ func AssembleParts(t *config.Test, testDir, tool string, parts []Part) error {
 	if err := runfolder.SetSection(testDir, "track", rec); err != nil {
 		return err
 	}
-	return runfolder.SetSection(testDir, "stages", map[string]StageRecord{"track": {Fingerprint: tp.fingerprint, Complete: true, Seconds: seconds}})
+	return runfolder.SetSection(testDir, "stages", map[string]stageRecord{"track": {Fingerprint: tp.fingerprint, Complete: true, Seconds: seconds}})
 }
 
 // headSequence is the first n frames of a sequence.

@@ -104,12 +104,12 @@ func runStages(ctx context.Context, r *testRun) (skipped []string, seconds map[s
 			return nil, nil, inTest(r.t, fmt.Errorf("%s: %w", s.name, err))
 		}
 	}
-	var records map[string]StageRecord
+	var records map[string]stageRecord
 	if err := runfolder.Section(r.out, "stages", &records); err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return nil, nil, err
 	}
 	if records == nil {
-		records = map[string]StageRecord{}
+		records = map[string]stageRecord{}
 	}
 	seconds = map[string]float64{}
 	prev, rerun := "", false
@@ -134,7 +134,7 @@ func runStages(ctx context.Context, r *testRun) (skipped []string, seconds map[s
 			}
 			delete(records, later.name)
 		}
-		records[s.name] = StageRecord{Fingerprint: fp}
+		records[s.name] = stageRecord{Fingerprint: fp}
 		if err := runfolder.SetSection(r.out, "stages", records); err != nil {
 			return skipped, seconds, err
 		}
@@ -149,7 +149,7 @@ func runStages(ctx context.Context, r *testRun) (skipped []string, seconds map[s
 			return skipped, seconds, inTest(r.t, err)
 		}
 		seconds[s.name] = time.Since(start).Seconds()
-		records[s.name] = StageRecord{Fingerprint: fp, Complete: true, Seconds: seconds[s.name]}
+		records[s.name] = stageRecord{Fingerprint: fp, Complete: true, Seconds: seconds[s.name]}
 		if err := runfolder.SetSection(r.out, "stages", records); err != nil {
 			return skipped, seconds, err
 		}

@@ -34,15 +34,15 @@ type Summary struct {
 	Seconds float64             `json:"seconds"`
 }
 
-// StageRecord is one stage's entry in the run.json "stages" section.
-type StageRecord struct {
+// stageRecord is one stage's entry in the run.json "stages" section.
+type stageRecord struct {
 	Fingerprint string  `json:"fingerprint"`
 	Complete    bool    `json:"complete"`
 	Seconds     float64 `json:"seconds"`
 }
 
-// RunRecord is the run.json "run" section: what ran, on what.
-type RunRecord struct {
+// runRecord is the run.json "run" section: what ran, on what.
+type runRecord struct {
 	Tool    string             `json:"tool"`
 	Config  string             `json:"config"`
 	Hashes  map[string]string  `json:"input_sha256"`
@@ -107,7 +107,7 @@ func Run(ctx context.Context, t *config.Test, out, tool string, progress Progres
 		sum.AE = &aer
 	}
 	sum.Seconds = time.Since(start).Seconds()
-	rr := RunRecord{Tool: tool, Config: t.Path, Hashes: r.hashes, Started: start.UTC().Format(time.RFC3339), Seconds: seconds, Notes: r.notes}
+	rr := runRecord{Tool: tool, Config: t.Path, Hashes: r.hashes, Started: start.UTC().Format(time.RFC3339), Seconds: seconds, Notes: r.notes}
 	if err := runfolder.SetSection(out, "run", rr); err != nil {
 		return nil, err
 	}

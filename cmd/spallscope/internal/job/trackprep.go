@@ -14,7 +14,7 @@ import (
 // with the stage's fingerprint. A whole run and a frame part of a run on a
 // cluster build it the same way, so both agree on when tracking is stale.
 type trackInputs struct {
-	in          *Inputs
+	in          *photos
 	settings    dic.Settings
 	scale       dic.Scale
 	times       []float64
@@ -34,7 +34,7 @@ func prepareTrack(t *config.Test, tool string) (*trackInputs, error) {
 	}
 	tp.exclude = append(tp.exclude, t.Exclude...)
 	var err error
-	tp.in, err = Open(t.Resolve(t.Images), resolveRef(t), t.ROI, tp.exclude, t.Resolve(t.Mask))
+	tp.in, err = openPhotos(t.Resolve(t.Images), resolveRef(t), t.ROI, tp.exclude, t.Resolve(t.Mask))
 	if err != nil {
 		return nil, inTest(t, err)
 	}

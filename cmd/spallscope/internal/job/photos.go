@@ -9,9 +9,9 @@ import (
 	"spallscope/subset"
 )
 
-// Inputs are a test's opened photos: the sequence, the reference image and
+// photos are a test's opened photos: the sequence, the reference image and
 // its index (−1 for a separate file), and the measured-pixel mask.
-type Inputs struct {
+type photos struct {
 	Seq      frames.Sequence
 	Ref      *subset.Image
 	RefIndex int
@@ -22,7 +22,7 @@ type Inputs struct {
 // an image file, or "" for frame 0), and rasterises the region of interest
 // roi (a shape, or "" for the whole image), the excluded shapes and the
 // mask image (nonzero = measured) into one mask.
-func Open(images, reference, roi string, exclude []string, maskFile string) (*Inputs, error) {
+func openPhotos(images, reference, roi string, exclude []string, maskFile string) (*photos, error) {
 	if images == "" {
 		return nil, fmt.Errorf("no images given (a folder, glob, list file or video)")
 	}
@@ -30,8 +30,8 @@ func Open(images, reference, roi string, exclude []string, maskFile string) (*In
 	if err != nil {
 		return nil, err
 	}
-	in := &Inputs{Seq: seq}
-	fail := func(err error) (*Inputs, error) {
+	in := &photos{Seq: seq}
+	fail := func(err error) (*photos, error) {
 		seq.Close()
 		return nil, err
 	}
