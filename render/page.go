@@ -111,13 +111,13 @@ func newPage(r *runRecords, figs []Figure, gauges *virtualReadings, out string, 
 			pageRow{"Virtual gauge", gauges.Gauge.String(), "mean over the grid points inside"})
 	}
 	for _, f := range figs {
-		src, err := im.URL(filepath.Join(r.Dir, filepath.FromSlash(f.PNG)))
+		src, err := im.URL(filepath.Join(r.plotRoot(), filepath.FromSlash(f.PNG)))
 		if err != nil {
 			return nil, err
 		}
 		pf := pageFigure{Figure: f, Src: src}
 		if !opt.Embed {
-			if pf.SVG, err = im.URL(filepath.Join(r.Dir, filepath.FromSlash(f.SVG))); err != nil {
+			if pf.SVG, err = im.URL(filepath.Join(r.plotRoot(), filepath.FromSlash(f.SVG))); err != nil {
 				return nil, err
 			}
 		}

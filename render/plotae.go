@@ -85,6 +85,6 @@ func plotStressAE(r *runRecords) (Figure, bool, error) {
 	if math.IsNaN(total) {
 		caption = "Nominal stress and acoustic emission."
 	}
-	fig, err := writeFigure(r.Dir, "stress_ae", "Stress, acoustic emission and onsets", caption, p.Draw)
+	fig, err := writeFigure(r.plotRoot(), "stress_ae", "Stress, acoustic emission and onsets", caption, p.Draw)
 	return fig, err == nil, err
 }

@@ -43,7 +43,7 @@ func plotNoiseFloor(r *runRecords) (Figure, bool, error) {
 		str.Draw(right)
 	}
 	caption := fmt.Sprintf("Noise floor: standard deviation over the field of each quantity on %d static frame(s) (no load, so all variation is measurement error), pooled as the root mean square over the frames.", res.Frames)
-	fig, err := writeFigure(r.Dir, "noise_floor", "Noise floor", caption, drawFig)
+	fig, err := writeFigure(r.plotRoot(), "noise_floor", "Noise floor", caption, drawFig)
 	return fig, err == nil, err
 }
 

@@ -70,6 +70,6 @@ func plotSectorHistories(r *runRecords) (Figure, bool, error) {
 	p.Y.Min = 0
 	spanFrames(p, r)
 	caption := "For each sector, the largest peak of the strain indicators (inelastic strain above the elastic baseline) among its zones, frame by frame; rings mark the localization onsets."
-	fig, err := writeFigure(r.Dir, "sectors_peak", "Largest zone peak per sector", caption, p.Draw)
+	fig, err := writeFigure(r.plotRoot(), "sectors_peak", "Largest zone peak per sector", caption, p.Draw)
 	return fig, err == nil, err
 }

@@ -101,7 +101,7 @@ func plotStressTime(r *runRecords) (Figure, bool, error) {
 	}
 	caption := "Nominal stress (force over loaded area) from " + source +
 		"; markers show where each onset was timed, by sector (shape) and class (colour)."
-	fig, err := writeFigure(r.Dir, "stress_time", "Nominal stress and onsets", caption, p.Draw)
+	fig, err := writeFigure(r.plotRoot(), "stress_time", "Nominal stress and onsets", caption, p.Draw)
 	return fig, err == nil, err
 }
 

@@ -97,8 +97,8 @@ func readVirtualGauges(r *runRecords, opt PlotOptions) (*virtualReadings, error)
 // unknown), extensometer strain, gauge mean and the gauge points that
 // read, strains dimensionless and tension positive as in the strain files.
 func writeVirtualGauges(r *runRecords, v *virtualReadings) error {
-	path := filepath.Join(r.Dir, PlotsDir, VirtualGaugesCSV)
-	if err := mkdirPlots(r.Dir); err != nil {
+	path := filepath.Join(r.plotRoot(), PlotsDir, VirtualGaugesCSV)
+	if err := mkdirPlots(r.plotRoot()); err != nil {
 		return err
 	}
 	num := func(x float64) string {
@@ -160,7 +160,7 @@ func plotStressStrain(r *runRecords, v *virtualReadings) (Figure, bool, error) {
 		p.Y.Min = math.Min(p.Y.Min, 0)
 		caption := fmt.Sprintf("Nominal stress against the strain of a virtual extensometer %s (change of the distance between its two grid points over their reference distance) and the mean %s of a virtual gauge over %s, compression positive; readings in %s/%s.",
 			v.Extensometer, v.Gauge.component(), v.Gauge.Rect(), PlotsDir, VirtualGaugesCSV)
-		fig, err = writeFigure(r.Dir, "stress_strain", "Stress against virtual extensometer and gauge", caption, p.Draw)
+		fig, err = writeFigure(r.plotRoot(), "stress_strain", "Stress against virtual extensometer and gauge", caption, p.Draw)
 	} else {
 		p := newPlot("Virtual extensometer and gauge", r.Axis.Label(), "strain, µε (compression positive)")
 		exy, gxy := finiteXYs(r.Axis.X, ext), finiteXYs(r.Axis.X, gauge)
@@ -179,7 +179,7 @@ func plotStressStrain(r *runRecords, v *virtualReadings) (Figure, bool, error) {
 		}
 		caption := fmt.Sprintf("Strain of a virtual extensometer %s and mean %s of a virtual gauge over %s, compression positive (the run has no frame stresses to plot them against); readings in %s/%s.",
 			v.Extensometer, v.Gauge.component(), v.Gauge.Rect(), PlotsDir, VirtualGaugesCSV)
-		fig, err = writeFigure(r.Dir, "virtual_gauges", "Virtual extensometer and gauge", caption, p.Draw)
+		fig, err = writeFigure(r.plotRoot(), "virtual_gauges", "Virtual extensometer and gauge", caption, p.Draw)
 	}
 	return fig, err == nil, err
 }

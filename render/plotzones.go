@@ -96,7 +96,7 @@ func plotZoneAreas(r *runRecords) (Figure, bool, error) {
 	p.Y.Min = 0
 	spanFrames(p, r)
 	caption := fmt.Sprintf("Area of each localized zone (grid cells flagged by its indicator) in every frame it was found; %d largest of %d zones drawn, decorrelated zones dashed.", drawn, len(hs))
-	fig, err := writeFigure(r.Dir, "zones_area", "Zone area", caption, p.Draw)
+	fig, err := writeFigure(r.plotRoot(), "zones_area", "Zone area", caption, p.Draw)
 	return fig, err == nil, err
 }
 
@@ -129,7 +129,7 @@ func plotZonePeaks(r *runRecords) (Figure, bool, error) {
 	p.Y.Min = 0
 	spanFrames(p, r)
 	caption := fmt.Sprintf("Peak of each zone's indicator (inelastic strain above the elastic baseline) in µε; %d largest of %d strain zones drawn.", drawn, len(hs))
-	fig, err := writeFigure(r.Dir, "zones_peak", "Zone peak strain", caption, p.Draw)
+	fig, err := writeFigure(r.plotRoot(), "zones_peak", "Zone peak strain", caption, p.Draw)
 	return fig, err == nil, err
 }
 

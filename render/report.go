@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 	"time"
 
 	"spallscope/dic/runfolder"
@@ -36,12 +37,21 @@ type ReportOptions struct {
 	Now time.Time
 }
 
+// sameDir reports whether two paths name the same folder.
+func sameDir(a, b string) bool {
+	sa, errA := os.Stat(a)
+	sb, errB := os.Stat(b)
+	return errA == nil && errB == nil && os.SameFile(sa, sb)
+}
+
 // WriteReport writes the plots of run folder dir (see WritePlots) and the
 // self-contained HTML report on the run: the job, the cautions, the
 // settings and measurement resolution, the onsets with their stress and
 // the Kirsch boundary-stress comparison, a frame slider over the overlays
 // (RUN/overlays/*.png, when present), the plots and the speckle pattern
-// assessment when one exists. The page has its style and its few lines of
+// assessment when one exists. A report whose Out is in another folder
+// writes its plots beside it (OUT_STEM_files/plots/) and nothing into the
+// run folder. The page has its style and its few lines of
 // script inline and loads nothing from the network. It returns the
 // report's path.
 func WriteReport(dir string, opt ReportOptions) (string, error) {
@@ -55,6 +65,11 @@ func WriteReport(dir string, opt ReportOptions) (string, error) {
 	}
 	if err := os.MkdirAll(filepath.Dir(out), 0o755); err != nil {
 		return "", fmt.Errorf("report: %w", err)
+	}
+	if !sameDir(filepath.Dir(out), dir) {
+		// A report written elsewhere leaves the run folder as it is (it
+		// may be read-only, or an archive's): its plots go beside it.
+		r.PlotDir = strings.TrimSuffix(out, filepath.Ext(out)) + "_files"
 	}
 	figs, gauges, err := writeRunPlots(r, opt.Plots)
 	if err != nil {

@@ -1,6 +1,9 @@
 package render
 
 import (
+	"fmt"
+	"io/fs"
+	"maps"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -152,19 +155,46 @@ func TestReportEmbedAndOut(t *testing.T) {
 		t.Error("embedded page still refers to files")
 	}
 
+	// A report written elsewhere only reads the run folder (it may be
+	// read-only or an archive's): nothing in it is added or changed, the
+	// plots go beside the report, the overlays are referred to where
+	// they are.
 	dir := filepath.Join(t.TempDir(), "run")
 	writeFixtureRun(t, dir)
+	before := folderState(t, dir)
 	out := filepath.Join(filepath.Dir(dir), "share", "r.html")
 	if _, err := WriteReport(dir, ReportOptions{Out: out}); err != nil {
 		t.Fatal(err)
 	}
 	data, _ := os.ReadFile(out)
-	if !strings.Contains(string(data), `src="../run/plots/stress_time.png"`) {
-		t.Error("report written elsewhere does not refer to ../run/plots/")
+	if !strings.Contains(string(data), `src="r_files/plots/stress_time.png"`) {
+		t.Error("report written elsewhere does not refer to its own r_files/plots/")
 	}
-	if _, err := os.Stat(filepath.Join(dir, ReportFile)); err == nil {
-		t.Error("report written into the run folder despite Out")
+	if _, err := os.Stat(filepath.Join(filepath.Dir(out), "r_files", PlotsDir, "stress_time.png")); err != nil {
+		t.Errorf("plot beside the report: %v", err)
 	}
+	if !strings.Contains(string(data), `"../run/overlays/`) {
+		t.Error("report written elsewhere does not refer to the run's overlays")
+	}
+	if after := folderState(t, dir); !maps.Equal(before, after) {
+		t.Errorf("the run folder changed: %d files before, %d after", len(before), len(after))
+	}
+}
+
+// folderState lists a folder's files with their sizes and modification
+// times.
+func folderState(t *testing.T, dir string) map[string]string {
+	t.Helper()
+	state := map[string]string{}
+	filepath.WalkDir(dir, func(path string, d fs.DirEntry, err error) error {
+		if err == nil && !d.IsDir() {
+			if st, err := d.Info(); err == nil {
+				state[path] = fmt.Sprint(st.Size(), st.ModTime().UnixNano())
+			}
+		}
+		return nil
+	})
+	return state
 }
 
 // A run folder with fields only: the page still renders and says what is

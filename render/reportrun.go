@@ -18,7 +18,11 @@ import (
 // plots and the report. A stage that has not run leaves its record nil;
 // Missing says, for people, what is absent and what that costs.
 type runRecords struct {
-	Dir        string
+	Dir string
+	// PlotDir is the folder the plots are written under (its plots/
+	// subfolder): the run folder, or beside a report written elsewhere so
+	// that the run folder is only read.
+	PlotDir    string
 	Track      *runfolder.TrackRecord
 	Strain     *strainfile.StrainRecord
 	Resolution *strainfile.ResolutionRecord
@@ -218,4 +222,12 @@ func (r *runRecords) ZoneFrame(z strainfile.ZoneRow) int {
 		return k
 	}
 	return -1
+}
+
+// plotRoot is the folder whose plots/ subfolder receives the plots.
+func (r *runRecords) plotRoot() string {
+	if r.PlotDir != "" {
+		return r.PlotDir
+	}
+	return r.Dir
 }

@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/job"
 	"spallscope/dic"
 	"spallscope/strain/model"
@@ -14,9 +15,9 @@ import (
 
 func newCompareCmd() *cobra.Command {
 	var (
-		modelPath, frame, units, origin string
-		stress, scale                   float64
-		yUp, compressionPositive        bool
+		m      config.Model // the flags fill the model section of a test config
+		origin string
+		scale  float64
 	)
 	cmd := &cobra.Command{
 		Use:   "compare RUN --model FILE (--frame NAME | --stress MPA) [--units mm --origin X,Y --y-up]",
@@ -33,26 +34,28 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			run := args[0]
-			if modelPath == "" {
+			if m.File == "" {
 				return fmt.Errorf("--model FILE is required")
 			}
-			f := model.Format{Units: model.Units(units), YUp: yUp, CompressionPositive: compressionPositive, Scale: dic.Scale(scale)}
 			if origin != "" {
 				p, err := parsePoint("--origin", origin)
 				if err != nil {
 					return err
 				}
-				f.OriginX, f.OriginY = p[0], p[1]
+				m.Origin = p[:]
 			}
-			if frame == "" && stress == 0 {
+			if m.Frame == "" && m.LoadMPa == 0 {
 				return fmt.Errorf("give --frame, or --stress with a run whose zones stage placed the frames on the load log")
 			}
-			c, err := job.CompareModel(run, modelPath, f, frame, stress)
+			f := m.Format()
+			f.Scale = dic.Scale(scale)
+			c, err := job.CompareModel(run, m.File, f, m.Frame, m.LoadMPa)
 			if err != nil {
 				return err
 			}
-			frame = c.FrameName
-			out := filepath.Join(run, job.ModelDir)
+			frame := c.FrameName
+			modelPath := m.File
+			out := filepath.Join(run, model.Dir)
 			pics, _ := filepath.Glob(filepath.Join(out, "compare_*.png"))
 			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
 			fmt.Fprintf(w, "frame %s against %s\n", frame, modelPath)
@@ -69,13 +72,13 @@ per quantity, beside the measurement resolution), and prints the summary.`,
 		},
 	}
 	fl := cmd.Flags()
-	fl.StringVar(&modelPath, "model", "", "model field CSV")
-	fl.StringVar(&frame, "frame", "", "measured frame to compare (name)")
-	fl.Float64Var(&stress, "stress", 0, "model load level in MPa: compare the frame with the nearest nominal stress")
-	fl.StringVar(&units, "units", "mm", "model lengths: mm (specimen) or px (reference pixels)")
+	fl.StringVar(&m.File, "model", "", "model field CSV")
+	fl.StringVar(&m.Frame, "frame", "", "measured frame to compare (name)")
+	fl.Float64Var(&m.LoadMPa, "stress", 0, "model load level in MPa: compare the frame with the nearest nominal stress")
+	fl.StringVar(&m.Units, "units", "mm", "model lengths: mm (specimen) or px (reference pixels)")
 	fl.Float64Var(&scale, "scale", 0, "mm per px (default: the run's scale)")
 	fl.StringVar(&origin, "origin", "0,0", "reference pixel X,Y of the model's origin")
-	fl.BoolVar(&yUp, "y-up", false, "the model's y axis points up the image")
-	fl.BoolVar(&compressionPositive, "compression-positive", false, "the model's strains are compression positive")
+	fl.BoolVar(&m.YUp, "y-up", false, "the model's y axis points up the image")
+	fl.BoolVar(&m.CompressionPositive, "compression-positive", false, "the model's strains are compression positive")
 	return cmd
 }

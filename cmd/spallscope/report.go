@@ -19,7 +19,8 @@ func newReportCmd() *cobra.Command {
 		Use:   "report RUN_DIR [--out FILE] [--embed]",
 		Short: "Write the plots and a self-contained HTML report of a run folder",
 		Long: `report draws the plots of a run folder into RUN/plots/ (PNG and SVG) and
-writes RUN/report.html: the job, the cautions, the settings and measurement
+writes RUN/report.html (with --out FILE elsewhere: FILE, its plots in
+FILE_STEM_files/, and nothing written into the run folder): the job, the cautions, the settings and measurement
 resolution, the onsets with their stress and an elastic boundary-stress
 comparison, a frame slider over RUN/overlays/*.png, and the plots.
 
@@ -68,7 +69,7 @@ belongs to licensed engineers under local codes.`,
 			if err != nil {
 				return err
 			}
-			fmt.Fprintf(cmd.OutOrStdout(), "wrote %s (plots in %s)\n", path, render.PlotsDir)
+			fmt.Fprintf(cmd.OutOrStdout(), "wrote %s\n", path)
 			return nil
 		},
 	}

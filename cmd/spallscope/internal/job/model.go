@@ -14,9 +14,6 @@ import (
 	"spallscope/strain/strainfile"
 )
 
-// ModelDir is the run folder's subfolder of the model comparison.
-const ModelDir = "model"
-
 // CompareModel holds the model field in file (mapped by f; the run's
 // scale when f has none) against the measurement of run folder run at
 // frame, or — frame empty — at the frame whose nominal stress is nearest
@@ -71,7 +68,7 @@ func CompareModel(run, file string, f model.Format, frame string, loadMPa float6
 	if err != nil {
 		return nil, err
 	}
-	out := filepath.Join(run, ModelDir)
+	out := filepath.Join(run, model.Dir)
 	if err := model.Write(out, c); err != nil {
 		return nil, err
 	}
