@@ -19,10 +19,11 @@ func newReportCmd() *cobra.Command {
 		Use:   "report RUN_DIR [--out FILE] [--embed]",
 		Short: "Write the plots and a self-contained HTML report of a run folder",
 		Long: `report draws the plots of a run folder into RUN/plots/ (PNG and SVG) and
-writes RUN/report.html (with --out FILE elsewhere: FILE, its plots in
-FILE_STEM_files/, and nothing written into the run folder): the job, the cautions, the settings and measurement
+writes RUN/report.html: the job, the cautions, the settings and measurement
 resolution, the onsets with their stress and an elastic boundary-stress
-comparison, a frame slider over RUN/overlays/*.png, and the plots.
+comparison, a frame slider over RUN/overlays/*.png, and the plots. With
+--out FILE in another folder it writes FILE and its plots in FILE_STEM_files/
+and nothing into the run folder (which may be read-only).
 
 Plots: nominal stress against time with the onsets; zone area and peak
 strain frame by frame; the largest zone peak per sector; stress against a
