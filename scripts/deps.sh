@@ -3,6 +3,7 @@
 # files (for gocv) and pkg-config. Idempotent: it does nothing when
 # `pkg-config --exists opencv4` already succeeds. With WITH_BROWSER=1 it
 # also installs Debian's chromium, used by the HTML report's browser test.
+# It waits for another package manager that holds dpkg's lock.
 set -euo pipefail
 
 need=()
@@ -18,6 +19,9 @@ sudo=""
 [ "$(id -u)" -ne 0 ] && sudo="sudo"
 export DEBIAN_FRONTEND=noninteractive
 echo "deps: installing ${need[*]}" >&2
-$sudo apt-get update -qq
-$sudo apt-get install -y -qq --no-install-recommends "${need[@]}" >/dev/null
+# Wait up to 10 minutes for another package manager (an unattended upgrade,
+# a second build) to release dpkg's lock instead of failing at once.
+wait_lock=(-o DPkg::Lock::Timeout=600)
+$sudo apt-get "${wait_lock[@]}" update -qq
+$sudo apt-get "${wait_lock[@]}" install -y -qq --no-install-recommends "${need[@]}" >/dev/null
 pkg-config --exists opencv4 || { echo "deps: opencv4 still missing after install" >&2; exit 1; }
