@@ -16,10 +16,7 @@ import (
 func bruteLogLik(z []float64, m int, model ChangeModel) (float64, float64) {
 	var num, den float64
 	for k := m; k < len(z); k++ {
-		x := 1.0
-		if model == SlopeChange {
-			x = float64(k - m + 1)
-		}
+		x := model.shape(float64(k - m + 1))
 		num += x * z[k]
 		den += x * x
 	}
@@ -28,10 +25,7 @@ func bruteLogLik(z []float64, m int, model ChangeModel) (float64, float64) {
 	for k := range z {
 		fit := 0.0
 		if k >= m {
-			fit = size
-			if model == SlopeChange {
-				fit = size * float64(k-m+1)
-			}
+			fit = size * model.shape(float64(k-m+1))
 		}
 		rss0 += z[k] * z[k]
 		rss1 += (z[k] - fit) * (z[k] - fit)
@@ -49,7 +43,7 @@ func TestChangeScanMatchesDefinition(t *testing.T) {
 			z[k] += 0.3 * float64(k-34)
 		}
 	}
-	for _, model := range []ChangeModel{StepChange, SlopeChange} {
+	for _, model := range changeModels {
 		best, bestM := math.Inf(-1), -1
 		for m := 5; m <= 55; m++ {
 			ll, size := bruteLogLik(z, m, model)
@@ -130,7 +124,7 @@ func TestChangeIntervalCoverage(t *testing.T) {
 			if !ok {
 				continue
 			}
-			lo, hi := c.Interval(n, 5, n-1, 0.95, 300, uint64(r))
+			lo, hi := c.Interval(n, 5, n-1, 1, 0.95, 300, uint64(r))
 			if lo <= at && at <= hi {
 				hit++
 			}

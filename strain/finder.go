@@ -46,6 +46,9 @@ type Finder struct {
 	prev     map[Indicator][]Zone
 	frames   []Frame // without fields
 	zones    []Zone  // every zone of every frame, in order
+	// noise is each strain indicator's noise over the calibration frames
+	// (SetNoise); floor the bar it sets under every frame's threshold.
+	noise, floor map[Indicator]float64
 }
 
 // Effective returns the configuration with defaults in its zero fields
@@ -86,6 +89,52 @@ func NewFinder(cfg FinderConfig, ref *dic.Field, baseline Baseline) (*Finder, er
 	return f, nil
 }
 
+// MinFloor is the least noise floor of a strain indicator: 1 µε, below
+// what any camera resolves (common practice, no source). It keeps the
+// threshold of a noise-free synthetic run above round-off.
+const MinFloor = 1e-6
+
+// SetNoise measures each strain indicator's noise on the calibration
+// frames (strain fields at their stresses, the frames the baseline was
+// fitted on): the median over the frames of the indicator's robust
+// standard deviation across the points (see robustSpread). The threshold
+// of every later frame is then at least K times that noise, and at least
+// MinFloor: a frame whose own scatter is smaller (a quiet frame, a
+// round-off field) cannot mark its noise as a zone. Call it before Add.
+func (f *Finder) SetNoise(calib []*Field, stress []float64) {
+	f.noise, f.floor = map[Indicator]float64{}, map[Indicator]float64{}
+	k := f.cfg.Thresholds.Effective().K
+	for _, ind := range f.cfg.Indicators {
+		if ind == Decorrelation {
+			continue
+		}
+		var spreads []float64
+		for j, sf := range calib {
+			var vals []float64
+			for i := range sf.Points {
+				if v, ok := f.cfg.Thresholds.value(ind, f.baseline, sf, nil, nil, i, stress[j]); ok {
+					vals = append(vals, v)
+				}
+			}
+			if len(vals) >= 8 {
+				_, s := robustSpread(vals)
+				spreads = append(spreads, s)
+			}
+		}
+		if len(spreads) > 0 {
+			f.noise[ind] = medianOf(spreads)
+		}
+		f.floor[ind] = math.Max(k*f.noise[ind], MinFloor)
+	}
+}
+
+// Noise returns the indicators' noise measured by SetNoise (nil before).
+func (f *Finder) Noise() map[Indicator]float64 { return f.noise }
+
+// Floor returns the least threshold above a frame's median of each
+// strain indicator: K × its noise, at least MinFloor (nil before SetNoise).
+func (f *Finder) Floor() map[Indicator]float64 { return f.floor }
+
 // Config returns the configuration in use, defaults filled in.
 func (f *Finder) Config() FinderConfig {
 	c := f.cfg
@@ -101,7 +150,7 @@ func (f *Finder) Add(fr Frame) ([]Zone, error) {
 	}
 	var out []Zone
 	for _, ind := range f.cfg.Indicators {
-		marked, value := f.cfg.Thresholds.marks(ind, f.baseline, fr.Strain, fr.Disp, f.ref, fr.Stress)
+		marked, value := f.cfg.Thresholds.marks(ind, f.baseline, fr.Strain, fr.Disp, f.ref, fr.Stress, f.floor[ind])
 		zones := f.cfg.Thresholds.describe(ind, f.grid, marked, value, fr.Index, f.geo, f.cfg.Scale)
 		f.identify(zones, f.prev[ind])
 		f.prev[ind] = zones

@@ -11,8 +11,11 @@ const (
 	ThroughGoing = "through-going"
 )
 
-// Onset is when and where one kind of fracturing began: the first frame of
-// a zone that then lasted Persistence frames in a row.
+// Onset is when and where one kind of fracturing began. Finder.Onsets
+// gives the trigger: the first frame of a zone that then lasted
+// Persistence frames in a row. Dating back-dates it: Frame (and its name,
+// time and stress) become the estimated first frame of the damage, with
+// the trigger kept in TriggerFrame and the estimate's Interval.
 type Onset struct {
 	Opening   int       `json:"opening_index"` // −1: away from every opening
 	Sector    Sector    `json:"sector"`
@@ -35,6 +38,13 @@ type Onset struct {
 	ByIndicator map[Indicator]int `json:"frame_by_indicator"`
 	// Touches names the openings a through-going zone links.
 	Touches []int `json:"touches,omitempty"`
+	// TriggerFrame is the frame whose threshold confirmed the zone (the
+	// onset before back-dating); the onset is never later.
+	TriggerFrame int    `json:"trigger_frame_index"`
+	TriggerName  string `json:"trigger_frame,omitempty"`
+	// Interval holds the onset with the stated confidence (nil before
+	// back-dating).
+	Interval *OnsetInterval `json:"interval,omitempty"`
 }
 
 // Onsets times the onsets from the zones found so far: for each opening,

@@ -14,6 +14,22 @@ import (
 // frame and feeds the zone finder; it returns the finder and the peak.
 func sequence(t *testing.T, sc *synth.Scenario, mask *region.Mask, openings []strain.Opening) (*strain.Finder, float64) {
 	t.Helper()
+	r := trackedSequence(t, sc, mask, openings)
+	return r.finder, r.peak
+}
+
+// tracked is a synthetic test tracked and fed to the zone finder.
+type tracked struct {
+	finder      *strain.Finder
+	peak        float64
+	frames      []strain.Frame // with their fields, for a second pass
+	calibration []bool
+}
+
+// trackedSequence renders, tracks and differentiates a synthetic test and
+// feeds the zone finder, keeping the frames for back-dating.
+func trackedSequence(t *testing.T, sc *synth.Scenario, mask *region.Mask, openings []strain.Opening) tracked {
+	t.Helper()
 	sp, err := synth.NewSpeckles(sc.Pattern, sc.Width, sc.Height)
 	if err != nil {
 		t.Fatal(err)
@@ -43,21 +59,36 @@ func sequence(t *testing.T, sc *synth.Scenario, mask *region.Mask, openings []st
 	// Calibrate on the frames up to a fifth of the peak (the elastic start).
 	var calib []*strain.Field
 	var cs []float64
+	r := tracked{peak: peak, calibration: make([]bool, len(strains))}
 	for k := range strains {
 		if sc.Stress(k) <= 0.2*peak {
 			calib, cs = append(calib, strains[k]), append(cs, sc.Stress(k))
+			r.calibration[k] = true
 		}
 	}
 	finder, err := strain.NewFinder(strain.FinderConfig{Sectors: strain.Sectors{Openings: openings}, Scale: 0.1}, fields[0], strain.FitBaseline(calib, cs))
 	if err != nil {
 		t.Fatal(err)
 	}
+	finder.SetNoise(calib, cs)
 	for k := range strains {
-		if _, err := finder.Add(strain.Frame{Index: k, Name: sc.FrameName(k), Time: sc.Time(k), Stress: sc.Stress(k), InSpan: true, Strain: strains[k], Disp: fields[k]}); err != nil {
+		fr := strain.Frame{Index: k, Name: sc.FrameName(k), Time: sc.Time(k), Stress: sc.Stress(k), InSpan: true, Strain: strains[k], Disp: fields[k]}
+		if _, err := finder.Add(fr); err != nil {
 			t.Fatal(err)
 		}
+		r.frames = append(r.frames, fr)
 	}
-	return finder, peak
+	r.finder = finder
+	return r
+}
+
+// backDated runs the second pass of back-dating over a tracked sequence.
+func (r tracked) backDated() []strain.Onset {
+	d := r.finder.Dating(r.finder.Onsets(r.peak))
+	for _, fr := range r.frames {
+		d.Add(fr)
+	}
+	return d.Onsets(r.calibration, r.peak)
 }
 
 // blockWithOpening is a 256 px face with one 32 px opening under a

@@ -73,22 +73,17 @@ func (t Thresholds) withDefaults() Thresholds {
 }
 
 // marks returns the points of a frame that pass the indicator's threshold
-// and each point's indicator value.
-func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.Field, stress float64) (marked []bool, value []float64) {
+// and each point's indicator value. floor is the indicator's noise floor
+// (see NoiseFloors): the bar is never below it, so that a frame whose
+// scatter is round-off does not mark round-off.
+func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.Field, stress, floor float64) (marked []bool, value []float64) {
 	t = t.withDefaults()
 	n := len(sf.Points)
 	marked, value = make([]bool, n), make([]float64, n)
 	if ind == Decorrelation {
 		for i := 0; i < n && disp != nil; i++ {
-			p := &disp.Points[i]
-			if ref != nil && !ref.Points[i].Valid() {
-				continue // never measured: not decorrelation
-			}
-			switch {
-			case p.Status == subset.Lost || p.Status == subset.Diverged:
-				marked[i], value[i] = true, 1
-			case p.Valid() && p.ZNCC < t.MinZNCC:
-				marked[i], value[i] = true, 1-p.ZNCC
+			if v, ok := t.value(ind, bl, sf, disp, ref, i, stress); ok && v > 0 {
+				marked[i], value[i] = true, v
 			}
 		}
 		return marked, value
@@ -96,26 +91,61 @@ func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.
 	var vals []float64
 	have := make([]bool, n)
 	for i := 0; i < n; i++ {
-		r, ok := bl.Residual(sf, i, stress)
+		v, ok := t.value(ind, bl, sf, disp, ref, i, stress)
 		if !ok {
 			continue
 		}
-		value[i], have[i] = ind.value(r), true
-		vals = append(vals, value[i])
+		value[i], have[i] = v, true
+		vals = append(vals, v)
 	}
 	if len(vals) < 8 {
 		return marked, value
 	}
-	med := medianOf(vals)
-	for k := range vals {
-		vals[k] = math.Abs(vals[k] - med)
-	}
-	sigma := 1.4826 * medianOf(vals)
-	bar := med + math.Max(t.Absolute, t.K*sigma)
+	med, sigma := robustSpread(vals)
+	bar := med + math.Max(math.Max(t.Absolute, floor), t.K*sigma)
 	for i := 0; i < n; i++ {
 		marked[i] = have[i] && value[i] > bar
 	}
 	return marked, value
+}
+
+// value is the indicator's value at point i of a frame: for the strain
+// indicators, of the inelastic strain (the residual from the elastic
+// baseline), false where there is none; for decorrelation, 1 for a point
+// measured in the reference and lost or diverged now, 1 − ZNCC below the
+// decorrelation limit, else 0 (false where the point was never measured).
+func (t Thresholds) value(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.Field, i int, stress float64) (float64, bool) {
+	if ind == Decorrelation {
+		if disp == nil || (ref != nil && !ref.Points[i].Valid()) {
+			return 0, false // never measured: not decorrelation
+		}
+		p := &disp.Points[i]
+		switch {
+		case p.Status == subset.Lost || p.Status == subset.Diverged:
+			return 1, true
+		case p.Valid() && p.ZNCC < t.MinZNCC:
+			return 1 - p.ZNCC, true
+		}
+		return 0, true
+	}
+	r, ok := bl.Residual(sf, i, stress)
+	if !ok {
+		return 0, false
+	}
+	return ind.value(r), true
+}
+
+// robustSpread returns the median of xs and their robust standard
+// deviation, 1.4826 × the median absolute deviation (the factor makes it
+// the standard deviation for Gaussian data; Rousseeuw and Croux 1993,
+// JASA 88).
+func robustSpread(xs []float64) (med, sigma float64) {
+	med = medianOf(xs)
+	dev := make([]float64, len(xs))
+	for k, x := range xs {
+		dev[k] = math.Abs(x - med)
+	}
+	return med, 1.4826 * medianOf(dev)
 }
 
 func medianOf(xs []float64) float64 {

@@ -67,7 +67,7 @@ func printSummary(cmd *cobra.Command, s *job.Summary) {
 	if s.Resolution != nil {
 		fmt.Fprintf(o, "resolution: u %.4f px, exx %.0f µε (VSG %d px)\n", s.Resolution.U, s.Resolution.Exx*1e6, s.Resolution.VSG)
 	}
-	rep := &strainfile.OnsetReport{Peak: s.Peak, Onsets: s.Onsets}
+	rep := &strainfile.OnsetReport{Peak: s.Peak, Onsets: s.Onsets, DetectionLimits: s.DetectionLimits}
 	printOnsets(cmd, rep, filepath.Join(s.Out, strainfile.OnsetJSON))
 	if s.Report != "" {
 		fmt.Fprintf(o, "report: %s\n", s.Report)

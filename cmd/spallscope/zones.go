@@ -108,23 +108,38 @@ engineers under local codes.`,
 	return cmd
 }
 
-// printOnsets prints the onset table.
+// printOnsets prints the onset table: each onset (back-dated) with its
+// interval and the trigger frame that confirmed it, then the detection
+// limits.
 func printOnsets(cmd *cobra.Command, rep *strainfile.OnsetReport, path string) {
 	o := cmd.OutOrStdout()
 	if len(rep.Onsets) == 0 {
 		fmt.Fprintf(o, "no onset found (%s)\n", path)
-		return
-	}
-	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
-	fmt.Fprintln(w, "class\topening\tsector\tindicator\tframe\ttime_s\tstress_MPa\tpct_of_peak\tarea_mm2\tboundary/UCS")
-	for _, on := range rep.Onsets {
-		ratio := "-"
-		if on.Context != nil && on.Context.RatioToUCS != 0 {
-			ratio = fmt.Sprintf("%.2f", on.Context.RatioToUCS)
+	} else {
+		w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
+		fmt.Fprintln(w, "class\topening\tsector\tindicator\tonset\tinterval\ttrigger\ttime_s\tstress_MPa\tpct_of_peak\tarea_mm2\tboundary/UCS")
+		for _, on := range rep.Onsets {
+			ratio := "-"
+			if on.Context != nil && on.Context.RatioToUCS != 0 {
+				ratio = fmt.Sprintf("%.2f", on.Context.RatioToUCS)
+			}
+			interval, stress := "-", fmt.Sprintf("%.2f", on.Stress)
+			if iv := on.Interval; iv != nil {
+				interval = fmt.Sprintf("%d–%d (%.0f %%)", iv.FirstFrame, iv.LastFrame, 100*iv.Confidence)
+				stress = fmt.Sprintf("%.2f (%.2f–%.2f)", on.Stress, iv.StressLo, iv.StressHi)
+			}
+			fmt.Fprintf(w, "%s\t%s\t%s\t%s\t%s\t%s\t%d\t%.1f\t%s\t%.0f\t%.1f\t%s\n", on.Class, on.OpeningName, on.Sector, on.Indicator,
+				on.Name, interval, on.TriggerFrame, on.Time, stress, on.Percent, on.AreaMM2, ratio)
 		}
-		fmt.Fprintf(w, "%s\t%s\t%s\t%s\t%s\t%.1f\t%.2f\t%.0f\t%.1f\t%s\n", on.Class, on.OpeningName, on.Sector, on.Indicator,
-			on.Name, on.Time, on.Stress, on.Percent, on.AreaMM2, ratio)
+		w.Flush()
+		fmt.Fprintf(o, "peak %.2f MPa at %.1f s (%s); onsets in %s\n", rep.Peak.Stress, rep.Peak.Time, rep.Peak.Frame, path)
 	}
-	w.Flush()
-	fmt.Fprintf(o, "peak %.2f MPa at %.1f s (%s); onsets in %s\n", rep.Peak.Stress, rep.Peak.Time, rep.Peak.Frame, path)
+	for _, l := range rep.DetectionLimits {
+		opening := fmt.Sprintf("%.3f px", l.OpeningPx)
+		if l.OpeningMM > 0 {
+			opening = fmt.Sprintf("%.1f µm (%.3f px)", 1000*l.OpeningMM, l.OpeningPx)
+		}
+		fmt.Fprintf(o, "detection limit (%s): a localized strain below %.0f µε over the %d px VSG, or a crack opening below %s, cannot be seen in this run\n",
+			l.Indicator, l.Strain*1e6, l.VSG, opening)
+	}
 }

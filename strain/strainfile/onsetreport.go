@@ -21,7 +21,27 @@ type OnsetReport struct {
 	Onsets     []OnsetRecord     `json:"onsets"`
 	Settings   ZoneSettings      `json:"settings"`
 	Resolution *ResolutionRecord `json:"resolution,omitempty"`
-	Cautions   []string          `json:"cautions"`
+	// DetectionLimits say, per strain indicator, the smallest fracture the
+	// run could see at all.
+	DetectionLimits []DetectionLimit `json:"detection_limits,omitempty"`
+	Cautions        []string         `json:"cautions"`
+}
+
+// DetectionLimit is the smallest localized strain, and the smallest crack
+// opening, that one strain indicator could detect in the run: the
+// indicator's noise over the calibration frames times the threshold
+// factor K (at least strain.MinFloor) — below it the threshold of every
+// frame lies above the fracture — and, for a displacement jump across one
+// virtual strain gauge of side VSG (which averages to jump/VSG), that
+// strain times the VSG.
+type DetectionLimit struct {
+	Indicator strain.Indicator `json:"indicator"`
+	Noise     float64          `json:"noise"`
+	K         float64          `json:"k_mad"`
+	Strain    float64          `json:"strain"`
+	VSG       int              `json:"vsg_px"`
+	OpeningPx float64          `json:"crack_opening_px"`
+	OpeningMM float64          `json:"crack_opening_mm,omitempty"`
 }
 
 // PeakRecord is the peak nominal stress of the test.

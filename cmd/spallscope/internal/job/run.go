@@ -23,7 +23,9 @@ type Summary struct {
 	Peak       strainfile.PeakRecord        `json:"peak"`
 	Onsets     []strainfile.OnsetRecord     `json:"onsets"`
 	Resolution *strainfile.ResolutionRecord `json:"resolution,omitempty"`
-	Skipped    []string                     `json:"skipped_stages,omitempty"`
+	// DetectionLimits are the smallest fractures the run could see.
+	DetectionLimits []strainfile.DetectionLimit `json:"detection_limits,omitempty"`
+	Skipped         []string                    `json:"skipped_stages,omitempty"`
 	// Notes are what the user should know of the inputs and results: frames
 	// outside the load log, a video shorter than declared, frames without
 	// a measured point.
@@ -101,7 +103,7 @@ func Run(ctx context.Context, t *config.Test, out, tool string, progress Progres
 	if err := readJSON(filepath.Join(out, strainfile.OnsetJSON), &rep); err != nil {
 		return nil, err
 	}
-	sum.Peak, sum.Onsets, sum.Resolution = rep.Peak, rep.Onsets, rep.Resolution
+	sum.Peak, sum.Onsets, sum.Resolution, sum.DetectionLimits = rep.Peak, rep.Onsets, rep.Resolution, rep.DetectionLimits
 	var aer runfolder.AERecord
 	if t.AE.File != "" && runfolder.Section(out, "ae", &aer) == nil {
 		sum.AE = &aer

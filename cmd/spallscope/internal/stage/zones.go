@@ -86,22 +86,49 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	if err != nil {
 		return nil, err
 	}
-	for k, name := range names {
+	finder.SetNoise(calib, calibStress)
+	calibration := make([]bool, len(names))
+	for k := range read {
+		calibration[k] = true
+	}
+	// Pass 1 finds and confirms the zones; pass 2 reads the confirmed
+	// zones' cells in every frame to back-date their onsets.
+	frameAt := func(k int) (strain.Frame, error) {
+		name := names[k]
 		sf, ok := read[k]
+		delete(read, k) // read once: calibration frames are many in a long test
 		if !ok {
+			var err error
 			if sf, err = strainfile.ReadStrain(strainfile.StrainPath(dir, name)); err != nil {
-				return nil, err
+				return strain.Frame{}, err
 			}
 		}
-		delete(read, k)
 		df, err := runfolder.ReadField(runfolder.FieldPath(dir, name))
+		if err != nil {
+			return strain.Frame{}, err
+		}
+		return strain.Frame{Index: k, Name: name, Time: frames[k].Time, Stress: frames[k].Stress, InSpan: frames[k].InSpan, Strain: sf, Disp: df}, nil
+	}
+	for k := range names {
+		fr, err := frameAt(k)
 		if err != nil {
 			return nil, err
 		}
-		fr := strain.Frame{Index: k, Name: name, Time: frames[k].Time, Stress: frames[k].Stress, InSpan: frames[k].InSpan, Strain: sf, Disp: df}
 		if _, err := finder.Add(fr); err != nil {
 			return nil, err
 		}
+	}
+	onsets := finder.Onsets(peak.Stress)
+	if len(onsets) > 0 {
+		dating := finder.Dating(onsets)
+		for k := range names {
+			fr, err := frameAt(k)
+			if err != nil {
+				return nil, err
+			}
+			dating.Add(fr)
+		}
+		onsets = dating.Onsets(calibration, peak.Stress)
 	}
 	rep := &strainfile.OnsetReport{Tool: tool, Peak: peak, Cautions: strainfile.Cautions,
 		Settings: strainfile.ZoneSettings{Indicators: finder.Config().Indicators, Thresholds: finder.Config().Thresholds, Persistence: finder.Config().Persistence,
@@ -131,7 +158,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	if err := runfolder.SetSection(dir, "timeline", tl); err != nil {
 		return nil, err
 	}
-	for _, o := range finder.Onsets(peak.Stress) {
+	for _, o := range onsets {
 		r := strainfile.OnsetRecord{Onset: o, OpeningName: openingName(o.Opening)}
 		if c, ok := strain.NewContext(o.Sector, o.Stress, st.K, st.UCS); ok && o.Opening >= 0 {
 			r.Context = c
@@ -142,6 +169,31 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	if runfolder.Section(dir, "resolution", &res) == nil {
 		rep.Resolution = &res
 	}
+	rep.DetectionLimits = detectionLimits(dir, finder)
 	err = runfolder.WriteJSON(filepath.Join(dir, strainfile.OnsetJSON), rep)
 	return rep, err
+}
+
+// detectionLimits are the smallest fractures the run could see, per strain
+// indicator, from the finder's noise and the strain record's VSG.
+func detectionLimits(dir string, finder *strain.Finder) []strainfile.DetectionLimit {
+	var sr strainfile.StrainRecord
+	if runfolder.Section(dir, "strain", &sr) != nil {
+		return nil
+	}
+	k := finder.Config().Thresholds.K
+	var out []strainfile.DetectionLimit
+	for _, ind := range finder.Config().Indicators {
+		floor, ok := finder.Floor()[ind]
+		if !ok {
+			continue
+		}
+		l := strainfile.DetectionLimit{Indicator: ind, Noise: finder.Noise()[ind], K: k, Strain: floor, VSG: sr.VSG,
+			OpeningPx: floor * float64(sr.VSG)}
+		if sr.MMPerPx.Known() {
+			l.OpeningMM = sr.MMPerPx.MM(l.OpeningPx)
+		}
+		out = append(out, l)
+	}
+	return out
 }
