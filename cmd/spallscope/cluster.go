@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -58,9 +59,19 @@ Submitting again with the same plan submits only the tasks that have a unit
 not done and are not queued or running; --all submits every task.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
+			// Every option is checked before anything is read or written.
+			if err := refuseTypedZero(cmd, "tasks", "frames-per-task", "max-parallel"); err != nil {
+				return err
+			}
+			if err := opt.Validate(); err != nil {
+				return err
+			}
 			c, err := config.ReadCampaign(args[0])
 			if err != nil {
 				return err
+			}
+			if _, err := cluster.JobName(c.Name); err != nil {
+				return fmt.Errorf("%s: %w", args[0], err)
 			}
 			o := campaignOut(c, out)
 			plan, err := cluster.NewPlan(c, frames, tasks)
@@ -71,49 +82,27 @@ not done and are not queued or running; --all submits every task.`,
 			if w := cluster.SharedWarning(o); w != "" {
 				fmt.Fprintln(cmd.ErrOrStderr(), w)
 			}
-			var run []int // nil: every task
-			if old, err := cluster.ReadPlan(o); err != nil {
-				return err
-			} else if old != nil && old.Equal(plan) && !all {
-				if run, err = cluster.Unfinished(plan, o, tool); err != nil {
-					return err
-				}
-				queue := cluster.Queue(c.Name)
-				var left []int
-				for _, k := range run {
-					if cluster.Queued(queue[k]) {
-						fmt.Fprintf(cmd.ErrOrStderr(), "task %d is %s; not submitted again\n", k, queue[k])
-						continue
-					}
-					left = append(left, k)
-				}
-				if run = left; len(run) == 0 {
-					fmt.Fprintf(cmd.OutOrStdout(), "nothing to submit: every task of %s is done or queued; run spallscope cluster merge\n", c.Name)
-					return nil
-				}
+			run, notes, err := cluster.ToSubmit(plan, o, tool, all)
+			for _, n := range notes {
+				fmt.Fprintln(cmd.ErrOrStderr(), n)
 			}
-			if err := cluster.WritePlan(o, plan); err != nil {
-				return err
+			if errors.Is(err, cluster.ErrNothingToSubmit) {
+				fmt.Fprintln(cmd.OutOrStdout(), err)
+				return nil
 			}
-			campaign := plan.File
-			script, err := cluster.WriteScript(plan, campaign, o, run, opt)
 			if err != nil {
 				return err
 			}
-			n := plan.Tasks
-			if run != nil {
-				n = len(run)
+			script, mergeScript, err := cluster.WriteSubmission(plan, o, run, opt, mergeJob)
+			if err != nil {
+				return err
 			}
 			fmt.Fprintf(cmd.OutOrStdout(), "array script: %s (%d units of %d tests over %d tasks; submitting tasks %s)\n",
 				script, len(plan.Units), len(c.Tests), plan.Tasks, cluster.ArraySpec(run, plan.Tasks))
-			var mergeScript string
 			if mergeJob {
-				if mergeScript, err = cluster.WriteMergeScript(plan, campaign, o, opt); err != nil {
-					return err
-				}
 				fmt.Fprintf(cmd.OutOrStdout(), "merge script: %s (runs once the array job has ended)\n", mergeScript)
 			}
-			if dryRun || n == 0 {
+			if dryRun {
 				return nil
 			}
 			answer, err := cluster.Submit(script)
@@ -159,6 +148,9 @@ folders, and what squeue/sacct say of the task where they are present. Give
 the campaign file, or the output folder of a submitted campaign.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := refuseTypedZero(cmd, "tasks"); err != nil {
+				return err
+			}
 			c, o, plan, err := openCampaign(args[0], statusOut, statusTasks)
 			if err != nil {
 				return err
@@ -215,6 +207,17 @@ folder of a submitted campaign.`,
 	merge.Flags().StringVar(&mergeOut, "out", "", "shared output folder (default: the campaign's)")
 	root.AddCommand(submit, status, merge)
 	return root
+}
+
+// refuseTypedZero refuses an integer option typed as 0 whose 0 means "the
+// default": leave the option out for the default.
+func refuseTypedZero(cmd *cobra.Command, names ...string) error {
+	for _, name := range names {
+		if f := cmd.Flags().Lookup(name); f != nil && f.Changed && f.Value.String() == "0" {
+			return fmt.Errorf("--%s 0: 0 is the default; leave the option out, or give a whole number of at least 1", name)
+		}
+	}
+	return nil
 }
 
 // campaignOut is the campaign's output folder: out when given, else the

@@ -31,8 +31,12 @@ func hasRow(table string, cells []string) bool {
 func TestClusterScript(t *testing.T) {
 	cfg := bandTest(t, "")
 	dir := filepath.Dir(cfg)
+	data, _ := os.ReadFile(cfg)
+	for _, name := range []string{"band2", "band3"} {
+		os.WriteFile(filepath.Join(dir, name+".yaml"), []byte(strings.Replace(string(data), "name: band", "name: "+name, 1)), 0o644)
+	}
 	camp := filepath.Join(dir, "campaign.yaml")
-	os.WriteFile(camp, []byte("name: trial\ntests: [band.yaml, band.yaml, band.yaml]\n"), 0o644)
+	os.WriteFile(camp, []byte("name: trial\ntests: [band.yaml, band2.yaml, band3.yaml]\n"), 0o644)
 	out := filepath.Join(dir, "runs")
 	if _, err := run(t, "cluster", "submit", camp, "--out", out, "--dry-run", "--merge-job", "--partition", "long", "--mem", "8G", "--time", "01:00:00", "--max-parallel", "2"); err != nil {
 		t.Fatal(err)
@@ -54,6 +58,54 @@ func TestClusterScript(t *testing.T) {
 	t.Setenv("PATH", t.TempDir())
 	if _, err := run(t, "cluster", "submit", camp, "--out", out); err == nil || !strings.Contains(err.Error(), "sbatch is not on PATH") {
 		t.Errorf("submit without sbatch: %v", err)
+	}
+}
+
+// cluster submit checks every option, and the campaign's name, before it
+// reads photos or writes anything: a hostile or malformed value is an
+// error naming the option (or the campaign file) and what was expected,
+// and the output folder is not created. Before, --partition and --mem
+// went verbatim into the #SBATCH lines (a newline made the rest a
+// command of the script), a negative --tasks was taken as 0, and a typed
+// --tasks 0 as the default.
+func TestClusterSubmitRefusesHostileOptionsBeforeWriting(t *testing.T) {
+	dir := t.TempDir()
+	camp := filepath.Join(dir, "campaign.yaml")
+	os.WriteFile(camp, []byte("name: trial\ntests: [a.yaml, b.yaml]\n"), 0o644)
+	out := filepath.Join(dir, "runs")
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--partition", "long\ntouch PWNED"}, "--partition"},
+		{[]string{"--partition", "long;touch PWNED"}, "--partition"},
+		{[]string{"--mem", "8G\n#SBATCH --uid=0"}, "--mem"},
+		{[]string{"--mem", "lots"}, "--mem"},
+		{[]string{"--time", "$(touch PWNED)"}, "--time"},
+		{[]string{"--time", "1:2:3:4"}, "--time"},
+		{[]string{"--binary", "spallscope\ntouch PWNED"}, "--binary"},
+		{[]string{"--binary", ""}, "--binary"},
+		{[]string{"--cpus-per-task", "0"}, "--cpus-per-task"},
+		{[]string{"--max-parallel", "-1"}, "--max-parallel"},
+		{[]string{"--max-parallel", "0"}, "--max-parallel 0"},
+		{[]string{"--tasks", "-2"}, "--tasks -2"},
+		{[]string{"--tasks", "0"}, "--tasks 0"},
+		{[]string{"--frames-per-task", "-8"}, "--frames-per-task -8"},
+	} {
+		args := append([]string{"cluster", "submit", camp, "--out", out, "--dry-run"}, c.args...)
+		if _, err := run(t, args...); err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%q: %v, want an error naming %s", c.args, err, c.want)
+		}
+		if _, err := os.Stat(out); err == nil {
+			t.Fatalf("%q: the refused submission created %s", c.args, out)
+		}
+	}
+	os.WriteFile(camp, []byte("name: \"trial; touch PWNED\"\ntests: [a.yaml, b.yaml]\n"), 0o644)
+	if _, err := run(t, "cluster", "submit", camp, "--out", out, "--dry-run"); err == nil || !strings.Contains(err.Error(), camp) || !strings.Contains(err.Error(), "campaign name") {
+		t.Errorf("a campaign name that is no job name: %v, want an error naming %s", err, camp)
+	}
+	if _, err := os.Stat(out); err == nil {
+		t.Error("the refused submission created the output folder")
 	}
 }
 

@@ -1,13 +1,18 @@
 package cluster
 
 import (
+	"bytes"
+	"cmp"
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
+	"strings"
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/job"
@@ -48,12 +53,20 @@ type Plan struct {
 }
 
 // NewPlan divides campaign c into units (see Plan) for tasks array tasks
-// (≤ 0 or more than the units: one task per unit). Frame parts need the
+// (0 or more than the units: one task per unit). Frame parts need the
 // fixed reference: a test with the incremental reference and more frames
 // than framesPerTask is refused with the reason. Tests with several faces
-// run whole.
+// run whole. A negative count is refused, naming its option, and so is a
+// campaign whose plan would not validate (Plan.Validate): no tests, or
+// test names that cannot be run folders or that two tests share.
 func NewPlan(c *config.Campaign, framesPerTask, tasks int) (*Plan, error) {
-	p := &Plan{Campaign: c.Name, FramesPerTask: max(framesPerTask, 0)}
+	if framesPerTask < 0 {
+		return nil, fmt.Errorf("plan: --frames-per-task %d: expected 0 (whole tests) or a whole number of frames", framesPerTask)
+	}
+	if tasks < 0 {
+		return nil, fmt.Errorf("plan: --tasks %d: expected 0 (one task per unit) or a whole number of tasks", tasks)
+	}
+	p := &Plan{Campaign: c.Name, FramesPerTask: framesPerTask}
 	for _, path := range c.Tests {
 		name := job.TestName(path)
 		whole := Unit{Test: name, Config: path}
@@ -83,14 +96,20 @@ func NewPlan(c *config.Campaign, framesPerTask, tasks int) (*Plan, error) {
 		}
 	}
 	p.Tasks = tasks
-	if p.Tasks <= 0 || p.Tasks > len(p.Units) {
+	if p.Tasks == 0 || p.Tasks > len(p.Units) {
 		p.Tasks = len(p.Units)
+	}
+	if err := p.Validate(); err != nil {
+		return nil, fmt.Errorf("plan of campaign %s: %w", c.Name, err)
 	}
 	return p, nil
 }
 
-// Task returns the units of task i.
+// Task returns the units of task i (none for a plan without tasks).
 func (p *Plan) Task(i int) []Unit {
+	if p.Tasks < 1 {
+		return nil
+	}
 	var us []Unit
 	for k, u := range p.Units {
 		if k%p.Tasks == i {
@@ -100,7 +119,8 @@ func (p *Plan) Task(i int) []Unit {
 	return us
 }
 
-// Parts returns the frame parts of test (nil for a test that runs whole).
+// Parts returns the frame parts of test in frame order (nil for a test
+// that runs whole).
 func (p *Plan) Parts(test string) []job.Part {
 	var parts []job.Part
 	for _, u := range p.Units {
@@ -108,6 +128,7 @@ func (p *Plan) Parts(test string) []job.Part {
 			parts = append(parts, *u.Part)
 		}
 	}
+	slices.SortFunc(parts, func(a, b job.Part) int { return cmp.Compare(a.Index, b.Index) })
 	return parts
 }
 
@@ -127,18 +148,38 @@ func WritePlan(out string, p *Plan) error {
 	return runfolder.WriteJSON(filepath.Join(out, PlanFile), p)
 }
 
-// ReadPlan reads the plan in out; (nil, nil) when there is none.
+// ReadPlan reads the plan in out; (nil, nil) when there is none. A plan
+// that is not one JSON object of the plan's keys, or that does not
+// validate (Plan.Validate), is an error naming the file and what is
+// wrong: the file may have been edited by hand.
 func ReadPlan(out string) (*Plan, error) {
-	b, err := os.ReadFile(filepath.Join(out, PlanFile))
+	path := filepath.Join(out, PlanFile)
+	b, err := os.ReadFile(path)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil, nil
 	}
 	if err != nil {
 		return nil, err
 	}
+	return parsePlan(path, b)
+}
+
+// parsePlan reads a plan file's bytes (ReadPlan); path names it in errors.
+func parsePlan(path string, b []byte) (*Plan, error) {
+	dec := json.NewDecoder(bytes.NewReader(b))
+	dec.DisallowUnknownFields()
 	var p Plan
-	if err := json.Unmarshal(b, &p); err != nil {
-		return nil, fmt.Errorf("%s: %w", filepath.Join(out, PlanFile), err)
+	if err := dec.Decode(&p); err != nil {
+		return nil, fmt.Errorf("%s: %s (plan keys: campaign, campaign_file, frames_per_task, tasks, units of test, config and part)", path, jsonProblem(b, err))
+	}
+	end := dec.InputOffset()
+	if _, err := dec.Token(); err != io.EOF {
+		end += int64(len(b[end:]) - len(bytes.TrimLeft(b[end:], " \t\r\n")))
+		line, col := position(b, end)
+		return nil, fmt.Errorf("%s: line %d, column %d: more after the plan's JSON object, expected one object", path, line, col)
+	}
+	if err := p.Validate(); err != nil {
+		return nil, fmt.Errorf("%s: %w (the file was edited or damaged: move it aside and submit the campaign again with spallscope cluster submit, which writes a new plan and skips what is done)", path, err)
 	}
 	return &p, nil
 }
@@ -156,4 +197,52 @@ func CheckPlan(out string, p *Plan) error {
 			filepath.Join(out, PlanFile), len(q.Units), q.Tasks, q.FramesPerTask, len(p.Units), p.Tasks, p.FramesPerTask)
 	}
 	return nil
+}
+
+// jsonProblem says where and what a JSON decoding error of b is, in
+// words: "line 3, column 12: tasks is text, expected a whole number".
+func jsonProblem(b []byte, err error) string {
+	var syntax *json.SyntaxError
+	var typ *json.UnmarshalTypeError
+	switch {
+	case errors.As(err, &syntax):
+		line, col := position(b, syntax.Offset-1) // the byte that broke it
+		return fmt.Sprintf("line %d, column %d: %s", line, col, strings.TrimPrefix(syntax.Error(), "json: "))
+	case errors.As(err, &typ):
+		line, col := position(b, typ.Offset-1) // the value's last byte
+		what := "the plan"
+		if typ.Field != "" {
+			what = typ.Field
+		}
+		return fmt.Sprintf("line %d, column %d: %s is a JSON %s, expected %s", line, col, what, typ.Value, jsonKind(typ.Type))
+	case errors.Is(err, io.EOF):
+		return "empty, expected a JSON object"
+	case errors.Is(err, io.ErrUnexpectedEOF):
+		return "ends inside the JSON object"
+	}
+	return strings.TrimPrefix(err.Error(), "json: ")
+}
+
+// jsonKind names what a Go type is in JSON, for messages.
+func jsonKind(t reflect.Type) string {
+	switch t.Kind() {
+	case reflect.Int, reflect.Int64:
+		return "a whole number"
+	case reflect.String:
+		return "text"
+	case reflect.Struct, reflect.Pointer:
+		return "an object"
+	case reflect.Slice:
+		return "a list"
+	}
+	return t.String()
+}
+
+// position returns the line and column (both from 1, column in bytes)
+// of the byte at offset off of b.
+func position(b []byte, off int64) (line, col int) {
+	off = min(max(off, 0), int64(len(b)))
+	head := b[:off]
+	line = bytes.Count(head, []byte("\n")) + 1
+	return line, len(head) - (bytes.LastIndexByte(head, '\n') + 1) + 1
 }

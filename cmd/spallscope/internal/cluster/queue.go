@@ -4,25 +4,37 @@ import (
 	"bufio"
 	"bytes"
 	"os/exec"
+	"os/user"
 	"strconv"
 	"strings"
 )
 
 // Queue returns what the scheduler says of each array task of campaign's
-// job (JobName): sacct's state of tasks that ended, where accounting is
-// on, overridden by squeue's for tasks waiting or running (PENDING,
-// RUNNING, ...). It returns nil when neither command is on PATH or both
-// fail; the run folders stay the record of what finished.
+// job (JobName) of the user running it: sacct's state of tasks that ended,
+// where accounting is on, overridden by squeue's for tasks waiting or
+// running (PENDING, RUNNING, ...). It returns nil when neither command is
+// on PATH or both fail, or the campaign's name makes no job name; the run
+// folders stay the record of what finished. Only the user's own jobs
+// count: on a shared cluster another user's campaign of the same name
+// would otherwise hold back a resubmission (squeue lists every user's
+// jobs unless asked for one, squeue(1) --user).
 func Queue(campaign string) map[int]string {
+	name, err := JobName(campaign)
+	if err != nil {
+		return nil
+	}
 	states := map[int]string{}
-	name := JobName(campaign)
-	if out, ok := query("sacct", "-n", "-X", "-P", "--name="+name, "--format=JobID,State"); ok {
+	var mine []string
+	if u, err := user.Current(); err == nil && u.Username != "" {
+		mine = []string{"--user=" + u.Username}
+	}
+	if out, ok := query("sacct", append([]string{"-n", "-X", "-P", "--name=" + name, "--format=JobID,State"}, mine...)...); ok {
 		parseQueue(out, "|", func(id string) (int, bool) {
 			_, task, ok := cutTask(id)
 			return task, ok
 		}, states)
 	}
-	if out, ok := query("squeue", "-h", "-r", "--name="+name, "--format=%K %T"); ok {
+	if out, ok := query("squeue", append([]string{"-h", "-r", "--name=" + name, "--format=%K %T"}, mine...)...); ok {
 		parseQueue(out, " ", func(id string) (int, bool) {
 			n, err := strconv.Atoi(id)
 			return n, err == nil

@@ -56,5 +56,6 @@ func parseEnv(id, count, idName, countName string) (Shard, bool, error) {
 	return Shard{i, n}, true, nil
 }
 
-// Has reports whether test k belongs to the shard.
-func (s Shard) Has(k int) bool { return k%s.N == s.I }
+// Has reports whether test k belongs to the shard (none for a shard of
+// no tasks, the zero Shard).
+func (s Shard) Has(k int) bool { return s.N > 0 && k%s.N == s.I }

@@ -32,6 +32,10 @@ func TestShards(t *testing.T) {
 	if s, ok, _ := FromEnv(0); ok || s != All {
 		t.Errorf("no array job: %+v %v", s, ok)
 	}
+	// The zero Shard (of no tasks) holds no test, rather than dividing by 0.
+	if (Shard{}).Has(0) {
+		t.Error("the zero Shard holds test 0")
+	}
 	if SharedWarning("/tmp/runs") == "" || SharedWarning("/srv/lab/runs") != "" {
 		t.Error("shared-folder warning")
 	}

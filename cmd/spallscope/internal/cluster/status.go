@@ -33,8 +33,12 @@ type UnitState struct {
 }
 
 // Status reads the outcome of every unit of plan p from the run folders
-// under out: a whole test's outcome.json, a frame part's record.
+// under out: a whole test's outcome.json, a frame part's record. A plan
+// that does not validate (Plan.Validate) is an error.
 func Status(p *Plan, out string) ([]UnitState, error) {
+	if err := p.Validate(); err != nil {
+		return nil, fmt.Errorf("status: the plan: %w", err)
+	}
 	var states []UnitState
 	for k, u := range p.Units {
 		st := UnitState{Unit: u, Task: k % p.Tasks}

@@ -3,6 +3,7 @@ package cluster
 import (
 	"bufio"
 	"bytes"
+	"errors"
 	"fmt"
 	"os"
 	"os/exec"
@@ -18,22 +19,38 @@ const ScriptFile = "campaign.sbatch"
 // MergeScriptFile is the name of the written merge script (MergeScript).
 const MergeScriptFile = "merge.sbatch"
 
-// WriteScript writes the array script of plan p (see Script) into out and
-// returns its path.
-func WriteScript(p *Plan, campaign, out string, tasks []int, opt SubmitOptions) (string, error) {
-	if err := os.MkdirAll(out, 0o755); err != nil {
-		return "", err
+// WriteSubmission writes what a submission of plan p to the output
+// folder out needs: the plan (PlanFile), the array script for tasks (nil:
+// all; see Script) and, with merge, the merge script (MergeScript), both
+// for the campaign file p.File. Both scripts are made, and so every value
+// in them checked, before anything is written; each file is written whole
+// or not at all. It returns the scripts' paths ("" for no merge script).
+func WriteSubmission(p *Plan, out string, tasks []int, opt SubmitOptions, merge bool) (script, mergeScript string, err error) {
+	if p.File == "" {
+		return "", "", errors.New("submit: the plan names no campaign file")
 	}
-	return writeExecutable(filepath.Join(out, ScriptFile), Script(p, campaign, out, tasks, opt))
-}
-
-// WriteMergeScript writes the merge script of plan p (see MergeScript)
-// into out and returns its path.
-func WriteMergeScript(p *Plan, campaign, out string, opt SubmitOptions) (string, error) {
-	if err := os.MkdirAll(out, 0o755); err != nil {
-		return "", err
+	text, err := Script(p, p.File, out, tasks, opt)
+	if err != nil {
+		return "", "", err
 	}
-	return writeExecutable(filepath.Join(out, MergeScriptFile), MergeScript(p, campaign, out, opt))
+	var mergeText string
+	if merge {
+		if mergeText, err = MergeScript(p, p.File, out, opt); err != nil {
+			return "", "", err
+		}
+	}
+	if err := WritePlan(out, p); err != nil {
+		return "", "", err
+	}
+	if script, err = writeExecutable(filepath.Join(out, ScriptFile), text); err != nil {
+		return "", "", err
+	}
+	if merge {
+		if mergeScript, err = writeExecutable(filepath.Join(out, MergeScriptFile), mergeText); err != nil {
+			return "", "", err
+		}
+	}
+	return script, mergeScript, nil
 }
 
 func writeExecutable(path, text string) (string, error) {
@@ -49,6 +66,9 @@ func writeExecutable(path, text string) (string, error) {
 
 // Submit hands the script to sbatch and returns its answer (the job id
 // line). Without sbatch on PATH it says so; the script stays written.
+// sbatch runs in the script's folder (the output folder), which is the
+// job's working folder: a script whose output folder cannot be written
+// on an #SBATCH line writes its logs there (see Script).
 func Submit(script string) (string, error) { return sbatch(script) }
 
 // SubmitAfter submits script to start once job (a job id) has ended,
@@ -79,13 +99,18 @@ func isDigits(s string) bool {
 }
 
 func sbatch(args ...string) (string, error) {
-	script := args[len(args)-1]
+	script, err := filepath.Abs(args[len(args)-1]) // sbatch runs in its folder
+	if err != nil {
+		return "", fmt.Errorf("submit: %w", err)
+	}
+	args[len(args)-1] = script
 	bin, err := exec.LookPath("sbatch")
 	if err != nil {
 		return "", fmt.Errorf("submit: sbatch is not on PATH (Slurm's client is missing); the script is written at %s — submit it on a login node, or use --dry-run", script)
 	}
 	var out, errOut bytes.Buffer
 	cmd := exec.Command(bin, args...)
+	cmd.Dir = filepath.Dir(script)
 	cmd.Stdout, cmd.Stderr = &out, &errOut
 	if err := cmd.Run(); err != nil {
 		return "", fmt.Errorf("submit: sbatch %s: %v: %s", script, err, strings.TrimSpace(errOut.String()))
