@@ -11,6 +11,7 @@ import (
 
 	"spallscope/cmd/spallscope/internal/cluster"
 	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/job"
 )
 
 func newClusterCmd() *cobra.Command {
@@ -73,7 +74,7 @@ not done and are not queued or running; --all submits every task.`,
 			if _, err := cluster.JobName(c.Name); err != nil {
 				return fmt.Errorf("%s: %w", args[0], err)
 			}
-			o := campaignOut(c, out)
+			o := job.CampaignOut(c, out)
 			plan, err := cluster.NewPlan(c, frames, tasks)
 			if err != nil {
 				return err
@@ -200,7 +201,7 @@ folder of a submitted campaign.`,
 			if err != nil {
 				return err
 			}
-			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d tests merged; summary in %s\n", c.Name, len(results), filepath.Join(o, "summary.html"))
+			fmt.Fprintf(cmd.OutOrStdout(), "campaign %s: %d tests merged; summary in %s\n", c.Name, len(results), filepath.Join(o, job.SummaryHTML))
 			return nil
 		},
 	}
@@ -218,18 +219,6 @@ func refuseTypedZero(cmd *cobra.Command, names ...string) error {
 		}
 	}
 	return nil
-}
-
-// campaignOut is the campaign's output folder: out when given, else the
-// campaign's own, else "<name>_runs" beside it.
-func campaignOut(c *config.Campaign, out string) string {
-	if out == "" {
-		out = c.Out
-	}
-	if out == "" {
-		out = filepath.Join(c.Dir, c.Name+"_runs")
-	}
-	return out
 }
 
 // openCampaign reads what status and merge start from: arg is a campaign
@@ -256,7 +245,7 @@ func openCampaign(arg, out string, tasks int) (*config.Campaign, string, *cluste
 	if err != nil {
 		return nil, "", nil, err
 	}
-	o := campaignOut(c, out)
+	o := job.CampaignOut(c, out)
 	plan, err := cluster.ReadPlan(o)
 	if plan == nil && err == nil {
 		plan, err = cluster.NewPlan(c, 0, tasks)
