@@ -3,6 +3,7 @@ package strain_test
 import (
 	"testing"
 
+	"spallscope/dic/region"
 	"spallscope/dic/synth"
 	"spallscope/strain"
 )
@@ -53,9 +54,65 @@ func TestBackDatingOfGrowingBand(t *testing.T) {
 func TestElasticRampHasNoOnset(t *testing.T) {
 	sc, mask, openings := blockWithOpening(30)
 	sc.Camera.Noise = 0
-	r := trackedSequence(t, sc, mask, openings)
+	r := trackedSequenceStep(t, sc, mask, openings, 3)
 	if o := r.backDated(); len(o) != 0 {
 		t.Errorf("%d onsets on an elastic ramp, first %s %s at frame %d (peak %g)", len(o), o[0].Sector, o[0].Indicator, o[0].Frame, o[0].Peak)
 	}
 	t.Logf("noise floors %v", r.finder.Floor())
+}
+
+// One physical event, one onset: a tensile crack grows from the right
+// sidewall of a 160 px plate (our own small case, loaded to 30 MPa over 24
+// frames, calibrated on the first fifth of the load). The crack is
+// reported at the right sidewall, and the left sidewall, which the crack
+// never reaches, reports nothing.
+func TestCrackFromOneSidewallFiresOnlyThere(t *testing.T) {
+	const cx, cy, a = 79.5, 79.5, 20.0
+	sc := &synth.Scenario{
+		Name: "plate", Width: 160, Height: 160, Frames: 24, FPS: 1,
+		Pattern:  synth.Pattern{Radius: 1.6, Coverage: 0.5, Seed: 11},
+		Camera:   synth.Camera{Depth: 8, Noise: 1.5, Seed: 12},
+		Openings: []synth.Opening{synth.Circle(cx, cy, a)},
+		Load:     synth.Load{PeakStress: 30, PeakFrame: 23},
+		Specimen: synth.Specimen{MMPerPx: 0.1, WidthMM: 16, ThicknessMM: 16},
+		Fields: []synth.FieldSpec{
+			{Kirsch: &synth.Kirsch{Cx: cx, Cy: cy, Radius: a, Stress: 30, K: 0, E: 15000, Nu: 0.2}, Drive: synth.DriveLoad},
+			{Crack: &synth.Crack{X0: cx + a, Y0: cy, X1: cx + a + 45, Y1: cy - 4, Opening: 0.8, Decay: 10}, Drive: synth.DriveGrowth, StartFrame: 10, FullFrame: 22},
+		},
+	}
+	mask, _ := region.Layout{Exclude: []region.Shape{sc.Openings[0]}}.Rasterise(160, 160)
+	r := trackedSequence(t, sc, mask, []strain.Opening{{Name: "A", Shape: sc.Openings[0]}})
+	right := false
+	for _, o := range r.backDated() {
+		t.Logf("%s %s %s: trigger %d, onset %d", o.Class, o.Sector, o.Indicator, o.TriggerFrame, o.Frame)
+		switch o.Sector {
+		case strain.LeftSidewall:
+			t.Errorf("left sidewall fired (%s, trigger %d): the crack is at the right", o.Indicator, o.TriggerFrame)
+		case strain.RightSidewall:
+			right = true
+		}
+	}
+	if !right {
+		t.Error("no onset at the right sidewall")
+	}
+}
+
+// Round-off is not a fracture: frames that do not deform at all, under a
+// rising load, noise-free, give strain fields of round-off (about 1e-19).
+// Without a floor the threshold sits on that round-off and the finder
+// confirms "zones" from the reference frame on; with the floor of 1 µε
+// (MinFloor) nothing is marked and no onset is reported.
+func TestRoundOffIsNoOnset(t *testing.T) {
+	sc, mask, openings := blockWithOpening(12)
+	sc.Fields, sc.Camera.Noise = nil, 0
+	r := trackedSequence(t, sc, mask, openings)
+	if n := len(r.finder.Zones()); n != 0 {
+		t.Errorf("%d zones marked on round-off", n)
+	}
+	if o := r.backDated(); len(o) != 0 {
+		t.Errorf("%d onsets on round-off, first at frame %d", len(o), o[0].Frame)
+	}
+	if f := r.finder.Floor()[strain.MaxPrincipal]; f != strain.MinFloor {
+		t.Errorf("e1 floor %g, want the least floor %g on a run with no noise", f, strain.MinFloor)
+	}
 }

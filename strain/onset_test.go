@@ -30,6 +30,12 @@ type tracked struct {
 // feeds the zone finder, keeping the frames for back-dating.
 func trackedSequence(t *testing.T, sc *synth.Scenario, mask *region.Mask, openings []strain.Opening) tracked {
 	t.Helper()
+	return trackedSequenceStep(t, sc, mask, openings, 6)
+}
+
+// trackedSequenceStep is trackedSequence on a grid of the given step.
+func trackedSequenceStep(t *testing.T, sc *synth.Scenario, mask *region.Mask, openings []strain.Opening, step int) tracked {
+	t.Helper()
 	sp, err := synth.NewSpeckles(sc.Pattern, sc.Width, sc.Height)
 	if err != nil {
 		t.Fatal(err)
@@ -38,7 +44,7 @@ func trackedSequence(t *testing.T, sc *synth.Scenario, mask *region.Mask, openin
 		return synth.Scene{Speckles: sp, Field: sc.FieldAt(k), Openings: sc.Openings}
 	}
 	ref, _ := synth.Render(imgs(0), sc.Camera, sc.Width, sc.Height, 0)
-	tr, err := dic.NewTracker(ref, 0, mask, dic.Settings{Subset: 21, Step: 6})
+	tr, err := dic.NewTracker(ref, 0, mask, dic.Settings{Subset: 21, Step: step})
 	if err != nil {
 		t.Fatal(err)
 	}
