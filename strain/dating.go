@@ -33,6 +33,19 @@ type OnsetInterval struct {
 	LogLik float64 `json:"log_likelihood_ratio"`
 }
 
+// OnsetHistory is a confirmed zone's indicator frame by frame, up to the
+// end of the frames that confirmed it, for the report's plot: the mean of
+// the zone's cells (strain, or 1 − ZNCC for decorrelation), the frame's
+// threshold for the indicator (0 where a frame had too few points, and for
+// decorrelation, whose rule is per point), and the normalised signal the
+// change point was estimated on (0 where it could not be formed).
+type OnsetHistory struct {
+	Frames    []int     `json:"frame_index"`
+	ZoneMean  []float64 `json:"zone_mean"`
+	Threshold []float64 `json:"threshold"`
+	Signal    []float64 `json:"signal"`
+}
+
 // Dating back-dates confirmed onsets from the whole history of their
 // cells. The per-frame threshold (Finder.Add) is the trigger: it says that
 // something happened, and roughly where. Once a zone is confirmed, the
@@ -182,6 +195,7 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 		iv.TimeLo, iv.TimeHi = lo.Time, hi.Time
 		iv.StressLo, iv.StressHi = math.Min(lo.Stress, hi.Stress), math.Max(lo.Stress, hi.Stress)
 		o.Interval = &iv
+		o.History = d.history(k, end+1, z)
 		out = append(out, o)
 	}
 	return out
@@ -277,6 +291,41 @@ func meanOf(xs []float64) float64 {
 		s += x
 	}
 	return s / float64(len(xs))
+}
+
+// history is onset k's OnsetHistory over the first n frames; z is its
+// normalised signal (nil: none). Values that are not finite are written as
+// 0, so that none reaches a JSON writer.
+func (d *Dating) history(k, n int, z []float64) *OnsetHistory {
+	finite := func(v float64) float64 {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return 0
+		}
+		return v
+	}
+	h := &OnsetHistory{}
+	bars := d.f.bars[d.onsets[k].Indicator]
+	for f := range n {
+		var vals []float64
+		for _, v := range d.values[k][f] {
+			if !math.IsNaN(v) {
+				vals = append(vals, v)
+			}
+		}
+		bar := 0.0
+		if f < len(bars) {
+			bar = bars[f]
+		}
+		sig := 0.0
+		if z != nil {
+			sig = z[f]
+		}
+		h.Frames = append(h.Frames, d.frames[f].Index)
+		h.ZoneMean = append(h.ZoneMean, finite(meanOf(vals)))
+		h.Threshold = append(h.Threshold, finite(bar))
+		h.Signal = append(h.Signal, finite(sig))
+	}
+	return h
 }
 
 // seedOf is a repeatable bootstrap seed for an onset.

@@ -45,6 +45,9 @@ type Onset struct {
 	// Interval holds the onset with the stated confidence (nil before
 	// back-dating).
 	Interval *OnsetInterval `json:"interval,omitempty"`
+	// History is the zone's indicator frame by frame (nil before
+	// back-dating).
+	History *OnsetHistory `json:"history,omitempty"`
 }
 
 // Onsets times the onsets from the zones found so far: for each opening,
