@@ -41,10 +41,10 @@ func ReadCSV(path, header string, extra bool) ([]CSVRow, error) {
 		if errors.Is(err, io.EOF) {
 			return out, nil
 		}
-		line, _ := r.FieldPos(0)
-		if err != nil {
+		if err != nil { // before FieldPos, which has no position after an error
 			return nil, fmt.Errorf("%s: %w", path, err)
 		}
+		line, _ := r.FieldPos(0)
 		if len(rec) < want {
 			return nil, fmt.Errorf("%s line %d: %d columns, expected %d", path, line, len(rec), want)
 		}

@@ -2,7 +2,10 @@ package strainfile
 
 import (
 	"bufio"
+	"encoding/csv"
 	"fmt"
+	"strconv"
+	"strings"
 
 	"spallscope/dic/runfolder"
 	"spallscope/strain"
@@ -34,15 +37,17 @@ func WriteZones(path string, f *strain.Finder, openingName func(int) string) err
 		byIndex[fr.Index] = fr
 	}
 	return runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
-		w.WriteString(ZonesHeader + "\n")
+		cw := csv.NewWriter(w) // frame and opening names may hold commas and quotes
+		cw.Write(strings.Split(ZonesHeader, ","))
 		for _, z := range f.Zones() {
 			fr := byIndex[z.Frame]
-			opening := openingName(z.Opening)
-			fmt.Fprintf(w, "%s,%.3f,%d,%s,%s,%.4g,%.6g,%.1f,%.1f,%s,%s,%.0f,%.1f,%t\n",
-				fr.Name, fr.Time, z.ID, z.Sector, opening, z.AreaMM2, z.Peak, z.Cx, z.Cy, z.Indicator, z.Indicator.Class(),
-				z.AreaPx2, z.OrientationDeg, z.Through())
+			cw.Write([]string{fr.Name, fmt.Sprintf("%.3f", fr.Time), strconv.Itoa(z.ID), string(z.Sector), openingName(z.Opening),
+				fmt.Sprintf("%.4g", z.AreaMM2), fmt.Sprintf("%.6g", z.Peak), fmt.Sprintf("%.1f", z.Cx), fmt.Sprintf("%.1f", z.Cy),
+				string(z.Indicator), z.Indicator.Class(), fmt.Sprintf("%.0f", z.AreaPx2), fmt.Sprintf("%.1f", z.OrientationDeg),
+				strconv.FormatBool(z.Through())})
 		}
-		return nil
+		cw.Flush()
+		return cw.Error()
 	})
 }
 
@@ -53,17 +58,20 @@ func WriteZoneCells(path string, f *strain.Finder) error {
 		names[fr.Index] = fr.Name
 	}
 	return runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
-		w.WriteString(ZoneCellsHeader + "\n")
+		cw := csv.NewWriter(w)
+		cw.Write(strings.Split(ZoneCellsHeader, ","))
+		var cells strings.Builder
 		for _, z := range f.Zones() {
-			fmt.Fprintf(w, "%s,%d,%s,", names[z.Frame], z.ID, z.Indicator)
+			cells.Reset()
 			for k, c := range z.Cells {
 				if k > 0 {
-					w.WriteByte(';')
+					cells.WriteByte(';')
 				}
-				fmt.Fprint(w, c)
+				cells.WriteString(strconv.Itoa(c))
 			}
-			w.WriteByte('\n')
+			cw.Write([]string{names[z.Frame], strconv.Itoa(z.ID), string(z.Indicator), cells.String()})
 		}
-		return nil
+		cw.Flush()
+		return cw.Error()
 	})
 }
