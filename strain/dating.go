@@ -229,6 +229,26 @@ func (d *Dating) signal(k int, calibration []bool, n int) []float64 {
 			x[f] -= medianOf(r)
 		}
 	}
+	// A frame whose scatter over the whole face has grown since
+	// calibration (systematic errors that grow with the load: the
+	// interpolation bias of larger gradients, a baseline that bends) counts
+	// its signal in units of that larger scatter, so that what the whole
+	// face shares does not read as this zone's onset.
+	spreads := d.f.spreads[d.onsets[k].Indicator]
+	var calibSpread []float64
+	for f, c := range calibration {
+		if c && f < len(spreads) && spreads[f] > 0 {
+			calibSpread = append(calibSpread, spreads[f])
+		}
+	}
+	if len(calibSpread) > 0 {
+		base := medianOf(calibSpread)
+		for f := range n {
+			if f < len(spreads) && spreads[f] > base {
+				x[f] /= spreads[f] / base
+			}
+		}
+	}
 	var s, ss, w float64
 	for f, c := range calibration[:min(n, len(calibration))] {
 		if c {

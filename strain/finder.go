@@ -49,8 +49,9 @@ type Finder struct {
 	// noise is each strain indicator's noise over the calibration frames
 	// (SetNoise); floor the bar it sets under every frame's threshold.
 	noise, floor map[Indicator]float64
-	// bars is each indicator's threshold per frame, in order.
-	bars map[Indicator][]float64
+	// bars is each indicator's threshold per frame, in order, and spreads
+	// the frame's robust spread of the indicator over the points.
+	bars, spreads map[Indicator][]float64
 }
 
 // Effective returns the configuration with defaults in its zero fields
@@ -152,11 +153,11 @@ func (f *Finder) Add(fr Frame) ([]Zone, error) {
 	}
 	var out []Zone
 	for _, ind := range f.cfg.Indicators {
-		marked, value, bar := f.cfg.Thresholds.marks(ind, f.baseline, fr.Strain, fr.Disp, f.ref, fr.Stress, f.floor[ind])
+		marked, value, bar, spread := f.cfg.Thresholds.marks(ind, f.baseline, fr.Strain, fr.Disp, f.ref, fr.Stress, f.floor[ind])
 		if f.bars == nil {
-			f.bars = map[Indicator][]float64{}
+			f.bars, f.spreads = map[Indicator][]float64{}, map[Indicator][]float64{}
 		}
-		f.bars[ind] = append(f.bars[ind], bar)
+		f.bars[ind], f.spreads[ind] = append(f.bars[ind], bar), append(f.spreads[ind], spread)
 		zones := f.cfg.Thresholds.describe(ind, f.grid, marked, value, fr.Index, f.geo, f.cfg.Scale)
 		f.identify(zones, f.prev[ind])
 		f.prev[ind] = zones

@@ -73,11 +73,12 @@ func (t Thresholds) withDefaults() Thresholds {
 }
 
 // marks returns the points of a frame that pass the indicator's threshold,
-// each point's indicator value and the threshold (the bar; +Inf for a frame
-// with too few points, 0 for decorrelation, whose bar is its rule). floor is the indicator's noise floor
+// each point's indicator value, the threshold (the bar; +Inf for a frame
+// with too few points, 0 for decorrelation, whose bar is its rule) and the
+// frame's robust spread of the indicator (0 where there is none). floor is the indicator's noise floor
 // (see NoiseFloors): the bar is never below it, so that a frame whose
 // scatter is round-off does not mark round-off.
-func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.Field, stress, floor float64) (marked []bool, value []float64, bar float64) {
+func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.Field, stress, floor float64) (marked []bool, value []float64, bar, sigma float64) {
 	t = t.withDefaults()
 	n := len(sf.Points)
 	marked, value = make([]bool, n), make([]float64, n)
@@ -87,7 +88,7 @@ func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.
 				marked[i], value[i] = true, v
 			}
 		}
-		return marked, value, 0
+		return marked, value, 0, 0
 	}
 	var vals []float64
 	have := make([]bool, n)
@@ -100,14 +101,14 @@ func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.
 		vals = append(vals, v)
 	}
 	if len(vals) < 8 {
-		return marked, value, math.Inf(1)
+		return marked, value, math.Inf(1), 0
 	}
 	med, sigma := robustSpread(vals)
 	bar = med + math.Max(math.Max(t.Absolute, floor), t.K*sigma)
 	for i := 0; i < n; i++ {
 		marked[i] = have[i] && value[i] > bar
 	}
-	return marked, value, bar
+	return marked, value, bar, sigma
 }
 
 // value is the indicator's value at point i of a frame: for the strain
