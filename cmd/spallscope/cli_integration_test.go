@@ -2,6 +2,9 @@ package main
 
 import (
 	"bytes"
+	"fmt"
+	"image"
+	"image/png"
 	"math"
 	"os"
 	"path/filepath"
@@ -96,5 +99,30 @@ func TestInspectNonFinitePixels(t *testing.T) {
 	}
 	if !strings.Contains(out, "note: frame 0 (f_1): 2 pixels are NaN or infinite; tracking treats them as unmeasured") {
 		t.Errorf("inspect output lacks the note of 2 non-finite pixels:\n%s", out)
+	}
+}
+
+// inspect tells of a jump of the mean gray level between frames (here
+// +40 %, from 100 to 140), and not of the steady frames before it.
+func TestInspectBrightnessJump(t *testing.T) {
+	dir := t.TempDir()
+	for k, level := range []uint8{100, 101, 140} {
+		img := image.NewGray(image.Rect(0, 0, 16, 16))
+		for i := range img.Pix {
+			img.Pix[i] = level + uint8(i%7)
+		}
+		f, err := os.Create(filepath.Join(dir, fmt.Sprintf("f_%d.png", k)))
+		if err != nil {
+			t.Fatal(err)
+		}
+		png.Encode(f, img)
+		f.Close()
+	}
+	out, err := run(t, "inspect", dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(out, "note: frame 2 (f_2): the mean gray level jumps by +38 %") || strings.Contains(out, "frame 1 (f_1): the mean") {
+		t.Errorf("inspect output does not tell of the one jump:\n%s", out)
 	}
 }

@@ -3,12 +3,17 @@ package main
 import (
 	"errors"
 	"fmt"
+	"math"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
 
 	"spallscope/dic/frames"
 )
+
+// brightnessJump is the change of a frame's mean gray level over the
+// frame before that inspect tells of: 5 % (common practice, no source).
+const brightnessJump = 0.05
 
 func newInspectCmd() *cobra.Command {
 	var (
@@ -52,6 +57,7 @@ every frame that fails instead of stopping at the first.`,
 			fmt.Fprintln(w, "frame\tname\tsize\tdepth\tmin\tmean\tmax\tsaturated\tdark\ttime_s")
 			var bad []error
 			var notes []string
+			prevMean := math.NaN()
 			for i := 0; i < seq.Len(); i++ {
 				img, err := seq.Read(i)
 				if err != nil {
@@ -60,6 +66,10 @@ every frame that fails instead of stopping at the first.`,
 					continue
 				}
 				st := frames.Describe(img)
+				if jump := st.Mean/prevMean - 1; math.Abs(jump) > brightnessJump {
+					notes = append(notes, fmt.Sprintf("frame %d (%s): the mean gray level jumps by %+.0f %% from the frame before (a flash, a lamp, an exposure change?); correlation ignores gain and offset, but look at the frames", i, seq.Name(i), 100*jump))
+				}
+				prevMean = st.Mean
 				if st.NonFinite > 0 {
 					notes = append(notes, fmt.Sprintf("frame %d (%s): %d pixels are NaN or infinite; tracking treats them as unmeasured", i, seq.Name(i), st.NonFinite))
 				}
