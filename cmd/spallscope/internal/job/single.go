@@ -103,7 +103,7 @@ func Zones(t *config.Test, dir, tool string) (rep *strainfile.OnsetReport, notes
 		}
 	}
 	if len(times) != len(names) {
-		return nil, nil, fmt.Errorf("frame times of %s are unknown: give a frame rate here, or track with a frame rate, a times CSV or file times", dir)
+		return nil, nil, fmt.Errorf("frame times of %s are unknown: give a frame rate here, or track with a frame rate, a times CSV, file times or EXIF times", dir)
 	}
 	sigma, err := t.Load.Stress(t.Load.File)
 	if err != nil {
