@@ -8,6 +8,8 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/job"
 	"spallscope/dic/frames"
 )
 
@@ -16,11 +18,7 @@ import (
 const brightnessJump = 0.05
 
 func newInspectCmd() *cobra.Command {
-	var (
-		timesCSV string
-		fps      float64
-		mtime    bool
-	)
+	var tt config.Times
 	cmd := &cobra.Command{
 		Use:   "inspect SOURCE",
 		Short: "Check that every frame of a photo sequence or video decodes, with sizes, depth, exposure and times",
@@ -28,8 +26,14 @@ func newInspectCmd() *cobra.Command {
 SOURCE is a folder of images, a glob in quotes ("cam1/*.tif"), a list file
 (.txt/.lst, one path per line) or a video (.mp4/.avi/...). Frames are sorted in
 natural order (f_2 before f_10). It prints each frame's size, bit depth, gray
-levels and clipped fractions, and its time when a rule is given, and lists
-every frame that fails instead of stopping at the first.`,
+levels and clipped fractions, and its time and the interval since the frame
+before when a rule is given (--times, --fps, --mtime or --exif), and lists
+every frame that fails instead of stopping at the first.
+
+--exif reads each photo's capture time from its EXIF tags (DateTimeOriginal,
+with SubSecTimeOriginal and OffsetTimeOriginal when the camera writes them)
+and notes missing subseconds (1 s resolution) and an irregular interval; a
+time that repeats or goes back is an error naming the frames.`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			seq, err := frames.Open(args[0])
@@ -37,26 +41,13 @@ every frame that fails instead of stopping at the first.`,
 				return err
 			}
 			defer seq.Close()
-			var times []float64
-			switch {
-			case timesCSV != "":
-				times, err = frames.ReadTimes(timesCSV, seq)
-			case fps > 0:
-				times, err = frames.FixedRate(seq.Len(), fps, 0)
-			case mtime:
-				times, err = frames.ModTimes(seq)
-			default:
-				if r, ok := frames.VideoFPS(seq); ok {
-					times, err = frames.FixedRate(seq.Len(), r, 0)
-				}
-			}
+			times, notes, err := job.Times(seq, tt, func(p string) string { return p })
 			if err != nil {
 				return err
 			}
 			w := tabwriter.NewWriter(cmd.OutOrStdout(), 2, 4, 2, ' ', 0)
-			fmt.Fprintln(w, "frame\tname\tsize\tdepth\tmin\tmean\tmax\tsaturated\tdark\ttime_s")
+			fmt.Fprintln(w, "frame\tname\tsize\tdepth\tmin\tmean\tmax\tsaturated\tdark\ttime_s\tinterval_s")
 			var bad []error
-			var notes []string
 			prevMean := math.NaN()
 			for i := 0; i < seq.Len(); i++ {
 				img, err := seq.Read(i)
@@ -73,12 +64,15 @@ every frame that fails instead of stopping at the first.`,
 				if st.NonFinite > 0 {
 					notes = append(notes, fmt.Sprintf("frame %d (%s): %d pixels are NaN or infinite; tracking treats them as unmeasured", i, seq.Name(i), st.NonFinite))
 				}
-				t := "-"
+				t, dt := "-", "-"
 				if times != nil {
 					t = fmt.Sprintf("%.3f", times[i])
+					if i > 0 {
+						dt = fmt.Sprintf("%.3f", times[i]-times[i-1])
+					}
 				}
-				fmt.Fprintf(w, "%d\t%s\t%dx%d\t%d\t%.0f\t%.1f\t%.0f\t%.2f%%\t%.2f%%\t%s\n", i, seq.Name(i),
-					img.Width, img.Height, img.Depth, st.Min, st.Mean, st.Max, 100*st.Saturated, 100*st.Dark, t)
+				fmt.Fprintf(w, "%d\t%s\t%dx%d\t%d\t%.0f\t%.1f\t%.0f\t%.2f%%\t%.2f%%\t%s\t%s\n", i, seq.Name(i),
+					img.Width, img.Height, img.Depth, st.Min, st.Mean, st.Max, 100*st.Saturated, 100*st.Dark, t, dt)
 			}
 			w.Flush()
 			for _, n := range append(notes, frames.Notes(seq)...) {
@@ -90,8 +84,9 @@ every frame that fails instead of stopping at the first.`,
 			return nil
 		},
 	}
-	cmd.Flags().StringVar(&timesCSV, "times", "", "CSV of frame times with columns frame,time_s")
-	cmd.Flags().Float64Var(&fps, "fps", 0, "frames per second (fixed rate)")
-	cmd.Flags().BoolVar(&mtime, "mtime", false, "take frame times from file modification times")
+	cmd.Flags().StringVar(&tt.CSV, "times", "", "CSV of frame times with columns frame,time_s")
+	cmd.Flags().Float64Var(&tt.FPS, "fps", 0, "frames per second (fixed rate)")
+	cmd.Flags().BoolVar(&tt.MTime, "mtime", false, "take frame times from file modification times")
+	cmd.Flags().BoolVar(&tt.EXIF, "exif", false, "take frame times from the photos' EXIF capture times, and print the intervals")
 	return cmd
 }

@@ -16,6 +16,6 @@ to licensed engineers under local codes.`,
 		SilenceUsage:  true,
 		SilenceErrors: true,
 	}
-	root.AddCommand(newSynthCmd(), newInspectCmd(), newTrackCmd(), newStrainCmd(), newZonesCmd(), newRunCmd(), newBatchCmd(), newClusterCmd(), newExportCmd(), newRenderCmd(), newReportCmd(), newCompareCmd(), newPatternCmd(), newBenchCmd(), newDemoCmd())
+	root.AddCommand(newSynthCmd(), newInspectCmd(), newCalibrateCmd(), newTrackCmd(), newStrainCmd(), newZonesCmd(), newRunCmd(), newBatchCmd(), newClusterCmd(), newExportCmd(), newRenderCmd(), newReportCmd(), newCompareCmd(), newPatternCmd(), newBenchCmd(), newDemoCmd())
 	return root
 }

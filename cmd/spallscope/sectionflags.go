@@ -88,6 +88,7 @@ func bindInputs(fs *pflag.FlagSet, t *config.Test) {
 	b.str(&t.Mask, "mask", "mask", "", "mask image the size of the reference: nonzero pixels are measured")
 	b.value(&listValue[string]{dst: &t.Exclude, typ: "shape", parse: func(s string) (string, error) { return s, nil }},
 		"exclude", "exclude", "exclude a shape, repeatable: circle:cx,cy,r  ellipse:cx,cy,rx,ry[,deg]  polygon:x1,y1,...  rect:x0,y0,x1,y1")
+	b.str(&t.Lens, "lens", "lens", "", "lens file from 'spallscope calibrate': take the lens distortion out of the fields (fields then in undistorted px)")
 	bindTimes(fs, &t.Times)
 	bindScale(fs, &t.Scale)
 }
@@ -98,6 +99,7 @@ func bindTimes(fs *pflag.FlagSet, t *config.Times) {
 	b.str(&t.CSV, "times", "times.csv", "", "frame times: CSV with columns frame,time_s")
 	b.float(&t.FPS, "fps", "times.fps", 0, "frame times: fixed rate in frames per second (default for video: its stated rate)")
 	b.bool(&t.MTime, "mtime", "times.mtime", "frame times: file modification times")
+	b.bool(&t.EXIF, "exif", "times.exif", "frame times: the photos' EXIF capture times (DateTimeOriginal, SubSecTimeOriginal, OffsetTimeOriginal)")
 }
 
 // bindScale binds the image-scale options.

@@ -23,12 +23,14 @@ var optionSamples = map[string][2]string{
 	"reference": {"3", `"3"`},
 	"roi":       {"rect:0,0,50,50", `"rect:0,0,50,50"`},
 	"mask":      {"mask.png", "mask.png"},
+	"lens":      {"lens.json", "lens.json"},
 	"exclude":   {"circle:9,9,4", `["circle:9,9,4"]`},
 	"openings":  {"W=circle:9,9,4", `[{name: W, shape: "circle:9,9,4"}]`},
 
 	"times.csv":       {"times.csv", "times.csv"},
 	"times.fps":       {"2.5", "2.5"},
 	"times.mtime":     {"true", "true"},
+	"times.exif":      {"true", "true"},
 	"scale.mm_per_px": {"0.05", "0.05"},
 	"scale.line":      {"0,0,100,0,5", "[0, 0, 100, 0, 5]"},
 
@@ -93,7 +95,7 @@ var runFolderOptions = map[string]bool{"out": true, "fields": true, "strain": tr
 // The YAML keys of the sections the stage commands configure; every one
 // must be settable from the command line.
 var cliSections = []string{"correlation", "strain", "zones", "load", "times", "scale"}
-var cliTopKeys = []string{"images", "reference", "roi", "mask", "exclude", "openings"}
+var cliTopKeys = []string{"images", "reference", "roi", "mask", "lens", "exclude", "openings"}
 
 // Every option of track, strain and zones sets a YAML key, every YAML key
 // of their sections has an option, and an option and its key give the same

@@ -42,6 +42,15 @@ For anything richer (several fields, openings, spalling, a load history) write
 the scenario as JSON: --print-spec prints the scenario the flags describe, to
 edit and pass back with --spec. The demo scenario is 'spallscope demo'.
 
+A real camera: the scenario's "lens" (fx_px, fy_px, cx_px, cy_px, k1, k2, k3,
+p1, p2; the Brown–Conrady model of 'spallscope calibrate') shoots every frame
+through that distortion, each pixel sample mapped through the lens's inverse
+(the field, openings and truth stay in undistorted px). "targets" ({"board":
+{"cols", "rows", "square_mm"}, "poses": N}) adds N chessboard photos through
+the same camera at poses that cover the frame, for calibrate:
+  targets/target_NN.png   chessboard photos
+  lens_truth.json         the lens as a lens file, with the boards' poses
+
 Output folder:
   frames/<name>.png   frames; frame 0 is the undeformed reference
   truth/<name>.csv    exact x,y,u,v,dudx,dudy,dvdx,dvdy,material on a grid (px)

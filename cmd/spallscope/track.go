@@ -54,7 +54,15 @@ Output: DIR/fields/<frame>.csv with columns
 (px in the reference, origin at the top-left pixel centre, x right, y down;
 u, v in px; NaN where a point has no measurement) and a "track" section in
 DIR/run.json. Each file is complete once it exists; a frame that cannot be
-read stops the run with an error naming it and keeps the fields written.`,
+read stops the run with an error naming it and keeps the fields written.
+
+Lens: with --lens FILE (from 'spallscope calibrate') the distortion is taken
+out of the coordinates, not the photos: each grid point's reference and
+deformed positions are undistorted and the displacement is their difference.
+The grid of DIR/fields is then regular in undistorted px (the photo's pixels
+at the principal point), and strains and a scale line come from undistorted
+positions; the tracker's own fields, in photo px, are kept in
+DIR/photo_fields.`,
 		Example: `  spallscope track --images photos/ --ref 0 --exclude circle:1012,980,240 --out run1
   spallscope track --images "cam1/*.tif" --subset 31 --step 10 --order 2 --out run2`,
 		Args: cobra.NoArgs,
@@ -70,8 +78,15 @@ read stops the run with an error naming it and keeps the fields written.`,
 			if err != nil {
 				return asFlagError(cmd.Flags(), err)
 			}
+			for _, n := range rec.Notes {
+				fmt.Fprintln(cmd.OutOrStdout(), "note:", n)
+			}
 			fmt.Fprintf(cmd.OutOrStdout(), "tracked %d frames, %d points each, in %.1f s: %s\n",
 				len(rec.Frames), rec.Grid.Len(), rec.Seconds, filepath.Join(out, runfolder.FieldsDir))
+			if rec.Lens != nil {
+				fmt.Fprintf(cmd.OutOrStdout(), "lens distortion taken out with %s: fields in undistorted px; the tracker's own fields in %s\n",
+					rec.Lens.File, filepath.Join(out, runfolder.PhotoFieldsDir))
+			}
 			return nil
 		},
 	}

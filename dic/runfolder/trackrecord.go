@@ -29,6 +29,12 @@ type TrackRecord struct {
 	// Unmeasured lists the frames in which no point was measured
 	// (untextured, blank or lost photos).
 	Unmeasured []string `json:"unmeasured_frames,omitempty"`
+	// Lens is the lens whose distortion was taken out of the fields (nil:
+	// none; the fields are in photo pixels).
+	Lens *LensRecord `json:"lens,omitempty"`
+	// Notes are what the user should know of the inputs (the frame times'
+	// warnings).
+	Notes []string `json:"notes,omitempty"`
 }
 
 // Frames lists the frames of a run folder whose displacement fields exist,

@@ -8,6 +8,7 @@ import (
 	"sync"
 	"sync/atomic"
 
+	"spallscope/dic/lens"
 	"spallscope/subset"
 )
 
@@ -79,6 +80,11 @@ type Scene struct {
 	// whose texture no longer correlates with the reference.
 	Spalled []Opening
 	Fresh   *Speckles
+	// Lens, if not nil, is the camera's lens: the scene (pattern, field,
+	// openings) lives in the lens's ideal pixels and each sample of the
+	// photo is first mapped to ideal pixels by the lens's inverse. nil is
+	// a perfect lens.
+	Lens *lens.Model
 }
 
 // gaussLegendre returns nodes on [−½, ½] and weights summing to 1
@@ -147,7 +153,8 @@ func Render(sc Scene, cam Camera, width, height, frame int) (*subset.Image, erro
 // Expose returns the light reaching each pixel of a width×height frame, in
 // gray levels of the camera's depth, before blur, noise and quantisation.
 // Each pixel integrates over its area with cam.Oversample² Gauss–Legendre
-// points, each mapped back to the reference by Invert.
+// points, each mapped to ideal pixels through the scene's lens, if any
+// (lens.Model.Undistort), and back to the reference by Invert.
 func Expose(sc Scene, cam Camera, width, height int) (*subset.Image, error) {
 	cam = cam.withDefaults()
 	if err := cam.Validate(); err != nil {
@@ -177,6 +184,13 @@ func Expose(sc Scene, cam Camera, width, height int) (*subset.Image, error) {
 					for j, oy := range nodes {
 						for i, ox := range nodes {
 							px, py := float64(x)+ox, float64(y)+oy
+							if sc.Lens != nil {
+								var seen bool
+								if px, py, seen = sc.Lens.Undistort(px, py); !seen {
+									sum += weights[i] * weights[j] * cam.Void
+									continue
+								}
+							}
 							X, Y, ok := invertFrom(sc.Field, px, py, px+dx, py+dy)
 							if (dx != 0 || dy != 0) && (!ok || sc.inOpening(X, Y)) {
 								// A warm start can land across a jump or on a spurious

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+
+	"spallscope/dic/lens"
 )
 
 // Drive says how a field's magnitude follows the test, frame by frame.
@@ -142,6 +144,27 @@ type Scenario struct {
 	// by the Fourier shift theorem applied to the reference frame (exact for
 	// a periodic pattern) instead of moving the spots.
 	FourierTranslation bool `json:"fourier_translation,omitempty"`
+	// Lens, if set, is the camera's lens: frames are shot through its
+	// distortion, while the pattern, the fields, the openings and the truth
+	// stay in its ideal pixels (see lens.Model). Its image size may be left
+	// out (zero): it is the scenario's.
+	Lens *lens.Model `json:"lens,omitempty"`
+	// Targets, if set, asks for chessboard photos through the lens for
+	// calibration, written beside the frames (needs Lens).
+	Targets *Targets `json:"targets,omitempty"`
+}
+
+// LensModel returns the scenario's lens with its image size filled in,
+// or nil for a perfect lens.
+func (sc *Scenario) LensModel() *lens.Model {
+	if sc.Lens == nil {
+		return nil
+	}
+	m := *sc.Lens
+	if m.Width == 0 && m.Height == 0 {
+		m.Width, m.Height = sc.Width, sc.Height
+	}
+	return &m
 }
 
 // Validate reports the first problem that would stop the scenario from
@@ -194,6 +217,25 @@ func (sc *Scenario) Validate() error {
 	}
 	if sc.Load.PeakStress > 0 && !(sc.Specimen.LoadedArea() > 0) {
 		errs = append(errs, errors.New("specimen: width_mm and thickness_mm are needed to turn stress into force"))
+	}
+	if m := sc.LensModel(); m != nil {
+		switch {
+		case m.Width != sc.Width || m.Height != sc.Height:
+			errs = append(errs, fmt.Errorf("lens: image size %dx%d, expected the scenario's %dx%d (or leave it out)", m.Width, m.Height, sc.Width, sc.Height))
+		case sc.FourierTranslation:
+			errs = append(errs, errors.New("fourier_translation cannot render through a lens (a shift in ideal pixels is no shift of the photo)"))
+		default:
+			if err := m.Validate(); err != nil {
+				errs = append(errs, fmt.Errorf("lens: %w", err))
+			}
+		}
+	}
+	if sc.Targets != nil {
+		if sc.Lens == nil {
+			errs = append(errs, errors.New("targets: need a lens (the camera the targets are shot with)"))
+		} else if err := sc.Targets.Validate(); err != nil {
+			errs = append(errs, fmt.Errorf("targets: %w", err))
+		}
 	}
 	switch sc.Format {
 	case "", "png", "tif":

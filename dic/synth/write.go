@@ -39,6 +39,8 @@ type Truth struct {
 	Scenario  Scenario     `json:"scenario"`
 	Frames    []FrameTruth `json:"frames"`
 	LoadLog   string       `json:"load_log"`
+	// Targets lists the chessboard photos, when the scenario asks for them.
+	Targets []TargetTruth `json:"targets,omitempty"`
 }
 
 // Layout of a synthetic sequence folder.
@@ -56,6 +58,8 @@ const (
 //	dir/truth/<name>.csv        x,y,u,v,dudx,dudy,dvdx,dvdy,material
 //	dir/truth.json              scenario and per-frame time, stress, force
 //	dir/loadlog.csv             time_s,force_kN,stroke_mm on the log's clock
+//	dir/targets/target_NN.png   chessboard photos through the lens (Targets)
+//	dir/lens_truth.json         the lens as a lens file, with the targets' poses
 //
 // progress, if not nil, is called after each frame. Every file is written
 // atomically.
@@ -88,7 +92,7 @@ func Write(sc *Scenario, dir string, progress func(done, total int)) (*Truth, er
 	var reference *subset.Image // unrecorded exposure of frame 0, for Fourier translation
 	for f := 0; f < sc.Frames; f++ {
 		field := sc.FieldAt(f)
-		scene := Scene{Speckles: speckles, Field: field, Openings: sc.Openings, Fresh: fresh}
+		scene := Scene{Speckles: speckles, Field: field, Openings: sc.Openings, Fresh: fresh, Lens: sc.LensModel()}
 		for _, s := range sc.Spalls {
 			if f >= s.Frame {
 				scene.Spalled = append(scene.Spalled, s.Region)
@@ -131,6 +135,11 @@ func Write(sc *Scenario, dir string, progress func(done, total int)) (*Truth, er
 	}
 	if err := writeLoadLog(filepath.Join(dir, LoadLogCSV), sc); err != nil {
 		return nil, err
+	}
+	if sc.Targets != nil {
+		if truth.Targets, err = writeTargets(sc, dir); err != nil {
+			return nil, err
+		}
 	}
 	err = runfolder.WriteJSON(filepath.Join(dir, TruthFile), truth)
 	if err != nil {

@@ -44,6 +44,8 @@ type Test struct {
 	AE          AE          `yaml:"ae"`
 	Model       Model       `yaml:"model"`
 	Outputs     Outputs     `yaml:"outputs"`
+	// Camera holds the camera's keys (lens), at the top level.
+	Camera `yaml:",inline"`
 	// Faces lists the camera views of a test filmed from several sides.
 	// Each face is tracked and analysed on its own, with its own photos,
 	// geometry, scale and camera clock, against the one load log; keys a
@@ -67,6 +69,8 @@ type Face struct {
 	Openings  []Opening `yaml:"openings"`
 	Exclude   []string  `yaml:"exclude"`
 	Mask      string    `yaml:"mask"`
+	// Camera holds the face camera's keys (lens).
+	Camera `yaml:",inline"`
 	// ClockOffset is the load log's clock minus this camera's, in s (unset:
 	// the test's load.clock_offset_s); Sync gives a sync pair instead.
 	ClockOffset *float64  `yaml:"clock_offset_s"`
@@ -92,6 +96,7 @@ func (t *Test) FaceTest(i int) *Test {
 	set(&c.Reference, f.Reference)
 	set(&c.ROI, f.ROI)
 	set(&c.Mask, f.Mask)
+	set(&c.Lens, f.Lens)
 	if f.Times != (Times{}) {
 		c.Times = f.Times
 	}
@@ -170,13 +175,13 @@ func (t *Test) check() error {
 		}
 	}
 	n := 0
-	for _, set := range []bool{t.Times.FPS != 0, t.Times.CSV != "", t.Times.MTime} {
+	for _, set := range []bool{t.Times.FPS != 0, t.Times.CSV != "", t.Times.MTime, t.Times.EXIF} {
 		if set {
 			n++
 		}
 	}
 	if n > 1 {
-		errs = append(errs, "times: give one of fps, csv and mtime")
+		errs = append(errs, "times: give one of fps, csv, mtime and exif")
 	}
 	if t.Times.FPS < 0 {
 		errs = append(errs, fmt.Sprintf("times.fps: %g, expected a positive rate", t.Times.FPS))

@@ -52,7 +52,7 @@ func TestConfigErrors(t *testing.T) {
 		{"images: [x\n", "test.yaml"},
 		{"reference: 0\n", "images: required"},
 		{"images: x\nload: {file: f.csv}\n", "load.area_mm2: required"},
-		{"images: x\ntimes: {fps: 2, mtime: true}\n", "give one of fps, csv and mtime"},
+		{"images: x\ntimes: {fps: 2, mtime: true}\n", "give one of fps, csv, mtime and exif"},
 	}
 	for _, c := range cases {
 		_, err := Parse([]byte(c.yaml), "test.yaml")

@@ -53,6 +53,9 @@ func TestMain(m *testing.M) {
 	if band.dir != "" {
 		os.RemoveAll(band.dir)
 	}
+	if lensFixture.dir != "" {
+		os.RemoveAll(lensFixture.dir)
+	}
 	os.Exit(code)
 }
 

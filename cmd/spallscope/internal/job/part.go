@@ -187,12 +187,13 @@ func TrackPart(ctx context.Context, configPath, testDir, tool string, p Part, pr
 	}
 	if from == p.From {
 		os.RemoveAll(filepath.Join(dir, runfolder.FieldsDir))
+		os.RemoveAll(filepath.Join(dir, runfolder.PhotoFieldsDir))
 	}
 	if err := runfolder.SetSection(dir, "stages", map[string]stageRecord{"track": {Fingerprint: tp.fingerprint}}); err != nil {
 		return err
 	}
 	start := time.Now()
-	tr, err := stage.Track(ctx, dir, headSequence{tp.in.Seq, p.To}, tracker, tp.record(t, tool), from,
+	tr, err := stage.Track(ctx, dir, headSequence{tp.in.Seq, p.To}, tracker, tp.lens, tp.record(t, tool), from,
 		func(done int, _ *dic.Field) { progress("track", done-p.From, p.To-p.From) })
 	if err != nil {
 		return fmt.Errorf("test %s, %s: %w", t.Name, p, err)
@@ -246,6 +247,11 @@ func AssembleParts(t *config.Test, testDir, tool string, parts []Part) error {
 	if err := os.MkdirAll(filepath.Join(testDir, runfolder.FieldsDir), 0o755); err != nil {
 		return err
 	}
+	if tp.lens != nil {
+		if err := os.MkdirAll(filepath.Join(testDir, runfolder.PhotoFieldsDir), 0o755); err != nil {
+			return err
+		}
+	}
 	rec := tp.record(t, tool)
 	var seconds float64
 	for k, p := range parts {
@@ -253,6 +259,11 @@ func AssembleParts(t *config.Test, testDir, tool string, parts []Part) error {
 			name := tp.in.Seq.Name(i)
 			if err := linkOrCopy(runfolder.FieldPath(p.Dir(testDir), name), runfolder.FieldPath(testDir, name)); err != nil {
 				return fmt.Errorf("test %s, %s: %w", t.Name, p, err)
+			}
+			if tp.lens != nil {
+				if err := linkOrCopy(runfolder.PhotoFieldPath(p.Dir(testDir), name), runfolder.PhotoFieldPath(testDir, name)); err != nil {
+					return fmt.Errorf("test %s, %s: %w", t.Name, p, err)
+				}
 			}
 			rec.Frames = append(rec.Frames, name)
 		}
@@ -294,7 +305,7 @@ func linkOrCopy(src, dst string) error {
 
 // TrackFingerprint is the fingerprint of test t's track stage as run by
 // tool: it changes when the photos, reference, region, mask, correlation
-// settings, scale or tool change.
+// settings, scale, lens file or tool change.
 func TrackFingerprint(t *config.Test, tool string) (string, error) {
 	tp, err := prepareTrack(t, tool)
 	if err != nil {

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"strconv"
 
+	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/dic/frames"
 	"spallscope/dic/region"
 	"spallscope/subset"
@@ -86,29 +87,34 @@ func openPhotos(images, reference, roi string, exclude []string, maskFile string
 	return in, nil
 }
 
-// Times returns the frame times from one rule: a CSV, a fixed rate, file
-// modification times, or (none given) a video's own rate; nil if unknown.
-func Times(seq frames.Sequence, csv string, fps float64, mtime bool) ([]float64, error) {
+// Times returns the frame times from one rule of section t: a CSV
+// (resolved by resolve), a fixed rate, file modification times, EXIF
+// capture times, or (none given) a video's own rate; nil if unknown.
+// notes are what the user should know of the times (EXIF's warnings).
+func Times(seq frames.Sequence, t config.Times, resolve func(string) string) (times []float64, notes []string, err error) {
 	n := 0
-	for _, set := range []bool{csv != "", fps != 0, mtime} {
+	for _, set := range []bool{t.CSV != "", t.FPS != 0, t.MTime, t.EXIF} {
 		if set {
 			n++
 		}
 	}
 	switch {
 	case n > 1:
-		return nil, fmt.Errorf("frame times: give one of a times CSV, a frame rate and file times")
-	case fps < 0:
-		return nil, fmt.Errorf("frame rate %g, expected a positive number of frames per second", fps)
-	case csv != "":
-		return frames.ReadTimes(csv, seq)
-	case fps > 0:
-		return frames.FixedRate(seq.Len(), fps, 0)
-	case mtime:
-		return frames.ModTimes(seq)
+		return nil, nil, fmt.Errorf("frame times: give one of a times CSV, a frame rate, file times and EXIF times")
+	case t.FPS < 0:
+		return nil, nil, fmt.Errorf("frame rate %g, expected a positive number of frames per second", t.FPS)
+	case t.CSV != "":
+		times, err = frames.ReadTimes(resolve(t.CSV), seq)
+	case t.FPS > 0:
+		times, err = frames.FixedRate(seq.Len(), t.FPS, 0)
+	case t.MTime:
+		times, err = frames.ModTimes(seq)
+	case t.EXIF:
+		return frames.ExifTimes(seq)
+	default:
+		if r, ok := frames.VideoFPS(seq); ok {
+			times, err = frames.FixedRate(seq.Len(), r, 0)
+		}
 	}
-	if r, ok := frames.VideoFPS(seq); ok {
-		return frames.FixedRate(seq.Len(), r, 0)
-	}
-	return nil, nil
+	return times, nil, err
 }

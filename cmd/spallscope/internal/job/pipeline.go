@@ -46,7 +46,7 @@ type step struct {
 // pipeline is the stage table of a test's run, in order.
 var pipeline = []step{
 	{name: "track", prepare: (*testRun).prepareTrack, run: (*testRun).track, resumable: true,
-		outputs: []string{runfolder.FieldsDir}},
+		outputs: []string{runfolder.FieldsDir, runfolder.PhotoFieldsDir}},
 	{name: "strain", prepare: (*testRun).prepareStrain, run: (*testRun).strain,
 		outputs: []string{strainfile.StrainDir}},
 	{name: "zones", prepare: (*testRun).prepareZones, run: (*testRun).zones,

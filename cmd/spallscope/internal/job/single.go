@@ -37,7 +37,7 @@ func Track(ctx context.Context, t *config.Test, out, tool string, progress func(
 		return runfolder.TrackRecord{}, err
 	}
 	n, points := tp.in.Seq.Len(), tracker.Grid().Len()
-	return stage.Track(ctx, out, tp.in.Seq, tracker, tp.record(t, tool), 0, func(done int, _ *dic.Field) {
+	return stage.Track(ctx, out, tp.in.Seq, tracker, tp.lens, tp.record(t, tool), 0, func(done int, _ *dic.Field) {
 		if progress != nil {
 			progress(done, n, points)
 		}
@@ -103,7 +103,7 @@ func Zones(t *config.Test, dir, tool string) (rep *strainfile.OnsetReport, notes
 		}
 	}
 	if len(times) != len(names) {
-		return nil, nil, fmt.Errorf("frame times of %s are unknown: give a frame rate here, or track with a frame rate, a times CSV or file times", dir)
+		return nil, nil, fmt.Errorf("frame times of %s are unknown: give a frame rate here, or track with a frame rate, a times CSV, file times or EXIF times", dir)
 	}
 	sigma, err := t.Load.Stress(t.Load.File)
 	if err != nil {

@@ -32,6 +32,7 @@ func (r *testRun) prepareTrack() ([]any, error) {
 		r.hashes[k] = v
 	}
 	r.notes = append(r.notes, frames.Notes(tp.in.Seq)...)
+	r.notes = append(r.notes, tp.notes...)
 	return tp.inputs, nil
 }
 
@@ -49,11 +50,11 @@ func (r *testRun) track(ctx context.Context, resume bool) error {
 		from = r.tp.resume(r.out, tracker, 0, in.Seq.Len())
 	}
 	if from == 0 {
-		removeOutputs(r.out, []string{runfolder.FieldsDir})
+		removeOutputs(r.out, []string{runfolder.FieldsDir, runfolder.PhotoFieldsDir})
 	}
 	r.resumed = from
 	n := in.Seq.Len()
-	_, err = stage.Track(ctx, r.out, in.Seq, tracker, r.tp.record(r.t, r.tool), from,
+	_, err = stage.Track(ctx, r.out, in.Seq, tracker, r.tp.lens, r.tp.record(r.t, r.tool), from,
 		func(done int, _ *dic.Field) { r.progress("track", done, n) })
 	return err
 }
@@ -80,7 +81,7 @@ func (r *testRun) strain(ctx context.Context, _ bool) error {
 func (r *testRun) prepareZones() ([]any, error) {
 	t := r.t
 	if len(r.tp.times) != r.tp.in.Seq.Len() {
-		return nil, fmt.Errorf("frame times are unknown: give times (fps, csv or mtime) in the test config")
+		return nil, fmt.Errorf("frame times are unknown: give times (fps, csv, mtime or exif) in the test config")
 	}
 	st, err := t.Zones.Stage(t.Openings)
 	if err != nil {

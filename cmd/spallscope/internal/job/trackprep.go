@@ -7,6 +7,7 @@ import (
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/dic"
+	"spallscope/dic/lens"
 	"spallscope/dic/runfolder"
 )
 
@@ -20,7 +21,10 @@ type trackInputs struct {
 	times       []float64
 	exclude     []string
 	maskHash    string
-	hashes      map[string]string // "mask" and "images", for run.json
+	lens        *lens.Correction // nil without a lens file
+	lensRecord  *runfolder.LensRecord
+	notes       []string          // what the user should know of the frame times
+	hashes      map[string]string // "mask", "images" and "lens", for run.json
 	inputs      []any             // what decides the track stage's output
 	fingerprint string
 }
@@ -45,10 +49,13 @@ func prepareTrack(t *config.Test, tool string) (*trackInputs, error) {
 	if tp.settings, err = t.Correlation.Settings(); err != nil {
 		return fail(inTest(t, fmt.Errorf("correlation: %w", err)))
 	}
-	if tp.scale, err = t.Scale.Value(); err != nil {
+	if err := tp.openLens(t); err != nil {
 		return fail(inTest(t, err))
 	}
-	if tp.times, err = Times(tp.in.Seq, t.Resolve(t.Times.CSV), t.Times.FPS, t.Times.MTime); err != nil {
+	if tp.scale, err = scaleOf(t.Scale, tp.lens); err != nil {
+		return fail(inTest(t, err))
+	}
+	if tp.times, tp.notes, err = Times(tp.in.Seq, t.Times, t.Resolve); err != nil {
 		return fail(inTest(t, err))
 	}
 	if tp.maskHash, err = fileHash(t.Resolve(t.Mask)); err != nil {
@@ -57,13 +64,57 @@ func prepareTrack(t *config.Test, tool string) (*trackInputs, error) {
 	tp.hashes["mask"] = tp.maskHash
 	tp.hashes["images"] = sequenceDigest(tp.in.Seq)
 	tp.inputs = []any{tool, tp.hashes["images"], resolveRef(t), t.ROI, tp.exclude, tp.maskHash, tp.settings, tp.scale}
+	if tp.lens != nil {
+		tp.inputs = append(tp.inputs, "lens", tp.hashes["lens"])
+	}
 	tp.fingerprint = stageFingerprint("track", "", tp.inputs)
 	return tp, nil
 }
 
 // record is the start of the track stage's run.json section.
 func (tp *trackInputs) record(t *config.Test, tool string) runfolder.TrackRecord {
-	return runfolder.TrackRecord{Tool: tool, Images: t.Resolve(t.Images), Reference: resolveRef(t), MMPerPx: tp.scale, Times: tp.times, Exclude: tp.exclude}
+	return runfolder.TrackRecord{Tool: tool, Images: t.Resolve(t.Images), Reference: resolveRef(t), MMPerPx: tp.scale, Times: tp.times, Exclude: tp.exclude, Lens: tp.lensRecord, Notes: tp.notes}
+}
+
+// openLens reads test t's lens file, if it names one, and checks it
+// against the photos: the correction of the track stage's output.
+func (tp *trackInputs) openLens(t *config.Test) error {
+	if t.Lens == "" {
+		return nil
+	}
+	path := t.Resolve(t.Lens)
+	m, err := lens.Read(path)
+	if err != nil {
+		return err
+	}
+	if tp.lens, err = lens.NewCorrection(m, tp.in.Ref.Width, tp.in.Ref.Height, tp.in.Mask); err != nil {
+		return fmt.Errorf("lens file %s: %w", path, err)
+	}
+	if tp.hashes["lens"], err = fileHash(path); err != nil {
+		return err
+	}
+	tp.lensRecord = &runfolder.LensRecord{File: path, SHA256: tp.hashes["lens"]}
+	return nil
+}
+
+// scaleOf is the image scale of section s. With a lens, a scale line's
+// end points (photo pixels) are undistorted first, so that the scale is
+// in mm per undistorted pixel, like the corrected fields; a scale given
+// as mm_per_px is taken as it is (at the principal point an undistorted
+// pixel is a photo pixel).
+func scaleOf(s config.Scale, corr *lens.Correction) (dic.Scale, error) {
+	if corr == nil || len(s.Line) != 5 || s.MMPerPx != 0 {
+		return s.Value()
+	}
+	l := s.Line
+	d, err := corr.Model.Length(l[0], l[1], l[2], l[3])
+	if err != nil {
+		return 0, fmt.Errorf("scale.line: %w", err)
+	}
+	if !(d > 0) || !(l[4] > 0) {
+		return s.Value() // its own error
+	}
+	return dic.Scale(l[4] / d), nil
 }
 
 // resume finds the first of frames from … to−1 without a complete field
@@ -82,7 +133,11 @@ func (tp *trackInputs) resume(dir string, tracker *dic.Tracker, from, to int) in
 	if next == from {
 		return from
 	}
-	f, err := runfolder.ReadField(runfolder.FieldPath(dir, tp.in.Seq.Name(next-1)))
+	src := runfolder.FieldPath(dir, tp.in.Seq.Name(next-1))
+	if tp.lens != nil { // the tracker resumes from its own, photo-pixel field
+		src = runfolder.PhotoFieldPath(dir, tp.in.Seq.Name(next-1))
+	}
+	f, err := runfolder.ReadField(src)
 	if err == nil {
 		err = tracker.Resume(f) // leaves the tracker as it was on error
 	}

@@ -10,6 +10,7 @@ import (
 
 	"spallscope/dic"
 	"spallscope/dic/frames"
+	"spallscope/dic/lens"
 	"spallscope/dic/runfolder"
 )
 
@@ -24,14 +25,22 @@ var ErrNothingMeasured = errors.New("nothing measured")
 // then the "track" section of dir/run.json (rec, completed with frames and
 // time). progress, if not nil, is called after each frame with the frame
 // count and the field.
-// rec.Times, when set, must hold one time per frame. A
+// rec.Times, when set, must hold one time per frame. With a lens
+// correction corr (nil: none) the tracker's own field goes to
+// dir/photo_fields/<frame>.csv first and the corrected field, in
+// undistorted pixels, to dir/fields/<frame>.csv. A
 // frame that cannot be read stops the stage with an error naming it; the
 // fields already written stay. When ctx is done the stage stops before
 // its next frame with a *Stopped error; the fields written stay, so that
 // the run can resume after them.
-func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tracker, rec runfolder.TrackRecord, from int, progress func(done int, f *dic.Field)) (runfolder.TrackRecord, error) {
+func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tracker, corr *lens.Correction, rec runfolder.TrackRecord, from int, progress func(done int, f *dic.Field)) (runfolder.TrackRecord, error) {
 	if err := os.MkdirAll(filepath.Join(dir, runfolder.FieldsDir), 0o755); err != nil {
 		return rec, err
+	}
+	if corr != nil {
+		if err := os.MkdirAll(filepath.Join(dir, runfolder.PhotoFieldsDir), 0o755); err != nil {
+			return rec, err
+		}
 	}
 	if rec.Times != nil && len(rec.Times) != seq.Len() {
 		return rec, fmt.Errorf("track: %d frame times for %d frames", len(rec.Times), seq.Len())
@@ -52,6 +61,12 @@ func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tr
 		field, err := tracker.Track(img, i, seq.Name(i))
 		if err != nil {
 			return rec, err
+		}
+		if corr != nil {
+			if err := runfolder.WriteField(runfolder.PhotoFieldPath(dir, seq.Name(i)), field, 0); err != nil {
+				return rec, err
+			}
+			field = corr.Field(field)
 		}
 		if err := runfolder.WriteField(runfolder.FieldPath(dir, seq.Name(i)), field, rec.MMPerPx); err != nil {
 			return rec, err
