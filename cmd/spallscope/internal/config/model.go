@@ -1,5 +1,7 @@
 package config
 
+import "fmt"
+
 // Model is a numerical model's field to hold against the measurement: a
 // CSV of points (x, y and any of u, v, exx, eyy, exy) at the load level
 // LoadMPa, compared at the frame whose nominal stress is nearest. Its
@@ -15,4 +17,19 @@ type Model struct {
 	YUp                 bool      `yaml:"y_up"`
 	CompressionPositive bool      `yaml:"compression_positive"`
 	Face                string    `yaml:"face"`
+}
+
+// check checks the section's own values; the test checks what it needs
+// from the rest (a scale for mm, the face).
+func (m Model) check() error {
+	var p Problems
+	if m.File != "" && m.LoadMPa == 0 && m.Frame == "" {
+		p.add(fmt.Errorf("model: give load_mpa (the model's load level) or frame"))
+	}
+	p.add(checkBounds(
+		bound{"model.load_mpa", m.LoadMPa, m.LoadMPa == 0 || (m.LoadMPa > 0 && finite(m.LoadMPa)), "a finite positive stress in MPa (compression positive)"},
+		bound{"model.origin_px", m.Origin, len(m.Origin) == 0 || (len(m.Origin) == 2 && finiteAll(m.Origin)), "[x, y]: a finite point in px"},
+		bound{"model.units", m.Units, m.Units == "" || m.Units == "mm" || m.Units == "px", "mm or px"},
+	))
+	return p.err()
 }
