@@ -40,6 +40,12 @@ func checkSchema(data []byte, doc any, t reflect.Type) error {
 		}
 	}
 	w.walk(t, doc, nil)
+	if w.values > maxSchemaValues {
+		return &schemaProblem{0, fmt.Errorf("the document holds more than %d values (aliases repeat what they name); a config is far smaller", maxSchemaValues)}
+	}
+	if w.full() {
+		w.problems = append(w.problems, &schemaProblem{0, fmt.Errorf("more problems not looked for after the first %d", maxSchemaProblems)})
+	}
 	order := func(p *schemaProblem) int { // problems without a line (through a merge key) last
 		if p.line == 0 {
 			return math.MaxInt
@@ -54,8 +60,21 @@ func checkSchema(data []byte, doc any, t reflect.Type) error {
 	return p.err()
 }
 
+// maxSchemaProblems is how many problems checkSchema collects before it
+// stops looking: aliases can repeat one mapping of a thousand unknown keys
+// a thousand times in 13 kB, and each problem costs a look-up of its line.
+const maxSchemaProblems = 100
+
+// maxSchemaValues is the most values checkSchema takes from a document,
+// counted as the decoder would build them (an alias counts as often as it
+// is used): the example config holds about 150, and a thousand faces of a
+// thousand openings, written in 20 kB with an alias, would take seconds
+// to check and decode.
+const maxSchemaValues = 100_000
+
 // schemaWalk is one pass of checkSchema.
 type schemaWalk struct {
+	values   int                 // values walked
 	root     ast.Node            // the document's AST, for lines (nil: none)
 	anchors  map[string]ast.Node // anchor name → its value
 	problems []*schemaProblem
@@ -104,12 +123,15 @@ var (
 	ifaceUnmarshaler = reflect.TypeFor[yaml.InterfaceUnmarshaler]()
 )
 
+// full reports whether the walk has found maxSchemaProblems problems.
+func (w *schemaWalk) full() bool { return len(w.problems) >= maxSchemaProblems }
+
 // walk checks value v of Go type t at path.
 func (w *schemaWalk) walk(t reflect.Type, v any, path []step) {
 	for t.Kind() == reflect.Pointer {
 		t = t.Elem()
 	}
-	if v == nil {
+	if w.values++; v == nil || w.full() || w.values > maxSchemaValues {
 		return
 	}
 	if p := reflect.PointerTo(t); p.Implements(textUnmarshaler) || p.Implements(bytesUnmarshaler) || p.Implements(ifaceUnmarshaler) {
@@ -128,6 +150,9 @@ func (w *schemaWalk) walk(t reflect.Type, v any, path []step) {
 		}
 		sort.Strings(names)
 		for _, k := range names {
+			if w.full() {
+				break
+			}
 			at := append(slices.Clip(path), step{key: k})
 			i := slices.IndexFunc(keys, func(key Key) bool { return key.Name == k })
 			if i < 0 {

@@ -1,8 +1,10 @@
 package config
 
 import (
+	"fmt"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/goccy/go-yaml"
 )
@@ -79,6 +81,45 @@ func TestDecoderTruncatesIntegers(t *testing.T) {
 		}
 		if err := yaml.Unmarshal([]byte(c.yaml), &v); err != nil || v.N != c.want {
 			t.Errorf("goccy/go-yaml decodes %q as %d, %v; this test expected %d (the truncation the schema check guards against)", c.yaml, v.N, err, c.want)
+		}
+	}
+}
+
+// Aliases repeat what they name (YAML 1.2.2 §3.2.2.2), so a short file can
+// stand for a huge document. Both kinds are refused quickly, with a short
+// message: a thousand unknown keys repeated a thousand times (13 kB: the
+// walk stops after maxSchemaProblems; before, listing all million took
+// 12 s on this machine), and a thousand faces of a thousand openings (67
+// kB: past maxSchemaValues; before, checking and decoding took 9 s).
+// The time bound is loose for a shared machine: five times what the
+// current code needs at the most.
+func TestAliasesCannotBlowUp(t *testing.T) {
+	var keys, faces strings.Builder
+	keys.WriteString("images: p\nx: &m {")
+	for i := range 1000 {
+		fmt.Fprintf(&keys, "k%d: 1, ", i)
+	}
+	keys.WriteString("name: a}\nfaces: [" + strings.Repeat("*m, ", 1000) + "]\n")
+	faces.WriteString("images: p\nfaces: [{name: f, openings: &e [")
+	for i := range 1000 {
+		fmt.Fprintf(&faces, "{name: o%d, shape: \"circle:%d,1,1\"}, ", i, i)
+	}
+	faces.WriteString("]}, ")
+	for i := range 1000 {
+		fmt.Fprintf(&faces, "{name: f%d, openings: *e}, ", i)
+	}
+	faces.WriteString("]\n")
+	for _, c := range []struct{ name, yaml, want string }{
+		{"unknown keys", keys.String(), "and 91 more"},
+		{"openings", faces.String(), "the document holds more than 100000 values"},
+	} {
+		start := time.Now()
+		_, err := Parse([]byte(c.yaml), "t.yaml")
+		if took := time.Since(start); took > 5*time.Second {
+			t.Errorf("%s: %v to refuse %d bytes", c.name, took, len(c.yaml))
+		}
+		if err == nil || !strings.Contains(err.Error(), c.want) || len(err.Error()) > maxErrorBytes {
+			t.Errorf("%s: error %v (%d bytes), want %q", c.name, err, len(fmt.Sprint(err)), c.want)
 		}
 	}
 }
