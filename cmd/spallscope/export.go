@@ -53,7 +53,7 @@ was run for each frame. Without --vtk or --npy, both are written.`,
 			}
 			scale, err := sc.Value()
 			if err != nil {
-				return err
+				return asFlagError(cmd.Flags(), err)
 			}
 			r := reporter(cmd)
 			defer r.Wait()

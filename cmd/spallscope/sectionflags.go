@@ -317,30 +317,65 @@ func parseOpening(s string, i int) (config.Opening, error) {
 	return o, nil
 }
 
-// parseSeed reads a seed point "x,y" in whole px.
+// parseSeed reads a seed point "x,y" in whole px: a fraction is refused,
+// not cut off (it was, to the pixel left of it).
 func parseSeed(s string) ([]int, error) {
-	xy, err := parsePoint("--seed", s)
-	if err != nil {
-		return nil, err
+	a, b, ok := strings.Cut(s, ",")
+	x, err1 := strconv.Atoi(strings.TrimSpace(a))
+	y, err2 := strconv.Atoi(strings.TrimSpace(b))
+	if !ok || err1 != nil || err2 != nil {
+		return nil, fmt.Errorf("--seed %q, expected X,Y in whole px such as 256,120", s)
 	}
-	return []int{int(xy[0]), int(xy[1])}, nil
+	return []int{x, y}, nil
 }
 
-// asFlagError restates a config field error under the name of the option
-// that set the field, when one did: "--order 3: expected ...".
+// asFlagError restates config field errors under the names of the
+// options that set the fields, when options do: "--order 3: expected
+// ...", "--area: required with --load, expected ...". Each of several
+// problems (config.Problems) is restated on its own.
 func asFlagError(fs *pflag.FlagSet, err error) error {
+	if ps, ok := err.(config.Problems); ok {
+		out := make(config.Problems, len(ps))
+		for i, e := range ps {
+			out[i] = asFlagError(fs, e)
+		}
+		return out
+	}
 	var fe *config.FieldError
 	if !errors.As(err, &fe) {
 		return err
 	}
+	name, with := flagFor(fs, fe.Key), flagFor(fs, fe.With)
+	switch {
+	case fe.With != "" && name != "":
+		if with == "" {
+			with = fe.With
+		} else {
+			with = "--" + with
+		}
+		return fmt.Errorf("--%s: required with %s, expected %s", name, with, fe.Expected)
+	case name != "":
+		return fmt.Errorf("--%s %s: expected %s", name, fe.ShownValue(), fe.Expected)
+	}
+	return err
+}
+
+// flagFor names the option that sets a YAML key ("" when none does).
+func flagFor(fs *pflag.FlagSet, key string) string {
 	var name string
-	fs.Visit(func(f *pflag.Flag) {
-		if k := f.Annotations[yamlKeyAnnotation]; len(k) == 1 && k[0] == fe.Key {
+	fs.VisitAll(func(f *pflag.Flag) {
+		if k := f.Annotations[yamlKeyAnnotation]; name == "" && len(k) == 1 && k[0] == key {
 			name = f.Name
 		}
 	})
-	if name == "" {
+	return name
+}
+
+// checkOptions checks the settings the options filled, before any work,
+// reporting each under its option's name.
+func checkOptions(fs *pflag.FlagSet, t *config.Test) error {
+	if err := refuseTypedZeros(fs); err != nil {
 		return err
 	}
-	return fmt.Errorf("--%s %s: expected %s", name, fe.Value, fe.Expected)
+	return asFlagError(fs, t.CheckSettings())
 }

@@ -240,3 +240,57 @@ func sectionType(sec string) reflect.Type {
 	f, _ := reflect.TypeOf(config.Test{}).FieldByName(sectionField(sec))
 	return f.Type
 }
+
+// Options out of range are refused before any work, under the option's
+// name (the config key's FieldError restated), and a missing companion
+// option is named: --area with --load. The run folder and photos given
+// here do not exist, so an error about them would mean the options were
+// not checked first. Before, each of these reached the stage: --load
+// without --area failed on the run folder (or, on a real one, after the
+// load log was read, as "loaded area 0 mm²"), a ZNCC limit of 1.5 and a
+// NaN threshold ran and gave onsets at the reference frame or none, a
+// seed of 10.5 px was cut to 10.
+func TestOptionsCheckedBeforeWork(t *testing.T) {
+	gone := filepath.Join(t.TempDir(), "no-such-run")
+	for _, c := range []struct {
+		args []string
+		want []string
+	}{
+		{[]string{"zones", "--strain", gone, "--load", "frame.csv"}, []string{"--area: required with --load, expected the loaded area in mm²"}},
+		{[]string{"zones", "--strain", gone, "--area", "5000"}, []string{"--load: required with --area"}},
+		{[]string{"zones", "--strain", gone, "--min-zncc", "1.5"}, []string{"--min-zncc 1.5: expected a ZNCC between -1 and 1"}},
+		{[]string{"zones", "--strain", gone, "--threshold", "nanmad"}, []string{`--threshold nanmad: expected "Kmad", "Nue" or both`}},
+		{[]string{"zones", "--strain", gone, "--threshold", "0mad"}, []string{`--threshold 0mad: expected`}},
+		{[]string{"zones", "--strain", gone, "--persistence", "-1"}, []string{"--persistence -1: expected 1 frame or more"}},
+		{[]string{"zones", "--strain", gone, "--min-cells", "-4"}, []string{"--min-cells -4: expected a zone size of 1 grid point or more"}},
+		{[]string{"zones", "--strain", gone, "--calibrate-below", "2"}, []string{"--calibrate-below 2: expected a fraction of the peak stress in (0, 1]"}},
+		{[]string{"zones", "--strain", gone, "--reach", "NaN"}, []string{"--reach NaN: expected a finite positive number"}},
+		{[]string{"zones", "--strain", gone, "--fps", "NaN"}, []string{"--fps NaN: expected a finite positive rate"}},
+		{[]string{"zones", "--strain", gone, "--load", "f.csv", "--area", "5000", "--clock-offset", "Inf"}, []string{"--clock-offset +Inf: expected a finite number of seconds"}},
+		{[]string{"zones", "--strain", gone, "--load", "f.csv", "--area", "5000", "--sync", "1,NaN"}, []string{"--sync [1 NaN]: expected [camera_s, log_s]"}},
+		{[]string{"zones", "--strain", gone, "--load", "f.csv", "--area", "Inf"}, []string{"--area +Inf: expected a finite positive area"}},
+		{[]string{"zones", "--strain", gone, "--opening", "A\x1b[2J=circle:5,5,2"}, []string{`openings[0].name "A\x1b[2J" holds the control or formatting character U+001B`}},
+		{[]string{"track", "--images", gone, "--out", gone, "--min-zncc", "1.5", "--step", "-1"}, []string{"--step -1: expected a positive number of px; --min-zncc 1.5: expected a ZNCC between 0 and 1"}},
+		{[]string{"track", "--images", gone, "--out", gone, "--seed", "10.5,3"}, []string{`--seed "10.5,3", expected X,Y in whole px`}},
+		{[]string{"track", "--images", gone, "--out", gone, "--subset", "25.5"}, []string{`invalid argument "25.5" for "--subset"`}},
+		{[]string{"track", "--images", gone, "--out", gone, "--workers", "100000000"}, []string{"--workers 100000000: expected 0 (all cores) up to 1024"}},
+		{[]string{"track", "--images", gone, "--out", gone, "--scale", "NaN"}, []string{"--scale NaN: expected a finite positive number of mm per px"}},
+		{[]string{"track", "--images", gone, "--out", gone, "--scale-line", "0,0,Inf,0,5"}, []string{"--scale-line [0 0 +Inf 0 5]: expected [x1, y1, x2, y2, mm]"}},
+		{[]string{"track", "--images", gone, "--out", gone, "--fps", "Inf"}, []string{"--fps +Inf: expected a finite positive rate"}},
+		{[]string{"track", "--images", gone, "--out", gone, "--fps", "2", "--mtime"}, []string{"times: give one of fps, csv and mtime"}},
+		{[]string{"track", "--images", gone, "--out", gone, "--roi", "circle:1,1,NaN"}, []string{`roi: roi "circle:1,1,NaN": expected x0,y0,x1,y1`}},
+		{[]string{"strain", "--fields", gone, "--min-points", "1000"}, []string{"--min-points 1000: expected 0 (half the window) up to the window's 81 points"}},
+		{[]string{"strain", "--fields", gone, "--window", "4"}, []string{"--window 4: expected an odd number of grid points, at least 3"}},
+		{[]string{"strain", "--fields", gone, "--static", "-1"}, []string{"--static -1: expected 0 or more frames"}},
+	} {
+		_, err := run(t, c.args...)
+		for _, w := range c.want {
+			if err == nil || !strings.Contains(err.Error(), w) {
+				t.Errorf("%q: error %v, want %q", c.args, err, w)
+			}
+		}
+		if err != nil && strings.Contains(err.Error(), "no-such-run") {
+			t.Errorf("%q: %v: the options were not checked before the run folder", c.args, err)
+		}
+	}
+}

@@ -70,7 +70,7 @@ RUN/run.json. Re-running with another window does not re-track.`,
 			if out != fields {
 				return fmt.Errorf("--out must be the run folder of --fields (%s): strain files sit beside the fields they come from", fields)
 			}
-			if err := refuseTypedZeros(cmd.Flags()); err != nil {
+			if err := checkOptions(cmd.Flags(), t); err != nil {
 				return err
 			}
 			r := reporter(cmd)

@@ -67,7 +67,7 @@ DIR/photo_fields.`,
   spallscope track --images "cam1/*.tif" --subset 31 --step 10 --order 2 --out run2`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
-			if err := refuseTypedZeros(cmd.Flags()); err != nil {
+			if err := checkOptions(cmd.Flags(), t); err != nil {
 				return err
 			}
 			r := reporter(cmd)

@@ -83,7 +83,7 @@ engineers under local codes.`,
 			if out != run {
 				return fmt.Errorf("--out must be the run folder of --strain (%s)", run)
 			}
-			if err := refuseTypedZeros(cmd.Flags()); err != nil {
+			if err := checkOptions(cmd.Flags(), t); err != nil {
 				return err
 			}
 			rep, notes, err := job.Zones(t, run, "spallscope "+version)

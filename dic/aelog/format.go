@@ -75,6 +75,14 @@ type layout struct {
 	comment    string
 }
 
+// Validate reports a format that cannot read a hit list, before any file is
+// opened: a negative skip_lines, a comment marker that would skip data,
+// an unknown delimiter, column or unit. Errors name the Format field.
+func (f Format) Validate() error {
+	_, err := f.check()
+	return err
+}
+
 // check validates f and returns its layout. Errors name the Format field.
 func (f Format) check() (layout, error) {
 	l := layout{delim: f.Delimiter, skip: f.SkipLines, comment: f.Comment, energyUnit: strings.TrimSpace(f.EnergyUnit)}

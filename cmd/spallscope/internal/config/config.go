@@ -11,8 +11,8 @@ import (
 	"path/filepath"
 	"reflect"
 	"regexp"
-	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/goccy/go-yaml"
 )
@@ -127,21 +127,40 @@ func Read(path string) (*Test, error) {
 	return Parse(data, path)
 }
 
-// Parse reads a config from data as if read from path.
+// Parse reads a config from data as if read from path, and checks it
+// whole (check): an error names the file, and the line, key or name at
+// fault, and says what was expected.
 func Parse(data []byte, path string) (*Test, error) {
 	t := &Test{}
-	if err := yaml.UnmarshalWithOptions(data, t, yaml.DisallowUnknownField()); err != nil {
-		return nil, explain(path, data, err)
+	if err := decode(data, path, t); err != nil {
+		return nil, fmt.Errorf("test config %w", err)
 	}
 	abs, _ := filepath.Abs(path)
 	t.Path, t.Dir = abs, filepath.Dir(abs)
-	if t.Name == "" {
+	named := t.Name != ""
+	if !named {
 		t.Name = strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
 	}
-	if err := t.check(); err != nil {
+	if err := t.check(named); err != nil {
 		return nil, fmt.Errorf("test config %s: %w", path, err)
 	}
 	return t, nil
+}
+
+// decode decodes YAML data into v (a pointer to a config struct), after
+// checkSchema; errors start with the file's path.
+func decode(data []byte, path string, v any) error {
+	var doc any
+	if err := yaml.Unmarshal(data, &doc); err != nil {
+		return explain(path, err)
+	}
+	if err := checkSchema(data, doc, reflect.TypeOf(v).Elem()); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	if err := yaml.UnmarshalWithOptions(data, v, yaml.DisallowUnknownField()); err != nil {
+		return explain(path, err)
+	}
+	return nil
 }
 
 // Resolve returns p relative to the config's folder (absolute paths and
@@ -153,170 +172,141 @@ func (t *Test) Resolve(p string) string {
 	return filepath.Join(t.Dir, p)
 }
 
-func (t *Test) check() error {
-	var errs []string
+// check checks a whole test config: what it must give (photos), its names
+// (the test's, named says whether by the name key or by the file name, and
+// its faces'), how its sections fit together, and every setting
+// (CheckSettings).
+func (t *Test) check(named bool) error {
+	var p Problems
+	kind := "test name"
+	if !named {
+		kind = "test name (from the file name; set name: to choose another)"
+	}
+	p.add(CheckPathName(kind, t.Name))
 	if t.Images == "" && len(t.Faces) == 0 {
-		errs = append(errs, "images: required (a folder, a glob, a list file or a video), or faces")
+		p.add(fmt.Errorf("images: required (a folder, a glob, a list file or a video), or faces"))
 	}
-	names := map[string]bool{}
+	faces := map[string]int{}
 	for i, f := range t.Faces {
-		switch {
-		case f.Name == "":
-			errs = append(errs, fmt.Sprintf("faces[%d]: name is required", i))
-		case names[f.Name]:
-			errs = append(errs, fmt.Sprintf("faces[%d]: name %q used twice", i, f.Name))
+		if err := CheckPathName(fmt.Sprintf("faces[%d].name", i), f.Name); err != nil {
+			p.add(err)
+		} else if j, ok := faces[f.Name]; ok {
+			p.add(fmt.Errorf("faces[%d].name %q: used by faces[%d] too; each face needs its own name (its run folder)", i, f.Name, j))
+		} else {
+			faces[f.Name] = i
 		}
-		names[f.Name] = true
 		if f.Images == "" && t.Images == "" {
-			errs = append(errs, fmt.Sprintf("faces[%d]: images is required", i))
+			p.add(fmt.Errorf("faces[%d]: images is required", i))
 		}
-		if len(f.Sync) != 0 && len(f.Sync) != 2 {
-			errs = append(errs, fmt.Sprintf("faces[%d].sync: expected [camera_s, log_s]", i))
-		}
-	}
-	n := 0
-	for _, set := range []bool{t.Times.FPS != 0, t.Times.CSV != "", t.Times.MTime, t.Times.EXIF} {
-		if set {
-			n++
+		if (f.ClockOffset != nil || len(f.Sync) != 0) && t.Load.File == "" {
+			p.add(&FieldError{Key: "load.file", With: fmt.Sprintf("faces[%d]'s clock", i), Expected: "the load log the face's clock applies to"})
 		}
 	}
-	if n > 1 {
-		errs = append(errs, "times: give one of fps, csv, mtime and exif")
+	p.add(t.checkModel(faces))
+	p.add(t.CheckSettings())
+	return p.err()
+}
+
+// checkModel checks that the model's face exists and that a model in mm
+// has the image scale of its face to put it in px.
+func (t *Test) checkModel(faces map[string]int) error {
+	m := t.Model
+	if m.File == "" {
+		return nil
 	}
-	if t.Times.FPS < 0 {
-		errs = append(errs, fmt.Sprintf("times.fps: %g, expected a positive rate", t.Times.FPS))
-	}
-	if len(t.Scale.Line) != 0 && len(t.Scale.Line) != 5 {
-		errs = append(errs, "scale.line: expected [x1, y1, x2, y2, mm]")
-	}
-	if t.Scale.MMPerPx != 0 && len(t.Scale.Line) != 0 {
-		errs = append(errs, "scale: give mm_per_px or line, not both")
-	}
-	for i, o := range t.Openings {
-		if o.Shape == "" {
-			errs = append(errs, fmt.Sprintf("openings[%d]: shape is required", i))
+	face := t
+	if len(t.Faces) > 0 {
+		i, ok := faces[m.Face]
+		if m.Face == "" {
+			i, ok = 0, true
 		}
-	}
-	if t.Load.File != "" && !(t.Load.AreaMM2 > 0) {
-		errs = append(errs, "load.area_mm2: required with load.file (nominal stress = force / area)")
-	}
-	if len(t.Load.Sync) != 0 && len(t.Load.Sync) != 2 {
-		errs = append(errs, "load.sync: expected [camera_s, log_s]")
-	}
-	if len(t.AE.Sync) != 0 && len(t.AE.Sync) != 2 {
-		errs = append(errs, "ae.sync: expected [camera_s, ae_s]")
-	}
-	if t.Model.File != "" && t.Model.LoadMPa == 0 && t.Model.Frame == "" {
-		errs = append(errs, "model: give load_mpa (the model's load level) or frame")
-	}
-	if len(t.Model.Origin) != 0 && len(t.Model.Origin) != 2 {
-		errs = append(errs, "model.origin_px: expected [x, y]")
-	}
-	if len(t.AE.Background) != 0 && len(t.AE.Background) != 2 {
-		errs = append(errs, "ae.background_s: expected [t0, t1] in camera seconds")
-	}
-	for i, s := range t.Correlation.Seeds {
-		if len(s) != 2 {
-			errs = append(errs, fmt.Sprintf("correlation.seeds[%d]: expected [x, y]", i))
+		if !ok {
+			return fmt.Errorf("model.face %q: no face has that name (faces: %s)", m.Face, strings.Join(faceNames(t.Faces), ", "))
 		}
+		face = t.FaceTest(i)
+	} else if m.Face != "" {
+		return fmt.Errorf("model.face %q: the test has no faces", m.Face)
 	}
-	if len(errs) > 0 {
-		return fmt.Errorf("%s", strings.Join(errs, "; "))
+	if m.Units != "px" && !face.Scale.given() {
+		return fmt.Errorf("model: units mm (the default) need the image scale: give scale.mm_per_px or scale.line, or model.units: px")
 	}
 	return nil
 }
 
-var unknownField = regexp.MustCompile(`\[(\d+):(\d+)\] unknown field "([^"]+)"`)
-
-// explain turns a YAML error into one that names the file and line and,
-// for an unknown key, lists the keys valid where it stands.
-func explain(path string, data []byte, err error) error {
-	msg := yaml.FormatError(err, false, false)
-	if m := unknownField.FindStringSubmatch(msg); m != nil {
-		line, _ := strconv.Atoi(m[1])
-		keys := validKeys(reflect.TypeOf(Test{}), sectionOf(data, line))
-		return fmt.Errorf("test config %s line %s: unknown key %q; valid keys here: %s", path, m[1], m[3], strings.Join(keys, ", "))
-	}
-	if m := position.FindStringSubmatch(msg); m != nil {
-		return fmt.Errorf("test config %s line %s column %s: %s", path, m[1], m[2], strings.TrimSpace(m[3]))
-	}
-	return fmt.Errorf("test config %s: %s", path, strings.TrimSpace(msg))
-}
-
-var position = regexp.MustCompile(`^\[(\d+):(\d+)\] ([^\n]*)`)
-
-// sectionOf returns the chain of parent keys of the given 1-based line, by
-// indentation.
-func sectionOf(data []byte, line int) []string {
-	lines := strings.Split(string(data), "\n")
-	if line < 1 || line > len(lines) {
-		return nil
-	}
-	indent := func(s string) int { return len(s) - len(strings.TrimLeft(s, " -")) }
-	var chain []string
-	cur := indent(lines[line-1])
-	for i := line - 2; i >= 0 && cur > 0; i-- {
-		l := lines[i]
-		if strings.TrimSpace(l) == "" || strings.HasPrefix(strings.TrimSpace(l), "#") {
-			continue
-		}
-		if d := indent(l); d < cur {
-			key, _, _ := strings.Cut(strings.TrimLeft(l, " -"), ":")
-			chain = append([]string{strings.TrimSpace(key)}, chain...)
-			cur = d
-		}
-	}
-	return chain
-}
-
-// validKeys lists the yaml keys of the struct reached from t by the chain,
-// in the order the struct declares them.
-func validKeys(t reflect.Type, chain []string) []string {
-	for _, k := range chain {
-		found := false
-		for _, key := range Keys(t) {
-			if key.Name == k {
-				t, found = key.Type, true
-				break
-			}
-		}
-		if !found {
-			break
-		}
-	}
-	var names []string
-	for _, key := range Keys(t) {
-		names = append(names, key.Name)
+func faceNames(fs []Face) []string {
+	names := make([]string, len(fs))
+	for i, f := range fs {
+		names[i] = f.Name
 	}
 	return names
 }
 
-// Key is one YAML key of a config struct and the type of its value.
-type Key struct {
-	Name string
-	Type reflect.Type
+// CheckSettings checks every setting the test gives, of every section and
+// face: numbers finite and in range (zero meaning the default where it
+// does), integers whole, words known, shapes valid, the clocks of the
+// load and AE logs, names of openings. It does not ask for what a whole
+// run needs (photos, a name): the stage commands fill only their sections
+// from their options and check them with it before any work; Parse runs
+// it as part of checking a whole config. Each value is checked by its
+// section, once; the sections' conversions (Settings, StrainWindow,
+// Stage, Value, Clock, Stress) run the same checks.
+func (t *Test) CheckSettings() error {
+	var p Problems
+	p.add(t.Times.check("times"))
+	p.add(t.Scale.check("scale"))
+	p.add(checkShapes("", t.ROI, t.Exclude, t.Openings))
+	p.add(t.Correlation.check())
+	p.add(t.Strain.check())
+	p.add(t.Zones.check())
+	p.add(t.Load.check())
+	p.add(t.AE.check())
+	p.add(t.Model.check())
+	for i, f := range t.Faces {
+		prefix := fmt.Sprintf("faces[%d]", i)
+		p.add(f.Times.check(prefix + ".times"))
+		p.add(f.Scale.check(prefix + ".scale"))
+		p.add(checkShapes(prefix+".", f.ROI, f.Exclude, f.Openings))
+		offset := 0.0
+		if f.ClockOffset != nil {
+			offset = *f.ClockOffset
+			if len(f.Sync) != 0 {
+				p.add(fmt.Errorf("%s: give clock_offset_s or sync, not both", prefix))
+			}
+		}
+		_, err := clockOf(prefix, "log_s", offset, f.Sync)
+		p.add(err)
+	}
+	return p.err()
 }
 
-// Keys lists the yaml keys of a struct type in declaration order (through
-// slices and pointers, with the keys of inline structs put in where they
-// are embedded); nil for a type that is not a struct.
-func Keys(t reflect.Type) []Key {
-	for t.Kind() == reflect.Slice || t.Kind() == reflect.Pointer {
-		t = t.Elem()
+// explain turns a YAML error into one that names the file and line. The
+// decoder's message may quote a value (a number of a million digits), so
+// it is cut to explainRunes characters.
+func explain(path string, err error) error {
+	msg := yaml.FormatError(err, false, false)
+	if m := position.FindStringSubmatch(msg); m != nil {
+		return fmt.Errorf("%s line %s column %s: %s", path, m[1], m[2], cut(strings.TrimSpace(m[3])))
 	}
-	if t.Kind() != reflect.Struct {
-		return nil
-	}
-	var keys []Key
-	for i := 0; i < t.NumField(); i++ {
-		f := t.Field(i)
-		tag, opts, _ := strings.Cut(f.Tag.Get("yaml"), ",")
-		switch {
-		case strings.Contains(opts, "inline"):
-			keys = append(keys, Keys(f.Type)...)
-		case tag != "" && tag != "-":
-			keys = append(keys, Key{tag, f.Type})
-		}
-	}
-	return keys
+	first, _, _ := strings.Cut(strings.TrimSpace(msg), "\n")
+	return fmt.Errorf("%s: %s", path, cut(first))
 }
+
+// explainRunes is the longest decoder message explain shows.
+const explainRunes = 300
+
+// cut shortens s to explainRunes characters, saying so.
+func cut(s string) string {
+	if utf8.RuneCountInString(s) <= explainRunes {
+		return s
+	}
+	n := 0
+	for i := range s {
+		if n == explainRunes {
+			return fmt.Sprintf("%s… (%d bytes)", s[:i], len(s))
+		}
+		n++
+	}
+	return s
+}
+
+var position = regexp.MustCompile(`^\[(\d+):(\d+)\] ([^\n]*)`)

@@ -46,9 +46,9 @@ func TestConfigErrors(t *testing.T) {
 	cases := []struct {
 		yaml, want string
 	}{
-		{"images: x\nimagez: y\n", `line 2: unknown key "imagez"; valid keys here: name, images, reference`},
-		{"images: x\ncorrelation:\n  subset: 21\n  stpe: 5\n", `line 4: unknown key "stpe"; valid keys here: subset, step, order`},
-		{"images: x\nopenings:\n  - {name: A, shap: x}\n", `unknown key "shap"; valid keys here: name, shape`},
+		{"images: x\nimagez: y\n", `line 2: unknown key "imagez" at the top level; valid keys there: name, images, reference`},
+		{"images: x\ncorrelation:\n  subset: 21\n  stpe: 5\n", `line 4: unknown key "stpe" in correlation; valid keys there: subset, step, order`},
+		{"images: x\nopenings:\n  - {name: A, shap: x}\n", `line 3: unknown key "shap" in openings[0]; valid keys there: name, shape`},
 		{"images: [x\n", "test.yaml"},
 		{"reference: 0\n", "images: required"},
 		{"images: x\nload: {file: f.csv}\n", "load.area_mm2: required"},

@@ -1,6 +1,10 @@
 package config
 
-import "spallscope/strain/model"
+import (
+	"fmt"
+
+	"spallscope/strain/model"
+)
 
 // Model is a numerical model's field to hold against the measurement: a
 // CSV of points (x, y and any of u, v, exx, eyy, exy) at the load level
@@ -30,4 +34,19 @@ func (m Model) Format() model.Format {
 		f.OriginX, f.OriginY = m.Origin[0], m.Origin[1]
 	}
 	return f
+}
+
+// check checks the section's own values; the test checks what it needs
+// from the rest (a scale for mm, the face).
+func (m Model) check() error {
+	var p Problems
+	if m.File != "" && m.LoadMPa == 0 && m.Frame == "" {
+		p.add(fmt.Errorf("model: give load_mpa (the model's load level) or frame"))
+	}
+	p.add(checkBounds(
+		bound{"model.load_mpa", m.LoadMPa, m.LoadMPa == 0 || (m.LoadMPa > 0 && finite(m.LoadMPa)), "a finite positive stress in MPa (compression positive)"},
+		bound{"model.origin_px", m.Origin, len(m.Origin) == 0 || (len(m.Origin) == 2 && finiteAll(m.Origin)), "[x, y]: a finite point in px"},
+		bound{"model.units", m.Units, m.Units == "" || m.Units == "mm" || m.Units == "px", "mm or px"},
+	))
+	return p.err()
 }
