@@ -277,7 +277,7 @@ func TestOptionsCheckedBeforeWork(t *testing.T) {
 		{[]string{"track", "--images", gone, "--out", gone, "--scale", "NaN"}, []string{"--scale NaN: expected a finite positive number of mm per px"}},
 		{[]string{"track", "--images", gone, "--out", gone, "--scale-line", "0,0,Inf,0,5"}, []string{"--scale-line [0 0 +Inf 0 5]: expected [x1, y1, x2, y2, mm]"}},
 		{[]string{"track", "--images", gone, "--out", gone, "--fps", "Inf"}, []string{"--fps +Inf: expected a finite positive rate"}},
-		{[]string{"track", "--images", gone, "--out", gone, "--fps", "2", "--mtime"}, []string{"times: give one of fps, csv and mtime"}},
+		{[]string{"track", "--images", gone, "--out", gone, "--fps", "2", "--mtime"}, []string{"times: give one of fps, csv, mtime and exif"}},
 		{[]string{"track", "--images", gone, "--out", gone, "--roi", "circle:1,1,NaN"}, []string{`roi: roi "circle:1,1,NaN": expected x0,y0,x1,y1`}},
 		{[]string{"strain", "--fields", gone, "--min-points", "1000"}, []string{"--min-points 1000: expected 0 (half the window) up to the window's 81 points"}},
 		{[]string{"strain", "--fields", gone, "--window", "4"}, []string{"--window 4: expected an odd number of grid points, at least 3"}},

@@ -68,13 +68,13 @@ func TestTrackBadInput(t *testing.T) {
 		args []string
 		want string
 	}{
-		{[]string{"--subset", "20"}, "subset 20 px, expected an odd size"},
-		{[]string{"--subset", "5"}, "subset 5 px, expected an odd size of at least 7"},
+		{[]string{"--subset", "20"}, "--subset 20: expected an odd size"},
+		{[]string{"--subset", "5"}, "--subset 5: expected an odd size of at least 7"},
 		{[]string{"--step", "0"}, "--step 0: 0 is not a setting here"},
 		{[]string{"--roi", "500,500,600,600"}, "lies outside"},
 		{[]string{"--mask", filepath.Join(dir, "frames", "kirsch_0000.png"), "--roi", "rect:0,0,10,10", "--order", "3"}, "--order 3"},
 		{[]string{"--interp", "linear"}, `--interp linear: expected bicubic or biquintic`},
-		{[]string{"--reference", "rolling"}, `reference "rolling"`},
+		{[]string{"--reference", "rolling"}, `--reference rolling: expected fixed or incremental`},
 		{[]string{"--exclude", "circle:1,2"}, "circle takes [3] numbers"},
 	}
 	for _, c := range cases {
@@ -164,9 +164,9 @@ func TestStrainAfterTrack(t *testing.T) {
 		args []string
 		want string
 	}{
-		{[]string{"--window", "4"}, "strain window 4"},
+		{[]string{"--window", "4"}, "--window 4: expected an odd number of grid points"},
 		{[]string{"--window", "99"}, "larger than the"},
-		{[]string{"--measure", "true"}, `strain measure "true"`},
+		{[]string{"--measure", "true"}, `--measure true: expected engineering, green or hencky`},
 	} {
 		if _, err := run(t, append([]string{"strain", "--fields", out}, c.args...)...); err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%v: %v, want %q", c.args, err, c.want)
