@@ -3,15 +3,20 @@ package aelog
 import (
 	"bytes"
 	"math"
+	"strings"
 	"testing"
 
 	"spallscope/dic/loadlog"
 )
 
+// maxErrorBytes bounds an error's message: excerpts of cells (60
+// characters), a part of a long header, the file and line.
+const maxErrorBytes = 4000
+
 // FuzzDecode checks that no input makes Read or the derived series panic,
-// and that every list Read accepts keeps the Log's promises: one hit or
-// more, finite values, times that never decrease, and rates that add up
-// to the number of hits. `go test` runs the seeds; `go test -fuzz
+// that an error names the file within maxErrorBytes, and that every list
+// Read accepts keeps the Log's promises: one hit or more, finite values,
+// times that never decrease, and rates that add up to the number of hits. `go test` runs the seeds; `go test -fuzz
 // FuzzDecode` explores further.
 func FuzzDecode(f *testing.F) {
 	for _, s := range []string{
@@ -24,6 +29,8 @@ func FuzzDecode(f *testing.F) {
 		"time_s,amplitude_dB,counts\n0,40\n",
 		"time_s\tcounts\n1e300\t1\n1e301\t0\n",
 		"\uFEFF\r\n\r\n",
+		strings.Repeat("c,", 5000) + "\n0,1\n1,2\n",
+		strings.Repeat("\""+strings.Repeat("h", 300)+"\",", 300) + "\n0,1\n1,2\n",
 	} {
 		f.Add([]byte(s), uint8(0))
 		f.Add([]byte(s), uint8(1))
@@ -35,6 +42,11 @@ func FuzzDecode(f *testing.F) {
 		}
 		l, err := decode(bytes.NewReader(data), "fuzz", fm)
 		if err != nil {
+			// An error names the file and shows excerpts: a header of a
+			// hundred thousand columns is listed in part, a huge cell cut.
+			if msg := err.Error(); !strings.Contains(msg, "fuzz") || len(msg) > maxErrorBytes {
+				t.Fatalf("error of %d bytes, or without the file: %.300s", len(msg), msg)
+			}
 			return
 		}
 		if l.Len() == 0 {

@@ -70,7 +70,7 @@ func Open(spec string) (Sequence, error) {
 	case hasExt(spec, ListExtensions):
 		return openList(spec)
 	case IsImageFile(spec):
-		return newFileSequence([]string{spec}), nil
+		return checkedFileSequence([]string{spec})
 	}
 	return nil, fmt.Errorf("open sequence %s: not a folder, glob, list file (%s), video (%s) or image (%s)",
 		spec, strings.Join(ListExtensions, " "), strings.Join(VideoExtensions, " "), strings.Join(ImageExtensions, " "))
@@ -91,7 +91,7 @@ func openGlob(pattern string) (Sequence, error) {
 		return nil, fmt.Errorf("open sequence: glob pattern %q matches no files", pattern)
 	}
 	SortNatural(paths)
-	return newFileSequence(paths), nil
+	return checkedFileSequence(paths)
 }
 
 func openDir(dir string) (Sequence, error) {
@@ -109,7 +109,7 @@ func openDir(dir string) (Sequence, error) {
 		return nil, fmt.Errorf("open sequence: folder %s holds no image files (expected %s)", dir, strings.Join(ImageExtensions, " "))
 	}
 	SortNatural(paths)
-	return newFileSequence(paths), nil
+	return checkedFileSequence(paths)
 }
 
 func openList(list string) (Sequence, error) {
@@ -136,7 +136,7 @@ func openList(list string) (Sequence, error) {
 	if len(paths) == 0 {
 		return nil, fmt.Errorf("open sequence: list %s names no files", list)
 	}
-	return newFileSequence(paths), nil
+	return checkedFileSequence(paths)
 }
 
 // fileSequence is a sequence of still-image files.

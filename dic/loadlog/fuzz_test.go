@@ -3,12 +3,18 @@ package loadlog
 import (
 	"bytes"
 	"math"
+	"strings"
 	"testing"
 )
 
-// FuzzDecode checks that no input makes Read panic, and that every log it
-// accepts keeps the Log's promises: two or more rows, finite values, times
-// that never decrease. `go test` runs the seeds; `go test -fuzz
+// maxErrorBytes bounds an error's message: excerpts of cells (60
+// characters), a part of a long header, the file and line.
+const maxErrorBytes = 4000
+
+// FuzzDecode checks that no input makes Read panic, that an error names
+// the file within maxErrorBytes, and that every log it accepts keeps the
+// Log's promises: two or more rows, finite values, times that never
+// decrease. `go test` runs the seeds; `go test -fuzz
 // FuzzDecode` explores further.
 func FuzzDecode(f *testing.F) {
 	for _, s := range []string{
@@ -20,6 +26,8 @@ func FuzzDecode(f *testing.F) {
 		"\"unterminated,1\n",
 		"time_s,force_kN,stroke_mm\n0,1\n",
 		"\uFEFF\r\n\r\n",
+		strings.Repeat("c,", 5000) + "\n0,1\n1,2\n",
+		strings.Repeat("\""+strings.Repeat("h", 300)+"\",", 300) + "\n0,1\n1,2\n",
 	} {
 		f.Add([]byte(s), uint8(0))
 		f.Add([]byte(s), uint8(1))
@@ -31,6 +39,11 @@ func FuzzDecode(f *testing.F) {
 		}
 		l, err := decode(bytes.NewReader(data), "fuzz", fm)
 		if err != nil {
+			// An error names the file and shows excerpts: a header of a
+			// hundred thousand columns is listed in part, a huge cell cut.
+			if msg := err.Error(); !strings.Contains(msg, "fuzz") || len(msg) > maxErrorBytes {
+				t.Fatalf("error of %d bytes, or without the file: %.300s", len(msg), msg)
+			}
 			return
 		}
 		if l.Len() < 2 || len(l.Force) != l.Len() || (l.Stroke != nil && len(l.Stroke) != l.Len()) {

@@ -92,11 +92,29 @@ func matching(header []string, match func(string) bool) []int {
 	return found
 }
 
-// ListColumns writes header cells for a message: 1 "time_s", 2 "force_kN".
+// ListedColumns and ListedBytes bound what ListColumns writes: a header
+// may hold a hundred thousand cells, and a message that lists them all is
+// a megabyte no one reads. Fifty cover the widest instrument logs we know
+// of (common practice, no source).
+const (
+	ListedColumns = 50
+	ListedBytes   = 2000
+)
+
+// ListColumns writes header cells for a message: 1 "time_s", 2 "force_kN",
+// each an Excerpt; past ListedColumns cells or ListedBytes bytes it says
+// how many more there are instead.
 func ListColumns(header []string) string {
-	s := make([]string, len(header))
+	var b strings.Builder
 	for i, h := range header {
-		s[i] = fmt.Sprintf("%d %s", i+1, Excerpt(h))
+		if i == ListedColumns || b.Len() >= ListedBytes {
+			fmt.Fprintf(&b, ", and %d more", len(header)-i)
+			break
+		}
+		if i > 0 {
+			b.WriteString(", ")
+		}
+		fmt.Fprintf(&b, "%d %s", i+1, Excerpt(h))
 	}
-	return strings.Join(s, ", ")
+	return b.String()
 }

@@ -1,6 +1,9 @@
 package logtable
 
-import "testing"
+import (
+	"strings"
+	"testing"
+)
 
 // isTime is the default rule of a time column in these tests.
 func isTime(cell string) bool {
@@ -67,5 +70,29 @@ func TestParseColumnSpec(t *testing.T) {
 	_, err := ParseColumnSpec("force_column", "0")
 	if want := `force_column "0": a column index is 1-based, expected 1 or more`; err == nil || err.Error() != want {
 		t.Errorf("index 0: error %v, want %q", err, want)
+	}
+}
+
+// A header's cells are listed for a message in part when there are many:
+// the first ListedColumns, then how many more. Before, a header of 5000
+// cells gave a message of 49 kB (found by loadlog's FuzzDecode).
+func TestListColumnsIsBounded(t *testing.T) {
+	if got, want := ListColumns([]string{"time_s", "force_kN"}), `1 "time_s", 2 "force_kN"`; got != want {
+		t.Errorf("two columns: %q, want %q", got, want)
+	}
+	many := make([]string, 5000)
+	for i := range many {
+		many[i] = "c"
+	}
+	got := ListColumns(many)
+	if !strings.HasPrefix(got, `1 "c", 2 "c"`) || !strings.HasSuffix(got, `50 "c", and 4950 more`) {
+		t.Errorf("5000 columns: %.80q … %q", got, got[max(0, len(got)-40):])
+	}
+	long := make([]string, 300)
+	for i := range long {
+		long[i] = strings.Repeat("h", 300)
+	}
+	if got := ListColumns(long); len(got) > ListedBytes+200 || !strings.HasSuffix(got, "more") {
+		t.Errorf("300 long columns: %d bytes, ends %q", len(got), got[max(0, len(got)-40):])
 	}
 }

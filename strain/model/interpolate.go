@@ -32,7 +32,7 @@ func newInterpolator(m *Field, radius float64) (*interpolator, error) {
 	if radius == 0 {
 		h := spacing(m.Points)
 		if !(h > 0) {
-			return nil, fmt.Errorf("model %s: all %d points coincide, cannot set an interpolation radius", m.Path, len(m.Points))
+			return nil, fmt.Errorf("model %s: cannot set an interpolation radius: the %d points coincide, or lie so far apart that their distances overflow (beyond 1e154 px)", m.Path, len(m.Points))
 		}
 		radius = 2 * h
 	}

@@ -33,15 +33,48 @@ func newScatter(pts []Point, cell float64) *scatter {
 	return s
 }
 
+// maxKey bounds a bucket index, so that a coordinate far beyond the
+// cells (or ±Inf, for a query box without bounds) converts to an int
+// exactly; the clamp keeps the order of keys, so a box's range of keys
+// still holds every point inside it.
+const maxKey = 1 << 52
+
 func (s *scatter) key(x, y float64) [2]int {
-	return [2]int{int(math.Floor(x / s.cell)), int(math.Floor(y / s.cell))}
+	k := func(v float64) int {
+		q := math.Floor(v / s.cell)
+		switch {
+		case q < -maxKey || (math.IsNaN(q) && v < 0): // ±Inf over an infinite cell is NaN
+			return -maxKey
+		case q > maxKey || (math.IsNaN(q) && v > 0):
+			return maxKey
+		case math.IsNaN(q):
+			return 0
+		}
+		return int(q)
+	}
+	return [2]int{k(x), k(y)}
 }
 
 // within calls fn for every point closer than r to (x, y), with its
-// squared distance.
+// squared distance. When the box of side 2r spans more buckets than there
+// are points (a radius grown past the cloud, or points near float64's
+// range, whose spread overflows to +Inf), it goes through the points
+// instead: walking the buckets would not end in any useful time.
 func (s *scatter) within(x, y, r float64, fn func(i int, d2 float64)) {
+	if !(r > 0) || math.IsNaN(x) || math.IsNaN(y) {
+		return
+	}
 	lo, hi := s.key(x-r, y-r), s.key(x+r, y+r)
 	r2 := r * r
+	if float64(hi[0]-lo[0]+1)*float64(hi[1]-lo[1]+1) > float64(len(s.pts)) {
+		for i := range s.pts {
+			dx, dy := s.pts[i].X-x, s.pts[i].Y-y
+			if d2 := dx*dx + dy*dy; d2 < r2 {
+				fn(i, d2)
+			}
+		}
+		return
+	}
 	for cy := lo[1]; cy <= hi[1]; cy++ {
 		for cx := lo[0]; cx <= hi[0]; cx++ {
 			for _, i := range s.grid[[2]int{cx, cy}] {
@@ -64,7 +97,7 @@ func spacing(pts []Point) float64 {
 		y0, y1 = min(y0, pts[i].Y), max(y1, pts[i].Y)
 	}
 	n := float64(len(pts))
-	cell := math.Sqrt((x1 - x0) * (y1 - y0) / n)
+	cell := math.Sqrt(x1-x0) * math.Sqrt(y1-y0) / math.Sqrt(n) // in this order: no overflow before the root
 	if !(cell > 0) {
 		cell = math.Max(x1-x0, y1-y0) / n // points on a line
 	}
@@ -77,13 +110,17 @@ func spacing(pts []Point) float64 {
 	for i := 0; i < len(pts); i += stride {
 		best := math.Inf(1)
 		// Double the search until a neighbour turns up; the nearest one
-		// within the searched radius is the nearest of all.
+		// within the searched radius is the nearest of all. An infinite
+		// radius (a cloud whose spread overflows) is searched once.
 		for r := cell; r <= 4*math.Max(x1-x0, y1-y0) && math.IsInf(best, 1); r *= 2 {
 			s.within(pts[i].X, pts[i].Y, r, func(j int, d2 float64) {
 				if j != i && d2 > 0 {
 					best = math.Min(best, d2)
 				}
 			})
+			if math.IsInf(r, 1) {
+				break
+			}
 		}
 		if !math.IsInf(best, 1) {
 			nn = append(nn, math.Sqrt(best))
