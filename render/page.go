@@ -13,13 +13,15 @@ import (
 	"spallscope/strain/strainfile"
 )
 
-//go:embed templates/report.html.tmpl templates/report.css
+//go:embed templates/report.html.tmpl templates/report.css templates/faces.html.tmpl templates/faces.css
 var pageFiles embed.FS
 
 // reportTemplate is the report page. Its style sheet is read from the
 // embedded report.css and put inline, so the page needs no other file for
 // its look.
-var reportTemplate = template.Must(template.New("report.html.tmpl").ParseFS(pageFiles, "templates/report.html.tmpl"))
+var reportTemplate = template.Must(template.New("report.html.tmpl").Funcs(template.FuncMap{
+	"add1": func(k int) int { return k + 1 },
+}).ParseFS(pageFiles, "templates/report.html.tmpl"))
 
 // reportCSS is the page's style sheet.
 var reportCSS = func() template.CSS {
@@ -50,13 +52,23 @@ type pageData struct {
 	StaticFrames                   string
 	Onsets                         []pageOnset
 	OnsetsRun                      bool
-	AE                             string
-	Model                          *pageModel
-	Overlays                       []pageFrameSet
-	Figures                        []pageFigure
-	Pattern                        *pagePattern
-	Missing                        []string
-	Embedded                       bool
+	// IntervalMethods names the methods of the onsets' intervals.
+	IntervalMethods string
+	// Detection states the smallest fracture the run could see.
+	Detection *pageDetection
+	// Histories is the figure of the onsets' indicator histories, shown
+	// with the onsets (nil without histories).
+	Histories *pageFigure
+	// FirstOnset names the frame of the first onset, where the frame
+	// slider starts ("" without onsets).
+	FirstOnset string
+	AE         string
+	Model      *pageModel
+	Overlays   []pageFrameSet
+	Figures    []pageFigure
+	Pattern    *pagePattern
+	Missing    []string
+	Embedded   bool
 }
 
 // pageFigure is a plot on the page.
@@ -88,6 +100,7 @@ func newPage(r *runRecords, figs []Figure, gauges *virtualReadings, out string, 
 		Summary:   summaryRows(r), Settings: settingsRows(r),
 		Noise: noiseRows(r.Resolution), StaticFrames: staticFrames(r.Resolution),
 		Onsets: onsetRows(r), OnsetsRun: r.Onset != nil, AE: aeLine(r),
+		Detection: detectionSection(r), IntervalMethods: intervalMethods(r),
 		Missing: r.Missing, Embedded: opt.Embed,
 	}
 	if p.Title == "" {
@@ -121,8 +134,13 @@ func newPage(r *runRecords, figs []Figure, gauges *virtualReadings, out string, 
 				return nil, err
 			}
 		}
+		if f.Name == "onset_histories" {
+			p.Histories = &pf
+			continue
+		}
 		p.Figures = append(p.Figures, pf)
 	}
+	_, p.FirstOnset = firstOnsetFrame(r)
 	if p.Model, err = modelSection(r.Dir, im); err != nil {
 		return nil, err
 	}
@@ -155,8 +173,8 @@ func aeLine(r *runRecords) string {
 			stress = fmt.Sprintf(", %.2f MPa", s)
 		}
 	}
-	return fmt.Sprintf("hit-rate onset at t = %.1f s%s (rate above %.3g hits/s, %g × the early background of %.3g hits/s; %d hits in all)%s.",
-		o.Time, stress, o.Threshold, o.Threshold/math.Max(o.Background, 1e-12), o.Background, r.AE.Hits, gaps)
+	return fmt.Sprintf("hit-rate onset at t = %.1f s%s (rate above %.3g hits/s, %s × the early background of %.3g hits/s; %d hits in all)%s.",
+		o.Time, stress, o.Threshold, formatFactor(o.Threshold/math.Max(o.Background, 1e-12)), o.Background, r.AE.Hits, gaps)
 }
 
 // interpolate returns ys at x by linear interpolation over increasing xs.

@@ -21,6 +21,9 @@ type pageFrame struct {
 	Src                template.URL
 	Name, Time, Stress string
 	File               string
+	// frame is the position of the frame in the sequence, −1 when the
+	// file is of no frame.
+	frame int
 }
 
 // pageFrameSet is the overlays of one kind (one suffix after the frame
@@ -28,10 +31,49 @@ type pageFrame struct {
 type pageFrameSet struct {
 	Kind   string
 	Frames []pageFrame
+	// Start is the frame the slider shows first: the first onset's.
+	Start int
 }
 
 // Last is the index of the set's last frame (the slider's maximum).
 func (s pageFrameSet) Last() int { return len(s.Frames) - 1 }
+
+// First is the frame the slider shows first.
+func (s pageFrameSet) First() pageFrame { return s.Frames[s.Start] }
+
+// startAt returns the index of the first overlay of a frame at or after
+// position frame in the sequence (the last overlay when none is; 0 when
+// frame < 0).
+func (s pageFrameSet) startAt(frame int) int {
+	if frame < 0 {
+		return 0
+	}
+	for i, f := range s.Frames {
+		if f.frame >= frame {
+			return i
+		}
+	}
+	return len(s.Frames) - 1
+}
+
+// firstOnsetFrame returns the position in the sequence of the earliest
+// (back-dated) onset's frame, and its name; −1 when the run has no onset.
+func firstOnsetFrame(r *runRecords) (int, string) {
+	first, name := -1, ""
+	if r.Onset == nil {
+		return first, name
+	}
+	for _, o := range r.Onset.Onsets {
+		k, ok := r.Axis.Index(o.Name)
+		if !ok {
+			k = o.Frame
+		}
+		if k >= 0 && (first < 0 || k < first) {
+			first, name = k, o.Name
+		}
+	}
+	return first, name
+}
 
 // overlaySets lists the run's overlays, grouped by kind. Each file is
 // matched to the longest frame name it starts with (followed by the end
@@ -63,7 +105,7 @@ func overlaySets(r *runRecords, im pageImages) ([]pageFrameSet, error) {
 		if err != nil {
 			return nil, err
 		}
-		pf := pageFrame{Src: src, Name: stem, File: OverlaysDir + "/" + base, Time: "time unknown", Stress: "stress unknown"}
+		pf := pageFrame{Src: src, Name: stem, File: OverlaysDir + "/" + base, Time: "time unknown", Stress: "stress unknown", frame: k}
 		if k >= 0 {
 			pf.Name = r.Axis.Names[k]
 			if r.Axis.Timed {
@@ -84,6 +126,7 @@ func overlaySets(r *runRecords, im pageImages) ([]pageFrameSet, error) {
 		byKind[kind] = append(byKind[kind], entry{k, pf})
 	}
 	var sets []pageFrameSet
+	onset, _ := firstOnsetFrame(r)
 	for _, kind := range kinds {
 		set := pageFrameSet{Kind: strings.Trim(kind, "_-. ")}
 		if set.Kind == "" {
@@ -104,6 +147,7 @@ func overlaySets(r *runRecords, im pageImages) ([]pageFrameSet, error) {
 		for _, e := range es {
 			set.Frames = append(set.Frames, e.f)
 		}
+		set.Start = set.startAt(onset)
 		sets = append(sets, set)
 	}
 	return sets, nil

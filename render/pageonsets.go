@@ -3,18 +3,35 @@ package render
 import (
 	"fmt"
 	"math"
+	"slices"
+	"strings"
 
 	"spallscope/strain"
 	"spallscope/strain/strainfile"
 )
 
-// pageOnset is one row of the onset table, every value already formatted.
+// pageOnset is one onset of the table and of the details below it, every
+// value already formatted.
 type pageOnset struct {
-	Class, Opening, Sector, Indicator string
-	Frame, Time, Stress, Percent      string
-	Area                              string
+	// Number is the onset's place in onset.json, the number of its badge
+	// on the overlays and of its history panel.
+	Number                  int
+	Class, Place, Indicator string
+	Frame, Time, Stress     string
+	Percent, Area           string
+	// Interval is the 95 % interval in the table: frames and stress;
+	// IntervalTitle adds the times and the frames' names (the cell's
+	// tooltip); IntervalLong is the details line.
+	Interval, IntervalTitle string
+	IntervalLong            string
+	// Trigger is the frame whose threshold confirmed the zone; Back says
+	// how far the onset was back-dated from it.
+	Trigger, Back string
 	// Flag warns about the row, e.g. a stress from outside the load log.
-	Flag    string
+	Flag string
+	// Short is the boundary-stress comparison in a few words for the
+	// table; Context the whole of it.
+	Short   string
 	Context *pageContext
 	// NoContext says why there is no comparison.
 	NoContext string
@@ -30,23 +47,23 @@ type pageContext struct {
 	Range string
 }
 
-// onsetRows formats the onsets of the run.
+// onsetRows formats the onsets of the run, numbered in onset.json's order.
 func onsetRows(r *runRecords) []pageOnset {
 	if r.Onset == nil {
 		return nil
 	}
 	k := r.Onset.Settings.K
 	var rows []pageOnset
-	for _, o := range r.Onset.Onsets {
+	for n, o := range r.Onset.Onsets {
 		row := pageOnset{
-			Class: o.Class, Opening: o.OpeningName, Sector: string(o.Sector), Indicator: string(o.Indicator),
+			Number: n + 1, Class: o.Class, Place: string(o.Sector), Indicator: indicatorLabel(o.Indicator),
 			Frame:   fmt.Sprintf("%s (#%d)", o.Name, o.Frame),
 			Time:    fmt.Sprintf("%.2f", o.Time),
 			Stress:  fmt.Sprintf("%.2f", o.Stress),
-			Percent: "—",
+			Percent: "—", Interval: "—", Trigger: "—",
 		}
-		if row.Opening == "" {
-			row.Opening = "—"
+		if o.OpeningName != "" {
+			row.Place = o.OpeningName + " " + row.Place
 		}
 		if o.Percent > 0 {
 			row.Percent = fmt.Sprintf("%.0f", o.Percent)
@@ -59,6 +76,22 @@ func onsetRows(r *runRecords) []pageOnset {
 		default:
 			row.Area = "—"
 		}
+		if iv := o.Interval; iv != nil {
+			row.Interval, row.IntervalTitle, row.IntervalLong = intervalText(o, iv)
+		}
+		if o.TriggerName != "" || o.Interval != nil {
+			name := o.TriggerName
+			if name == "" {
+				name = "frame"
+			}
+			row.Trigger = fmt.Sprintf("%s (#%d)", name, o.TriggerFrame)
+			switch d := o.TriggerFrame - o.Frame; {
+			case d > 0:
+				row.Back = fmt.Sprintf("back-dated %d frame(s) from the trigger %s", d, row.Trigger)
+			case d == 0:
+				row.Back = "at the trigger frame " + row.Trigger
+			}
+		}
 		if !o.InSpan {
 			row.Flag = "not in the load log: stress not measured"
 		}
@@ -67,15 +100,82 @@ func onsetRows(r *runRecords) []pageOnset {
 		}
 		if o.Context != nil {
 			row.Context = newPageContext(o, k)
+			row.Short = shortContext(o.Context)
 		} else {
 			row.NoContext = "no elastic comparison for this sector"
 			if o.Sector == strain.Pillar || o.Class == strain.ThroughGoing {
 				row.NoContext = "no single-opening comparison: the stress here depends on the neighbouring openings"
 			}
+			row.Short = "—"
 		}
 		rows = append(rows, row)
 	}
 	return rows
+}
+
+// intervalMethods names the methods the onsets' intervals were estimated
+// by, each once, for the note under the table.
+func intervalMethods(r *runRecords) string {
+	if r.Onset == nil {
+		return ""
+	}
+	var methods []string
+	for _, o := range r.Onset.Onsets {
+		if o.Interval != nil && o.Interval.Method != "" && !slices.Contains(methods, o.Interval.Method) {
+			methods = append(methods, o.Interval.Method)
+		}
+	}
+	return strings.Join(methods, "; ")
+}
+
+// intervalText formats an onset's 95 % interval: for the table (frames and
+// stress), for the cell's tooltip (with times and names) and for the
+// details (everything, with the change model).
+func intervalText(o strainfile.OnsetRecord, iv *strain.OnsetInterval) (cell, title, long string) {
+	frames := fmt.Sprintf("#%d–#%d", iv.FirstFrame, iv.LastFrame)
+	names := fmt.Sprintf("%s … %s", iv.First, iv.Last)
+	if iv.FirstFrame == iv.LastFrame {
+		frames, names = fmt.Sprintf("#%d", iv.FirstFrame), iv.First
+	}
+	stress := ""
+	if o.InSpan && plotFinite(iv.StressLo) && plotFinite(iv.StressHi) {
+		stress = fmt.Sprintf("%.2f–%.2f MPa", iv.StressLo, iv.StressHi)
+		if fmt.Sprintf("%.2f", iv.StressLo) == fmt.Sprintf("%.2f", iv.StressHi) {
+			stress = fmt.Sprintf("%.2f MPa", iv.StressLo)
+		}
+	}
+	times := fmt.Sprintf("%.2f–%.2f s", iv.TimeLo, iv.TimeHi)
+	if iv.TimeLo == iv.TimeHi {
+		times = fmt.Sprintf("%.2f s", iv.TimeLo)
+	}
+	conf := fmt.Sprintf("%s %%", formatFactor(100*iv.Confidence))
+	cell = joinNonEmpty(", ", frames, stress)
+	title = joinNonEmpty(", ", names, times, stress)
+	long = fmt.Sprintf("%s interval %s (%s), %s", conf, names, frames, times)
+	if stress != "" {
+		long += ", " + stress
+	}
+	if iv.Model != "" {
+		long += fmt.Sprintf("; change model %s", iv.Model)
+	}
+	if plotFinite(iv.LogLik) && iv.LogLik > 0 {
+		long += fmt.Sprintf(", log-likelihood ratio %s against no change", formatFactor(iv.LogLik))
+	}
+	return cell, title, long
+}
+
+// shortContext is the boundary-stress comparison in a few words, for the
+// table.
+func shortContext(c *strain.Context) string {
+	switch {
+	case math.IsNaN(c.BoundaryStress):
+		return "stress unknown"
+	case c.BoundaryStress < 0:
+		return "tensile"
+	case c.UCS > 0:
+		return fmt.Sprintf("%.3g MPa · %.2f UCS", c.BoundaryStress, c.RatioToUCS)
+	}
+	return fmt.Sprintf("%.3g MPa", c.BoundaryStress)
 }
 
 // newPageContext formats the boundary-stress comparison of an onset.
@@ -86,7 +186,7 @@ func newPageContext(o strainfile.OnsetRecord, k float64) *pageContext {
 		formula = "(3K − 1)"
 	}
 	pc := &pageContext{
-		Boundary: fmt.Sprintf("σθ ≈ %s·σ = %.3g × %.3g MPa = %.3g MPa (K = %g)", formula, c.BoundaryFactor, o.Stress, c.BoundaryStress, k),
+		Boundary: fmt.Sprintf("σθ ≈ %s·σ = %s × %.3g MPa = %.3g MPa (K = %s)", formula, formatFactor(c.BoundaryFactor), o.Stress, c.BoundaryStress, formatFactor(k)),
 		Range:    c.PublishedRange,
 	}
 	switch {

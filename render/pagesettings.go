@@ -76,7 +76,7 @@ func summaryRows(r *runRecords) []pageRow {
 		if s.UCS > 0 {
 			ucs = fmt.Sprintf("%.4g MPa", s.UCS)
 		}
-		add("Stress ratio K, UCS", fmt.Sprintf("K = %g, UCS %s", s.K, ucs), "for the boundary-stress comparison only")
+		add("Stress ratio K, UCS", fmt.Sprintf("K = %s, UCS %s", formatFactor(s.K), ucs), "for the boundary-stress comparison only")
 	}
 	return rows
 }

@@ -10,10 +10,21 @@ import (
 )
 
 // TimelineMark is one onset on a common timeline: which face and what it
-// was, where on the load log's clock and at what stress.
+// was, where on the load log's clock and at what stress, with its
+// interval and its trigger when known.
 type TimelineMark struct {
 	Face, Label  string
 	Time, Stress float64
+	// Interval is the onset's interval on the load log's clock and the
+	// stress over it (HasInterval false: none, as in records from before
+	// back-dating).
+	HasInterval        bool
+	TimeLo, TimeHi     float64
+	StressLo, StressHi float64
+	// Trigger is the trigger frame's place on the load log's clock and
+	// its stress (HasTrigger false: unknown).
+	HasTrigger                 bool
+	TriggerTime, TriggerStress float64
 }
 
 // WriteTimeline draws several faces' onsets on one time axis — the load
@@ -50,10 +61,25 @@ func WriteTimeline(dir string, times, stress []float64, marks []TimelineMark, ae
 			p.Legend.Add(fmt.Sprintf("cumulative AE hits (top = %.0f)", aeHits[n-1]), ae)
 		}
 	}
+	pad := 0.025 * max(peak, 1)
+	curve := finiteXYs(times, stress)
+	faceIndex := map[string]int{}
+	for _, m := range marks {
+		if _, ok := faceIndex[m.Face]; !ok {
+			faceIndex[m.Face] = len(faceIndex)
+		}
+	}
+	bands := 0
+	for _, m := range marks {
+		if b, ok := timelineBand(m, curve, pad, timelineInk(faceIndex[m.Face])); ok {
+			p.Add(b)
+			bands++
+		}
+	}
 	glyphs := []draw.GlyphDrawer{draw.TriangleGlyph{}, draw.CircleGlyph{}, draw.SquareGlyph{}, draw.CrossGlyph{}, draw.PyramidGlyph{}}
-	inks := []color.Color{color.RGBA{0xc0, 0x39, 0x2b, 0xff}, color.RGBA{0x1e, 0x84, 0x49, 0xff}, color.RGBA{0x8e, 0x44, 0xad, 0xff}, color.RGBA{0xb5, 0x65, 0x1d, 0xff}}
 	var faces []string
 	byFace := map[string]plotter.XYs{}
+	triggers := map[string]plotter.XYs{}
 	for _, m := range marks {
 		if !plotFinite(m.Time) || !plotFinite(m.Stress) {
 			continue
@@ -62,18 +88,54 @@ func WriteTimeline(dir string, times, stress []float64, marks []TimelineMark, ae
 			faces = append(faces, m.Face)
 		}
 		byFace[m.Face] = append(byFace[m.Face], plotter.XY{X: m.Time, Y: m.Stress})
+		if m.HasTrigger && plotFinite(m.TriggerTime) && plotFinite(m.TriggerStress) {
+			triggers[m.Face] = append(triggers[m.Face], plotter.XY{X: m.TriggerTime, Y: m.TriggerStress})
+		}
 	}
-	for k, f := range faces {
+	anyTrigger := false
+	for _, f := range faces {
+		k := faceIndex[f]
 		sc, err := plotter.NewScatter(byFace[f])
 		if err != nil {
 			continue
 		}
-		seriesPoints(sc, inks[k%len(inks)], glyphs[k%len(glyphs)], 3.5)
+		seriesPoints(sc, timelineInk(k), glyphs[k%len(glyphs)], 3.5)
 		p.Add(sc)
 		p.Legend.Add("onsets, face "+f, sc)
+		if tr := triggers[f]; len(tr) > 0 {
+			ts, err := plotter.NewScatter(tr)
+			if err == nil {
+				seriesPoints(ts, timelineInk(k), triggerGlyph{}, 4)
+				p.Add(ts)
+				anyTrigger = true
+			}
+		}
 	}
-	caption := "Nominal stress on the load log's clock with every face's onsets (each face's camera clock shifted by its own offset) and, when recorded, the cumulative acoustic emission scaled to the peak stress."
+	if bands > 0 {
+		p.Legend.Add("95 % interval of an onset", spanBand{Fill: bandColour(plotMuted), Edge: edgeColour(plotMuted)})
+	}
+	if anyTrigger {
+		legend, _ := plotter.NewScatter(plotter.XYs{{}})
+		seriesPoints(legend, plotMuted, triggerGlyph{}, 4)
+		p.Legend.Add("trigger (threshold confirmed)", legend)
+	}
+	caption := "Nominal stress on the load log's clock with every face's onsets (each face's camera clock shifted by its own offset): filled glyphs the back-dated onsets, shaded boxes their 95 % intervals (times across, stress up and down), crossed circles the triggers; and, when recorded, the cumulative acoustic emission scaled to the peak stress."
 	return writeFigure(dir, "timeline", "All faces on the load log's clock", caption, p.Draw)
+}
+
+// timelineInks are the faces' colours on the timeline, in face order.
+var timelineInks = []color.RGBA{{0xc0, 0x39, 0x2b, 0xff}, {0x1e, 0x84, 0x49, 0xff}, {0x8e, 0x44, 0xad, 0xff}, {0xb5, 0x65, 0x1d, 0xff}}
+
+// timelineInk is the colour of the k-th face.
+func timelineInk(k int) color.RGBA { return timelineInks[k%len(timelineInks)] }
+
+// timelineBand is the shaded box of a mark's interval (intervalBox), in
+// the face's colour; false without an interval.
+func timelineBand(m TimelineMark, curve plotter.XYs, pad float64, c color.RGBA) (spanBand, bool) {
+	if !m.HasInterval || !plotFinite(m.TimeLo) || !plotFinite(m.TimeHi) {
+		return spanBand{}, false
+	}
+	return intervalBox(m.TimeLo, m.TimeHi, m.StressLo, m.StressHi, curve, pad, c), true
 }
 
 // TimelinePNG is the timeline figure's path in a run folder.

@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 
+	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 	"gonum.org/v1/plot/vg/vgsvg"
@@ -27,20 +28,30 @@ type Figure struct {
 	// PNG and SVG are the files' paths relative to the run folder,
 	// slash-separated.
 	PNG, SVG string
+	// Width and Height are the PNG's size in pixels.
+	Width, Height int
 }
 
 // figureDrawer draws a whole figure onto a canvas.
 type figureDrawer func(c draw.Canvas)
 
 // writeFigure draws d into dir/plots/<name>.png and .svg (both written
-// atomically) and returns the figure.
+// atomically) at the plots' size and returns the figure.
 func writeFigure(dir, name, title, caption string, d figureDrawer) (Figure, error) {
+	return writeFigureSized(dir, name, title, caption, plotHeight, d)
+}
+
+// writeFigureSized is writeFigure for a figure of the plots' width and
+// the given height (small multiples grow downwards).
+func writeFigureSized(dir, name, title, caption string, height vg.Length, d figureDrawer) (Figure, error) {
 	if err := mkdirPlots(dir); err != nil {
 		return Figure{}, err
 	}
 	fig := Figure{Name: name, Title: title, Caption: caption,
 		PNG: PlotsDir + "/" + name + ".png", SVG: PlotsDir + "/" + name + ".svg"}
-	png := vgimg.NewWith(vgimg.UseWH(plotWidth, plotHeight), vgimg.UseDPI(plotDPI), vgimg.UseBackgroundColor(color.White))
+	png := vgimg.NewWith(vgimg.UseWH(plotWidth, height), vgimg.UseDPI(plotDPI), vgimg.UseBackgroundColor(color.White))
+	b := png.Image().Bounds()
+	fig.Width, fig.Height = b.Dx(), b.Dy()
 	d(draw.New(png))
 	if err := runfolder.WriteAtomic(filepath.Join(dir, fig.PNG), func(w *bufio.Writer) error {
 		_, err := vgimg.PngCanvas{Canvas: png}.WriteTo(w)
@@ -48,7 +59,7 @@ func writeFigure(dir, name, title, caption string, d figureDrawer) (Figure, erro
 	}); err != nil {
 		return Figure{}, err
 	}
-	svg := vgsvg.New(plotWidth, plotHeight)
+	svg := vgsvg.New(plotWidth, height)
 	// The SVG has no background of its own: paint the page white first,
 	// as the PNG is.
 	c := draw.New(svg)

@@ -141,12 +141,20 @@ func fixtureLoad(s float64) float64 {
 	return fixtureStress[len(fixtureStress)-1]
 }
 
-// fixtureOnsetCount is the number of onsets in the fixture's onset.json.
-const fixtureOnsetCount = 3
+// fixtureOnsetCount is the number of onsets in the fixture's onset.json;
+// fixtureLeftOnset is the frame of the first (back-dated) onset.
+const (
+	fixtureOnsetCount = 3
+	fixtureLeftOnset  = 2
+)
 
-// writeFixtureOnsets writes onset.json (two sidewall localizations at
-// frame 3, a crown decorrelation at frame 5 outside the load log) and the
-// zones behind them.
+// writeFixtureOnsets writes onset.json and the zones behind it. The
+// left-sidewall localization was triggered at frame 3 and back-dated to
+// frame 2 (interval frames 1 to 3); the right-sidewall localization was
+// not back-dated (onset, trigger and a one-frame interval at frame 3); the
+// crown decorrelation at frame 5, outside the load log, is a record from
+// before back-dating (no trigger, interval or history). Invented numbers,
+// for tests only.
 func writeFixtureOnsets(t testing.TB, dir string) {
 	t.Helper()
 	const k, ucs = 0.0, 60.0
@@ -158,15 +166,39 @@ func writeFixtureOnsets(t testing.TB, dir string) {
 		o.Context, _ = strain.NewContext(sec, o.Stress, k, ucs)
 		return o
 	}
+	dated := func(o strainfile.OnsetRecord, trigger, first, last int, mean, threshold []float64) strainfile.OnsetRecord {
+		o.TriggerFrame, o.TriggerName = trigger, fixtureNames[trigger]
+		o.Interval = &strain.OnsetInterval{Confidence: 0.95, Method: "fixture", Model: "slope",
+			FirstFrame: first, LastFrame: last, First: fixtureNames[first], Last: fixtureNames[last],
+			TimeLo: fixtureTimes[first], TimeHi: fixtureTimes[last], StressLo: fixtureStress[first], StressHi: fixtureStress[last], LogLik: 42.5}
+		h := &strain.OnsetHistory{}
+		for f := range mean {
+			h.Frames = append(h.Frames, f)
+			h.ZoneMean = append(h.ZoneMean, mean[f])
+			h.Threshold = append(h.Threshold, threshold[f])
+			h.Signal = append(h.Signal, mean[f]/threshold[0])
+		}
+		o.History = h
+		return o
+	}
+	left := dated(onset(strain.LeftSidewall, strain.Localization, strain.MaxPrincipal, fixtureLeftOnset, 1, 1.92, 2.1e-3, 48, 60),
+		3, 1, 3, []float64{20e-6, 25e-6, 90e-6, 2.1e-3, 3.0e-3, 4.2e-3}, []float64{390e-6, 390e-6, 400e-6, 420e-6, 450e-6, 480e-6})
+	right := dated(onset(strain.RightSidewall, strain.Localization, strain.MaxShear, 3, 2, 1.28, 1.7e-3, 96, 60),
+		3, 3, 3, []float64{30e-6, 20e-6, 35e-6, 1.7e-3, 2.2e-3, 2.9e-3}, []float64{480e-6, 480e-6, 490e-6, 500e-6, 520e-6, 540e-6})
 	rep := strainfile.OnsetReport{Tool: "spallscope test", Peak: strainfile.PeakRecord{Stress: 24, Time: 8, Frame: fixtureNames[4]},
 		Openings: []strainfile.OpeningRecord{{Index: 0, Name: "A"}},
 		Onsets: []strainfile.OnsetRecord{
-			onset(strain.LeftSidewall, strain.Localization, strain.MaxPrincipal, 3, 1, 1.92, 2.1e-3, 48, 60),
-			onset(strain.RightSidewall, strain.Localization, strain.MaxShear, 3, 2, 1.28, 1.7e-3, 96, 60),
+			left, right,
 			onset(strain.Crown, strain.Decorrelated, strain.Decorrelation, 5, 3, 0.64, 1, 72, 36),
 		},
 		Settings: strainfile.ZoneSettings{Indicators: []strain.Indicator{strain.MaxPrincipal, strain.MaxShear, strain.Decorrelation},
 			Persistence: 3, CalibrateBelow: 0.2, CalibFrames: 2, K: k, UCS: ucs},
+		// Limits as the zones stage defines them: strain = K × noise,
+		// opening = strain × VSG (31 px at 0.1 mm/px).
+		DetectionLimits: []strainfile.DetectionLimit{
+			{Indicator: strain.MaxPrincipal, Noise: 65e-6, K: 6, Strain: 390e-6, VSG: 31, OpeningPx: 390e-6 * 31, OpeningMM: 390e-6 * 31 * 0.1},
+			{Indicator: strain.MaxShear, Noise: 80e-6, K: 6, Strain: 480e-6, VSG: 31, OpeningPx: 480e-6 * 31, OpeningMM: 480e-6 * 31 * 0.1},
+		},
 		Cautions: strainfile.Cautions,
 	}
 	fixtureMust(t, runfolder.WriteAtomic(filepath.Join(dir, strainfile.OnsetJSON), func(w *bufio.Writer) error {

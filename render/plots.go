@@ -11,7 +11,11 @@ type PlotOptions struct {
 // dir/plots/, each as PNG and SVG, and returns them in report order:
 //
 //   - stress_time: nominal stress against time with the onsets by sector
-//     and class, and the peak (needs a load log or frame stresses);
+//     and class, their 95 % intervals and triggers, and the peak (needs a
+//     load log or frame stresses);
+//   - onset_histories: per onset, its zone's indicator history with the
+//     threshold, the back-dated onset, its interval and the trigger
+//     (needs onset.json with histories);
 //   - zones_area, zones_peak: area and peak strain of the largest zones,
 //     frame by frame (needs zones.csv);
 //   - sectors_peak: the largest zone peak per sector, frame by frame;
@@ -41,7 +45,7 @@ func writeRunPlots(r *runRecords, opt PlotOptions) ([]Figure, *virtualReadings, 
 		}
 		return err
 	}
-	for _, draw := range []func(*runRecords) (Figure, bool, error){plotStressTime, plotStressAE, plotZoneAreas, plotZonePeaks, plotSectorHistories} {
+	for _, draw := range []func(*runRecords) (Figure, bool, error){plotStressTime, plotOnsetHistories, plotStressAE, plotZoneAreas, plotZonePeaks, plotSectorHistories} {
 		if err := add(draw(r)); err != nil {
 			return nil, nil, err
 		}

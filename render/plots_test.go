@@ -16,8 +16,9 @@ import (
 )
 
 // Every plot of the fixture run is written as a PNG that Go's image/png
-// decodes at the stated size (16 × 9.5 cm at 150 dpi: 945 × 561 px) and an
-// SVG document.
+// decodes at the stated size (16 × 9.5 cm at 150 dpi: 945 × 561 px; the
+// onset histories 16 cm wide and as tall as their panels, at the size the
+// figure states) and an SVG document.
 func TestPlotsWritten(t *testing.T) {
 	dir := t.TempDir()
 	writeFixtureRun(t, dir)
@@ -37,8 +38,12 @@ func TestPlotsWritten(t *testing.T) {
 			t.Errorf("%s: not a PNG: %v", f.PNG, err)
 			continue
 		}
-		if b := img.Bounds(); b.Dx() != 945 || b.Dy() != 561 {
-			t.Errorf("%s: %v px, want 945 × 561", f.PNG, b.Size())
+		wantH := 561
+		if f.Name == "onset_histories" {
+			wantH = f.Height
+		}
+		if b := img.Bounds(); b.Dx() != 945 || b.Dy() != wantH || f.Width != b.Dx() || f.Height != b.Dy() {
+			t.Errorf("%s: %v px (figure says %d × %d), want 945 × %d", f.PNG, b.Size(), f.Width, f.Height, wantH)
 		}
 		svg, err := os.ReadFile(filepath.Join(dir, f.SVG))
 		if err != nil {
@@ -51,7 +56,7 @@ func TestPlotsWritten(t *testing.T) {
 			t.Errorf("%s has no title or caption", f.Name)
 		}
 	}
-	want := []string{"stress_time", "zones_area", "zones_peak", "sectors_peak", "stress_strain", "noise_floor"}
+	want := []string{"stress_time", "onset_histories", "zones_area", "zones_peak", "sectors_peak", "stress_strain", "noise_floor"}
 	if !slices.Equal(names, want) {
 		t.Errorf("plots %v, want %v", names, want)
 	}

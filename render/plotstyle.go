@@ -19,10 +19,13 @@ import (
 // Liberation faces, so plots look the same on every machine).
 var plotFace = font.Font{Typeface: "Liberation", Variant: "Sans"}
 
-// plotInk is the colour of text and axes; plotRule that of grid lines.
+// plotInk is the colour of text and axes; plotRule that of grid lines;
+// plotMuted that of legend samples that stand for every colour (an
+// interval band, a trigger mark).
 var (
-	plotInk  = color.RGBA{0x26, 0x2b, 0x33, 0xff}
-	plotRule = color.RGBA{0xdc, 0xe0, 0xe6, 0xff}
+	plotInk   = color.RGBA{0x26, 0x2b, 0x33, 0xff}
+	plotRule  = color.RGBA{0xdc, 0xe0, 0xe6, 0xff}
+	plotMuted = color.RGBA{0x5d, 0x66, 0x73, 0xff}
 )
 
 // plotPalette holds the series colours, in the order series take them.
@@ -177,4 +180,27 @@ func (ringGlyphBold) DrawGlyph(c *draw.Canvas, sty draw.GlyphStyle, pt vg.Point)
 	p.Arc(pt, sty.Radius, 0, 2*math.Pi)
 	p.Close()
 	c.Stroke(p)
+}
+
+// triggerGlyph marks the frame whose threshold confirmed a zone (an onset's
+// trigger): an open circle with a cross, distinct from the filled glyph of
+// the back-dated onset.
+type triggerGlyph struct{}
+
+// DrawGlyph implements draw.GlyphDrawer.
+func (triggerGlyph) DrawGlyph(c *draw.Canvas, sty draw.GlyphStyle, pt vg.Point) {
+	c.SetLineStyle(draw.LineStyle{Color: sty.Color, Width: 1.1})
+	r := sty.Radius
+	var p vg.Path
+	p.Move(vg.Point{X: pt.X + r, Y: pt.Y})
+	p.Arc(pt, r, 0, 2*math.Pi)
+	p.Close()
+	c.Stroke(p)
+	var x vg.Path
+	d := 0.7 * r
+	x.Move(vg.Point{X: pt.X - d, Y: pt.Y - d})
+	x.Line(vg.Point{X: pt.X + d, Y: pt.Y + d})
+	x.Move(vg.Point{X: pt.X - d, Y: pt.Y + d})
+	x.Line(vg.Point{X: pt.X + d, Y: pt.Y - d})
+	c.Stroke(x)
 }

@@ -3,6 +3,8 @@ package render
 import (
 	"bytes"
 	"context"
+	"encoding/json"
+	"fmt"
 	"image/png"
 	"net/url"
 	"os"
@@ -13,6 +15,8 @@ import (
 	"time"
 
 	"github.com/chromedp/chromedp"
+
+	"spallscope/strain/strainfile"
 )
 
 // browserPath returns Debian's chromium, or "" when it is not installed.
@@ -77,6 +81,27 @@ func eval[T any](t *testing.T, ctx context.Context, expr string) T {
 	return v
 }
 
+// firstOnsetOf returns the frame index and name of the earliest onset in
+// a run folder's onset.json, read here on its own.
+func firstOnsetOf(t *testing.T, dir string) (int, string) {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join(dir, strainfile.OnsetJSON))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rep strainfile.OnsetReport
+	if err := json.Unmarshal(data, &rep); err != nil {
+		t.Fatal(err)
+	}
+	first, name := -1, ""
+	for _, o := range rep.Onsets {
+		if first < 0 || o.Frame < first {
+			first, name = o.Frame, o.Name
+		}
+	}
+	return first, name
+}
+
 // imagesLoaded is true once every image of the page has loaded with a size.
 const imagesLoaded = `Array.from(document.images).every(i => i.complete && i.naturalWidth > 0)`
 
@@ -123,8 +148,19 @@ func TestBrowserReport(t *testing.T) {
 	if typ := eval[string](t, ctx, `document.getElementById("frame-slider").type`); typ != "range" {
 		t.Fatalf("frame slider is a %q input", typ)
 	}
-	if s := eval[string](t, ctx, `document.getElementById("frame-name").textContent`); s != "blk_0000" {
-		t.Errorf("first frame shown: %q", s)
+	// The slider starts at the first onset's frame: the earliest
+	// back-dated onset of onset.json (the left sidewall's, frame 2).
+	first, firstName := firstOnsetOf(t, dir)
+	start := eval[string](t, ctx, `document.getElementById("frame-slider").value + "|" + document.getElementById("frame-name").textContent + "|" + document.getElementById("frame-pos").textContent`)
+	if want := fmt.Sprintf("%d|%s|%d / 6", first, firstName, first+1); start != want {
+		t.Errorf("slider starts at %q, want %q (the first onset)", start, want)
+	}
+	if _, err := chromedp.Run(ctx, chromedp.Poll[bool](fmt.Sprintf(`(() => { const i = document.getElementById("frame-image"); return i.complete && i.naturalWidth === %d && i.src.endsWith("overlays/%s.png"); })()`, 144+4*first, firstName), chromedp.WithPollingTimeout(10*time.Second), chromedp.WithPollingInterval(50*time.Millisecond))); err != nil {
+		t.Errorf("first frame image: %v (src %s)", err, eval[string](t, ctx, `document.getElementById("frame-image").src`))
+	}
+	// The onset histories are shown with the onsets, at their own size.
+	if got := eval[[]float64](t, ctx, `(() => { const i = document.querySelector("#onsets figure img"); return i ? [i.naturalWidth, i.naturalHeight] : []; })()`); len(got) != 2 || got[0] != 945 || got[1] < 300 {
+		t.Errorf("onset histories image %v, want 945 px wide and taller than 300 px", got)
 	}
 	// Move the slider to frame 3 as a user would (value, then the input event).
 	got := eval[string](t, ctx, `(() => { const s = document.getElementById("frame-slider"); s.value = 3; s.dispatchEvent(new Event("input", {bubbles: true})); return document.getElementById("frame-caption").textContent; })()`)

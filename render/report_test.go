@@ -10,6 +10,9 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"spallscope/dic/aelog"
+	"spallscope/dic/runfolder"
 )
 
 // reportVoid are the HTML elements without an end tag (the HTML standard's
@@ -85,7 +88,7 @@ func writeFixtureReport(t *testing.T, opt ReportOptions) (dir, page string) {
 func TestReportContent(t *testing.T) {
 	dir, page := writeFixtureReport(t, ReportOptions{Tool: "spallscope test-1"})
 	checkReportStructure(t, page)
-	if n := strings.Count(page, `<tr class="onset">`); n != fixtureOnsetCount {
+	if n := strings.Count(page, `<tr class="onset"`); n != fixtureOnsetCount {
 		t.Errorf("%d onset rows, want %d", n, fixtureOnsetCount)
 	}
 	wants := []string{
@@ -94,13 +97,32 @@ func TestReportContent(t *testing.T) {
 		// settings and resolution (fixture values)
 		"15 px (1.5 mm)", "affine", "bicubic", "3 × 3 grid points", "31 px (3.1 mm)", "engineering",
 		">0.004<", "0.4 µm", ">70<", "blk_0000, blk_0001",
-		// onsets: left sidewall at 18 MPa, 75 % of the 24 MPa peak; Kirsch 3σ = 54 MPa = 0.90 UCS
-		"left-sidewall", "blk_0003 (#3)", ">18.00<", ">75<", "1.92 mm²",
+		// onsets: the left sidewall back-dated to frame 2 at 12 MPa, 50 %
+		// of the 24 MPa peak; Kirsch (3 − K)σ with K = 0: 3 × 12 = 36 MPa
+		// = 0.60 of the 60 MPa UCS; the right sidewall at 18 MPa: 54 MPa
+		// = 0.90 UCS (Kirsch 1898, worked by hand).
+		"A left-sidewall", "blk_0002 (#2)", ">12.00<", ">50<",
+		"σθ ≈ (3 − K)·σ = 3 × 12 MPa = 36 MPa (K = 0)", "0.60 UCS (UCS 60 MPa)",
 		"σθ ≈ (3 − K)·σ = 3 × 18 MPa = 54 MPa (K = 0)", "0.90 UCS (UCS 60 MPa)",
+		">36 MPa · 0.60 UCS<", ">54 MPa · 0.90 UCS<",
 		"0.4 ± 0.1 UCS (Martin, Kaiser &amp; McCreath 1999)", "Approximation (single circular opening, elastic medium)",
 		"tensile at the boundary", "not in the load log: stress not measured",
-		// slider
-		`<input type="range" id="frame-slider" min="0" max="5"`, `data-src="overlays/blk_0005.png"`, "σ = 18 MPa (75 % of peak)",
+		// the interval (frames and stress) and the trigger of each onset
+		`title="blk_0001 … blk_0003, 2.00–6.00 s, 6.00–18.00 MPa">#1–#3, 6.00–18.00 MPa<`,
+		`>#3, 18.00 MPa<`, `<td class="trigger">blk_0003 (#3)</td>`, `<td class="trigger">—</td>`,
+		"back-dated 1 frame(s) from the trigger blk_0003 (#3); zone area 1.92 mm²", "Intervals by fixture.", "at the trigger frame blk_0003 (#3)",
+		"95 % interval blk_0001 … blk_0003 (#1–#3), 2.00–6.00 s, 6.00–18.00 MPa; change model slope, log-likelihood ratio 42.5 against no change",
+		// the detection limits in words: strain = K × noise = 6 × 65 µε,
+		// opening = 390 µε × 31 px = 0.01209 px = 1.209 µm at 0.1 mm/px
+		// (arithmetic by hand)
+		`id="detection-limits"`,
+		"By e1, a localized strain below 390 µε over the 31 px VSG, or a crack opening below 1.21 µm (0.0121 px), cannot be seen in this run.",
+		"By γmax, a localized strain below 480 µε over the 31 px VSG, or a crack opening below 1.49 µm (0.0149 px), cannot be seen in this run.",
+		// slider: starts at the first onset, frame 2 (the third overlay)
+		`<input type="range" id="frame-slider" min="0" max="5" value="2"`, `<span id="frame-pos" class="muted">3 / 6</span>`,
+		`<img id="frame-image" src="overlays/blk_0002.png"`, `data-src="overlays/blk_0005.png"`, "σ = 18 MPa (75 % of peak)",
+		// the onsets' histories, with the onsets
+		`<figure class="plot" id="plot-onset_histories">`,
 		// pattern
 		`id="pattern"`, "3.2 px", "fixture note: speckles are small",
 	}
@@ -122,8 +144,58 @@ func TestReportContent(t *testing.T) {
 			t.Errorf("page refers to %q: %v", ref, err)
 		}
 	}
-	if n := strings.Count(page, `<figure class="plot"`); n != 6 {
-		t.Errorf("%d plots on the page, want 6", n)
+	if n := strings.Count(page, `<figure class="plot"`); n != 7 {
+		t.Errorf("%d plots on the page, want 7 (6 and the onset histories)", n)
+	}
+	// The onset histories sit with the onsets, before the frames.
+	if h, f := strings.Index(page, `id="plot-onset_histories"`), strings.Index(page, `<section id="frames">`); h < 0 || h > f {
+		t.Error("the onset histories are not in the onsets section")
+	}
+	// The decorrelation record from before back-dating shows no interval.
+	row := page[strings.Index(page, `id="onset-3"`):]
+	row = row[:strings.Index(row, "</tr>")]
+	if !strings.Contains(row, `<td class="interval">—</td>`) {
+		t.Errorf("onset 3 (no interval) row: %s", row)
+	}
+}
+
+// Factors and ratios are printed rounded everywhere on the page: a
+// threshold of 0.30000000000000004 hits/s over a background of 0.1 hits/s
+// is "3 ×" (IEEE 754 double arithmetic: 0.1 + 0.2 is not 0.3, so ratios
+// computed from such inputs carry round-off), and no number on the page
+// carries seven or more decimals (common practice, no source).
+func TestReportFactorsRounded(t *testing.T) {
+	cases := []struct {
+		v    float64
+		want string
+	}{
+		{0.30000000000000004 / 0.1, "3"}, {2.75, "2.75"}, {100 * 0.95, "95"}, {0.1 + 0.2, "0.3"},
+		{1.0 / 3, "0.333"}, {2.0 / 3, "0.667"}, {1234.5, "1230"}, {-0.25, "-0.25"}, {0, "0"},
+		{9.72e6 + 0.4, "9.72 × 10⁶"}, {22500000.000000004, "2.25 × 10⁷"}, {1e5, "1 × 10⁵"}, {3.1e-5, "3.1 × 10⁻⁵"},
+	}
+	for _, c := range cases {
+		if got := formatFactor(c.v); got != c.want {
+			t.Errorf("formatFactor(%v) = %q, want %q", c.v, got, c.want)
+		}
+	}
+	dir := filepath.Join(t.TempDir(), "run")
+	writeFixtureRun(t, dir)
+	ae := runfolder.AERecord{Path: "ae.csv", Hits: 40, Times: []float64{0, 5, 10}, Cumulative: []float64{0, 10, 40},
+		Onset: &aelog.Onset{Time: 5, Background: 0.1, Threshold: 0.1 + 0.2}, Rule: "fixture rule"}
+	fixtureMust(t, runfolder.SetSection(dir, "ae", ae))
+	path, err := WriteReport(dir, ReportOptions{Embed: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, _ := os.ReadFile(path)
+	page := string(data)
+	if !strings.Contains(page, "3 × the early background of 0.1 hits/s") {
+		i := strings.Index(page, `id="ae-onset"`)
+		t.Errorf("AE factor not rounded: %.300s", page[max(i, 0):])
+	}
+	text := regexp.MustCompile(`data:[^"]*"|<script>(?s:.*?)</script>`).ReplaceAllString(page, "")
+	if m := regexp.MustCompile(`\d\.\d{7,}`).FindAllString(text, 5); len(m) > 0 {
+		t.Errorf("numbers with long decimals on the page: %v", m)
 	}
 }
 
@@ -145,8 +217,8 @@ func TestReportEscapes(t *testing.T) {
 func TestReportEmbedAndOut(t *testing.T) {
 	_, page := writeFixtureReport(t, ReportOptions{Embed: true})
 	checkReportStructure(t, page)
-	if n := strings.Count(page, ` src="data:image/png;base64,`); n != 6+1+1 {
-		t.Errorf("%d embedded images, want 8: 6 plots, the first overlay and the pattern map", n)
+	if n := strings.Count(page, ` src="data:image/png;base64,`); n != 7+1+1 {
+		t.Errorf("%d embedded images, want 9: 7 plots, the first overlay and the pattern map", n)
 	}
 	if n := strings.Count(page, `data-src="data:image/png;base64,`); n != len(fixtureNames) {
 		t.Errorf("%d embedded overlays, want %d", n, len(fixtureNames))
@@ -219,7 +291,7 @@ func TestReportOnPartialRun(t *testing.T) {
 			t.Errorf("partial report lacks %q", w)
 		}
 	}
-	if strings.Contains(page, `id="frame-slider"`) || strings.Contains(page, `<tr class="onset">`) {
+	if strings.Contains(page, `id="frame-slider"`) || strings.Contains(page, `<tr class="onset"`) {
 		t.Error("partial report shows a slider or onsets it has no data for")
 	}
 	// A pattern file that was asked for must exist.

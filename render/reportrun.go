@@ -207,6 +207,42 @@ func (r *runRecords) OnsetX(o strainfile.OnsetRecord) float64 {
 	return float64(o.Frame)
 }
 
+// Index returns the position of a frame in the sequence by name, and
+// whether it is known.
+func (a frameAxis) Index(name string) (int, bool) {
+	k, ok := a.index[name]
+	return k, ok
+}
+
+// FrameX returns the place of the frame at position k of the sequence (the
+// frame index of onset.json's histories), and whether it is known.
+func (r *runRecords) FrameX(k int) (float64, bool) {
+	if k >= 0 && k < len(r.Axis.X) {
+		return r.Axis.X[k], true
+	}
+	if !r.Axis.Timed {
+		return float64(k), true
+	}
+	return 0, false
+}
+
+// TriggerAt returns the place of an onset's trigger frame on the frame
+// axis and its nominal stress (NaN when unknown), and whether the trigger
+// is known (records from before back-dating carry none).
+func (r *runRecords) TriggerAt(o strainfile.OnsetRecord) (x, stress float64, ok bool) {
+	if o.TriggerName == "" && o.Interval == nil {
+		return 0, math.NaN(), false
+	}
+	k, found := r.Axis.Index(o.TriggerName)
+	if !found {
+		if o.TriggerName != "" || o.TriggerFrame < 0 || o.TriggerFrame >= len(r.Axis.X) {
+			return 0, math.NaN(), false
+		}
+		k = o.TriggerFrame
+	}
+	return r.Axis.X[k], r.Axis.Stress[k], true
+}
+
 // ZoneX returns the place of a zone row on the frame axis.
 func (r *runRecords) ZoneX(z strainfile.ZoneRow) float64 {
 	if x, ok := r.Axis.Of(z.Frame); ok {

@@ -1,10 +1,9 @@
 package job
 
 import (
-	"bufio"
 	"context"
 	"fmt"
-	"html/template"
+	"math"
 	"path/filepath"
 	"slices"
 	"time"
@@ -47,6 +46,13 @@ type FacesReport struct {
 // faces' reports side by side.
 func runFaces(ctx context.Context, t *config.Test, out, tool string, progress Progress) (*Summary, error) {
 	start := time.Now()
+	// A face's name names its folder under out/faces: refuse one that
+	// would leave it, before any face runs.
+	for i, f := range t.Faces {
+		if err := render.CheckFaceName(f.Name); err != nil {
+			return nil, fmt.Errorf("faces[%d]: %w", i, err)
+		}
+	}
 	sum := &Summary{Name: t.Name, Out: out}
 	rep := FacesReport{Tool: tool, Cautions: strainfile.Cautions}
 	for i := range t.Faces {
@@ -101,8 +107,15 @@ func runFaces(ctx context.Context, t *config.Test, out, tool string, progress Pr
 			logTimes[i] = t + ld.Offset
 		}
 		var marks []render.TimelineMark
+		timelines := map[string]*strainfile.TimelineRecord{}
+		for _, f := range rep.Faces {
+			var tl strainfile.TimelineRecord
+			if runfolder.Section(filepath.Join(out, FacesDir, f), "timeline", &tl) == nil {
+				timelines[f] = &tl
+			}
+		}
 		for _, o := range rep.Onsets {
-			marks = append(marks, render.TimelineMark{Face: o.Face, Label: o.Class, Time: o.LogTime, Stress: o.Stress})
+			marks = append(marks, timelineMark(o, timelines[o.Face]))
 		}
 		var aeT, aeH []float64
 		var aer runfolder.AERecord
@@ -121,14 +134,14 @@ func runFaces(ctx context.Context, t *config.Test, out, tool string, progress Pr
 		return nil, err
 	}
 	if t.Outputs.WantReport() {
-		err = runfolder.WriteAtomic(filepath.Join(out, render.ReportFile), func(w *bufio.Writer) error {
-			return facesPage.Execute(w, struct {
-				Name     string
-				Timeline string
-				FacesReport
-			}{t.Name, timeline, rep})
-		})
-		if err != nil {
+		page := render.FacesPage{Name: t.Name, Faces: rep.Faces, Timeline: timeline, Cautions: rep.Cautions}
+		for _, o := range rep.Onsets {
+			page.Onsets = append(page.Onsets, render.FaceOnset{Face: o.Face, Onset: o.OnsetRecord, LogTime: o.LogTime})
+		}
+		if f := rep.First; f != nil {
+			page.First = &render.FaceOnset{Face: f.Face, Onset: f.OnsetRecord, LogTime: f.LogTime}
+		}
+		if err := render.WriteFacesPage(filepath.Join(out, render.ReportFile), page); err != nil {
 			return nil, err
 		}
 		sum.Report = filepath.Join(out, render.ReportFile)
@@ -137,24 +150,27 @@ func runFaces(ctx context.Context, t *config.Test, out, tool string, progress Pr
 	return sum, nil
 }
 
-var facesPage = template.Must(template.New("faces").Parse(`<!DOCTYPE html>
-<html lang="en"><head><meta charset="utf-8"><title>{{.Name}} — all faces</title>
-<style>
-body{font-family:system-ui,sans-serif;margin:1.5rem;color:#1d2733}
-.caution{border-left:4px solid #b5651d;background:#fbf5ef;padding:.5rem 1rem;margin:1rem 0}
-table{border-collapse:collapse;font-size:.9rem;margin:1rem 0}
-th,td{border:1px solid #c9d1da;padding:.25rem .5rem;text-align:left}
-th{background:#eef2f6}
-.faces{display:flex;gap:1rem;flex-wrap:wrap}
-.faces iframe{flex:1 1 45%;min-width:420px;height:80vh;border:1px solid #c9d1da}
-</style></head><body>
-<h1>{{.Name}} — all faces on the load log's clock</h1>
-<div class="caution">{{range .Cautions}}<p>{{.}}</p>{{end}}</div>
-{{with .First}}<p id="first">First onset over all faces: <b>{{.Face}}</b>, {{.Class}} at {{.OpeningName}} {{.Sector}},
-log time {{printf "%.1f" .LogTime}} s, {{printf "%.2f" .Stress}} MPa ({{printf "%.0f" .Percent}} % of peak).</p>{{end}}
-<table id="onsets"><thead><tr><th>face</th><th>class</th><th>opening</th><th>sector</th><th>indicator</th><th>frame</th><th>log time, s</th><th>stress, MPa</th><th>% of peak</th></tr></thead>
-<tbody>{{range .Onsets}}<tr><td>{{.Face}}</td><td>{{.Class}}</td><td>{{.OpeningName}}</td><td>{{.Sector}}</td><td>{{.Indicator}}</td><td>{{.Name}}</td><td>{{printf "%.1f" .LogTime}}</td><td>{{printf "%.2f" .Stress}}</td><td>{{printf "%.0f" .Percent}}</td></tr>{{end}}</tbody></table>
-{{with .Timeline}}<figure><img id="timeline" src="{{.}}" alt="all faces on the load log's clock" style="max-width:100%"><figcaption>All faces' onsets on the load log's clock over the nominal stress{{if $.First}}; the first onset over all faces is listed above{{end}}.</figcaption></figure>{{end}}
-<div class="faces">{{range .Faces}}<iframe title="face {{.}}" src="faces/{{.}}/report.html"></iframe>{{end}}</div>
-</body></html>
-`))
+// timelineMark places an onset of a face on the common timeline: the
+// onset, its interval (shifted by the face's clock offset) and its trigger
+// frame, whose time and stress come from the face's timeline record
+// (onset.json names the trigger frame but not its time).
+func timelineMark(o FaceOnset, tl *strainfile.TimelineRecord) render.TimelineMark {
+	m := render.TimelineMark{Face: o.Face, Label: o.Class, Time: o.LogTime, Stress: o.Stress}
+	offset := o.LogTime - o.Time
+	if iv := o.Interval; iv != nil {
+		m.HasInterval = true
+		m.TimeLo, m.TimeHi = iv.TimeLo+offset, iv.TimeHi+offset
+		m.StressLo, m.StressHi = math.NaN(), math.NaN()
+		if o.InSpan {
+			m.StressLo, m.StressHi = iv.StressLo, iv.StressHi
+		}
+	}
+	if tl != nil && o.TriggerName != "" {
+		k := slices.Index(tl.Frames, o.TriggerName)
+		if k >= 0 && k < len(tl.Times) && k < len(tl.Stress) && (k >= len(tl.InSpan) || tl.InSpan[k]) {
+			m.HasTrigger = true
+			m.TriggerTime, m.TriggerStress = tl.Times[k]+offset, tl.Stress[k]
+		}
+	}
+	return m
+}
