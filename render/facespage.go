@@ -147,9 +147,9 @@ func newFacesRow(f FaceOnset) facesRow {
 		if iv.FirstFrame == iv.LastFrame {
 			frames = iv.First
 		}
-		parts := []string{fmt.Sprintf("%.1f–%.1f s", iv.TimeLo+offset, iv.TimeHi+offset)}
+		parts := []string{formatRange(iv.TimeLo+offset, iv.TimeHi+offset, "%.1f", "s")}
 		if o.InSpan && plotFinite(iv.StressLo) && plotFinite(iv.StressHi) {
-			parts = append(parts, fmt.Sprintf("%.2f–%.2f MPa", iv.StressLo, iv.StressHi))
+			parts = append(parts, formatRange(iv.StressLo, iv.StressHi, "%.2f", "MPa"))
 		}
 		row.Interval = strings.Join(parts, ", ")
 		row.IntervalTitle = frames
@@ -170,7 +170,7 @@ func firstOnsetLine(f FaceOnset) string {
 	s := fmt.Sprintf("%s, %s at %s, log time %.1f s, %.2f MPa (%.0f %% of peak)", f.Face, o.Class, place, f.LogTime, o.Stress, o.Percent)
 	if iv := o.Interval; iv != nil {
 		offset := f.LogTime - o.Time
-		s += fmt.Sprintf("; %s %% interval %.1f–%.1f s", formatFactor(100*iv.Confidence), iv.TimeLo+offset, iv.TimeHi+offset)
+		s += fmt.Sprintf("; %s %% interval %s", formatFactor(100*iv.Confidence), formatRange(iv.TimeLo+offset, iv.TimeHi+offset, "%.1f", "s"))
 	}
 	return s + "."
 }
