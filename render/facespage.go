@@ -65,7 +65,7 @@ type facesRow struct {
 // faces folder.
 func WriteFacesPage(path string, p FacesPage) error {
 	for _, f := range p.Faces {
-		if err := CheckFaceName(f); err != nil {
+		if err := checkFaceName(f); err != nil {
 			return fmt.Errorf("faces page %s: %w", path, err)
 		}
 	}
@@ -94,10 +94,11 @@ func WriteFacesPage(path string, p FacesPage) error {
 	return nil
 }
 
-// CheckFaceName reports whether a face name can name the face's folder
-// under the faces folder: one plain folder name, not empty, not "." or
+// checkFaceName reports whether a face name can name the face's folder
+// under the faces folder (the test config refuses others at the edge; the
+// page checks again, as a library function): one plain folder name, not empty, not "." or
 // "..", without a slash, a backslash or a control character.
-func CheckFaceName(name string) error {
+func checkFaceName(name string) error {
 	switch {
 	case name == "":
 		return fmt.Errorf("face name is empty")

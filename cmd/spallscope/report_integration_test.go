@@ -51,7 +51,7 @@ func TestReportCommandOnPipelineRun(t *testing.T) {
 	if len(rep.Onsets) == 0 {
 		t.Fatal("the band fixture gave no onset")
 	}
-	if n := strings.Count(string(page), `<tr class="onset">`); n != len(rep.Onsets) {
+	if n := strings.Count(string(page), `<tr class="onset" `); n != len(rep.Onsets) {
 		t.Errorf("%d onset rows, onset.json has %d onsets", n, len(rep.Onsets))
 	}
 	for _, w := range []string{"eye protection", "right-sidewall", "spallscope " + version, "a comparison, not a verdict"} {
