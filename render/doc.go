@@ -15,12 +15,19 @@
 //
 // Plots and report: WritePlots draws the run's histories with gonum/plot
 // into RUN/plots/ as PNG and SVG (plot*.go): nominal stress with the
-// onsets, zone areas and peaks, the largest peak per sector, stress against
-// a virtual extensometer and gauge (Extensometer, Gauge) and the noise
-// floor. WriteReport writes RUN/report.html through html/template (report*.go,
-// page*.go, templates/): cautions, job, settings and resolution, onsets
-// with the Kirsch boundary-stress comparison, a frame slider over
-// RUN/overlays/*.png and the plots. The page's style and few lines of
+// onsets, their 95 % intervals as shaded boxes and their triggers, each
+// onset's indicator history (small multiples with the threshold, the
+// back-dated onset, its interval and the trigger), zone areas and peaks,
+// the largest peak per sector, stress against a virtual extensometer and
+// gauge (Extensometer, Gauge) and the noise floor. WriteReport writes
+// RUN/report.html through html/template (report*.go, page*.go,
+// templates/): cautions, job, settings and resolution, the detection limit
+// in words, onsets (one line each: onset, interval, trigger) with the
+// Kirsch boundary-stress comparison below them, a frame slider over
+// RUN/overlays/*.png starting at the first onset, and the plots.
+// WriteFacesPage writes the page of a test with several faces: their
+// onsets on the load log's clock, the timeline (WriteTimeline) and the
+// face reports side by side. The page's style and few lines of
 // script are inline; images are referenced by paths relative to the page
 // (keep it with the run folder) or, with Embed, carried as data URIs in the
 // one file. It loads nothing from the network.

@@ -65,7 +65,7 @@ type facesRow struct {
 // faces folder.
 func WriteFacesPage(path string, p FacesPage) error {
 	for _, f := range p.Faces {
-		if err := CheckFaceName(f); err != nil {
+		if err := checkFaceName(f); err != nil {
 			return fmt.Errorf("faces page %s: %w", path, err)
 		}
 	}
@@ -94,10 +94,11 @@ func WriteFacesPage(path string, p FacesPage) error {
 	return nil
 }
 
-// CheckFaceName reports whether a face name can name the face's folder
-// under the faces folder: one plain folder name, not empty, not "." or
+// checkFaceName reports whether a face name can name the face's folder
+// under the faces folder (the test config refuses others at the edge; the
+// page checks again, as a library function): one plain folder name, not empty, not "." or
 // "..", without a slash, a backslash or a control character.
-func CheckFaceName(name string) error {
+func checkFaceName(name string) error {
 	switch {
 	case name == "":
 		return fmt.Errorf("face name is empty")
@@ -147,9 +148,9 @@ func newFacesRow(f FaceOnset) facesRow {
 		if iv.FirstFrame == iv.LastFrame {
 			frames = iv.First
 		}
-		parts := []string{fmt.Sprintf("%.1f–%.1f s", iv.TimeLo+offset, iv.TimeHi+offset)}
+		parts := []string{formatRange(iv.TimeLo+offset, iv.TimeHi+offset, "%.1f", "s")}
 		if o.InSpan && plotFinite(iv.StressLo) && plotFinite(iv.StressHi) {
-			parts = append(parts, fmt.Sprintf("%.2f–%.2f MPa", iv.StressLo, iv.StressHi))
+			parts = append(parts, formatRange(iv.StressLo, iv.StressHi, "%.2f", "MPa"))
 		}
 		row.Interval = strings.Join(parts, ", ")
 		row.IntervalTitle = frames
@@ -170,7 +171,7 @@ func firstOnsetLine(f FaceOnset) string {
 	s := fmt.Sprintf("%s, %s at %s, log time %.1f s, %.2f MPa (%.0f %% of peak)", f.Face, o.Class, place, f.LogTime, o.Stress, o.Percent)
 	if iv := o.Interval; iv != nil {
 		offset := f.LogTime - o.Time
-		s += fmt.Sprintf("; %s %% interval %.1f–%.1f s", formatFactor(100*iv.Confidence), iv.TimeLo+offset, iv.TimeHi+offset)
+		s += fmt.Sprintf("; %s %% interval %s", formatFactor(100*iv.Confidence), formatRange(iv.TimeLo+offset, iv.TimeHi+offset, "%.1f", "s"))
 	}
 	return s + "."
 }

@@ -139,15 +139,9 @@ func intervalText(o strainfile.OnsetRecord, iv *strain.OnsetInterval) (cell, tit
 	}
 	stress := ""
 	if o.InSpan && plotFinite(iv.StressLo) && plotFinite(iv.StressHi) {
-		stress = fmt.Sprintf("%.2f–%.2f MPa", iv.StressLo, iv.StressHi)
-		if fmt.Sprintf("%.2f", iv.StressLo) == fmt.Sprintf("%.2f", iv.StressHi) {
-			stress = fmt.Sprintf("%.2f MPa", iv.StressLo)
-		}
+		stress = formatRange(iv.StressLo, iv.StressHi, "%.2f", "MPa")
 	}
-	times := fmt.Sprintf("%.2f–%.2f s", iv.TimeLo, iv.TimeHi)
-	if iv.TimeLo == iv.TimeHi {
-		times = fmt.Sprintf("%.2f s", iv.TimeLo)
-	}
+	times := formatRange(iv.TimeLo, iv.TimeHi, "%.2f", "s")
 	conf := fmt.Sprintf("%s %%", formatFactor(100*iv.Confidence))
 	cell = joinNonEmpty(", ", frames, stress)
 	title = joinNonEmpty(", ", names, times, stress)

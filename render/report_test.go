@@ -13,6 +13,7 @@ import (
 
 	"spallscope/dic/aelog"
 	"spallscope/dic/runfolder"
+	"spallscope/strain/model"
 )
 
 // reportVoid are the HTML elements without an end tag (the HTML standard's
@@ -331,5 +332,55 @@ func TestReportOverlayKinds(t *testing.T) {
 	}
 	if n := strings.Count(page, `<ol class="frame-list"`); n != 2 {
 		t.Errorf("%d frame lists, want 2", n)
+	}
+}
+
+// The model section shows the points without a value as counts: the 24
+// model points outside the measured region (10 of them named in the
+// summary) behind a <details> toggle, the measured points without a model
+// value as one count per quantity, and no long warning paragraphs. The
+// summary is written by the model package's own Write, as the compare
+// stage writes it; the counts are the known answer.
+func TestReportModelPointsCollapsed(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "run")
+	writeFixtureRun(t, dir)
+	c := &model.Comparison{Model: "m.csv", FrameName: fixtureNames[3], Radius: 10, Grid: fixtureGrid,
+		Quantities: []model.Quantity{model.U, model.V},
+		Stats:      []model.Stats{{Quantity: model.U, Count: 90, Uncovered: 12}, {Quantity: model.V, Count: 90, Uncovered: 7}},
+		Outside:    model.Outside{Count: 24, Total: 500}}
+	for k := range model.MaxNamed {
+		c.Outside.First = append(c.Outside.First, model.OutsidePoint{Line: 100 + k, ModelX: float64(k), ModelY: -1, X: 10, Y: float64(k)})
+	}
+	fixtureMust(t, model.Write(filepath.Join(dir, model.Dir), c))
+	path, err := WriteReport(dir, ReportOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, _ := os.ReadFile(path)
+	page := string(data)
+	sec := page[strings.Index(page, `<section id="model">`):]
+	sec = sec[:strings.Index(sec, "</section>")]
+	for _, w := range []string{
+		`<details class="note" id="model-outside">`,
+		"<summary>24 of 500 model points lie outside the measured region and have no measured value to compare with — list the first 10</summary>",
+		"<li>line 100: model (0, -1) at (10.0, 0.0) px</li>", "<li>line 109: model (9, -1) at (10.0, 9.0) px</li>",
+		"<li>and 14 more, not named in the summary</li>",
+		"Measured points without a model value, by quantity: u 12, v 7 (no model point within 10 px, or too few to fix a plane; not compared).",
+	} {
+		if !strings.Contains(sec, w) {
+			t.Errorf("model section lacks %q", w)
+		}
+	}
+	if n := strings.Count(sec, "<li>line "); n != model.MaxNamed {
+		t.Errorf("%d named outside points, want %d", n, model.MaxNamed)
+	}
+	// The summary's own warning texts (the long list) are not repeated.
+	for _, w := range c.Warnings() {
+		if strings.Contains(sec, w) {
+			t.Errorf("model section repeats the warning %.60q…", w)
+		}
+	}
+	if strings.Index(sec, "<details") > strings.Index(sec, "<li>line 100") {
+		t.Error("the named points are not inside the toggle")
 	}
 }

@@ -46,13 +46,6 @@ type FacesReport struct {
 // faces' reports side by side.
 func runFaces(ctx context.Context, t *config.Test, out, tool string, progress Progress) (*Summary, error) {
 	start := time.Now()
-	// A face's name names its folder under out/faces: refuse one that
-	// would leave it, before any face runs.
-	for i, f := range t.Faces {
-		if err := render.CheckFaceName(f.Name); err != nil {
-			return nil, fmt.Errorf("faces[%d]: %w", i, err)
-		}
-	}
 	sum := &Summary{Name: t.Name, Out: out}
 	rep := FacesReport{Tool: tool, Cautions: strainfile.Cautions}
 	for i := range t.Faces {

@@ -1,6 +1,7 @@
 package render
 
 import (
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -67,4 +68,15 @@ func formatSignificant(v float64, digits int) string {
 		return strconv.FormatFloat(v, 'g', digits, 64)
 	}
 	return strconv.FormatFloat(rounded, 'f', -1, 64)
+}
+
+// formatRange prints the range lo–hi with the verb (e.g. "%.2f") and the
+// unit, or the one value when both print alike: "10.06–14.80 MPa",
+// "29.26 MPa".
+func formatRange(lo, hi float64, verb, unit string) string {
+	a, b := fmt.Sprintf(verb, lo), fmt.Sprintf(verb, hi)
+	if a == b {
+		return a + " " + unit
+	}
+	return a + "–" + b + " " + unit
 }
