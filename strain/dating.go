@@ -5,6 +5,8 @@ import (
 	"math"
 	"slices"
 
+	"gonum.org/v1/gonum/stat"
+
 	"spallscope/dic"
 )
 
@@ -35,10 +37,13 @@ type OnsetInterval struct {
 
 // OnsetHistory is a confirmed zone's indicator frame by frame, up to the
 // end of the frames that confirmed it, for the report's plot: the mean of
-// the zone's cells (strain, or 1 − ZNCC for decorrelation), the frame's
+// the zone's cells (strain, or the decorrelation value below), the frame's
 // threshold for the indicator (0 where a frame had too few points, and for
 // decorrelation, whose rule is per point), and the normalised signal the
-// change point was estimated on (0 where it could not be formed).
+// change point was estimated on (0 where it could not be formed). For
+// decorrelation a cell's value is 1 for a point lost or diverged, 1 − ZNCC
+// below the decorrelation limit and 0 otherwise, so the zone mean of a few
+// cells moves in steps while its points are lost.
 type OnsetHistory struct {
 	Frames    []int     `json:"frame_index"`
 	ZoneMean  []float64 `json:"zone_mean"`
@@ -249,17 +254,17 @@ func (d *Dating) signal(k int, calibration []bool, n int) []float64 {
 			}
 		}
 	}
-	var s, ss, w float64
+	var calib []float64
 	for f, c := range calibration[:min(n, len(calibration))] {
 		if c {
-			s, ss, w = s+x[f], ss+x[f]*x[f], w+1
+			calib = append(calib, x[f])
 		}
 	}
-	if w < 2 {
+	m, sd, ok := calibrationSpread(calib)
+	if !ok {
 		return nil
 	}
-	m := s / w
-	sx := math.Max(math.Sqrt(math.Max(ss/w-m*m, 0)*w/(w-1)), 1/math.Sqrt(float64(len(d.cells[k]))))
+	sx := math.Max(sd, 1/math.Sqrt(float64(len(d.cells[k]))))
 	for f := range x {
 		x[f] = (x[f] - m) / sx
 	}
@@ -275,20 +280,20 @@ func normalised(values [][]float64, calibration []bool, n int, least float64) (o
 	}
 	cells := len(values[0])
 	mean, sd := make([]float64, cells), make([]float64, cells)
+	var vals []float64
 	for j := range cells {
-		var s, ss, w float64
+		vals = vals[:0]
 		for f, c := range calibration {
 			if v := values[f][j]; c && !math.IsNaN(v) {
-				s, ss, w = s+v, ss+v*v, w+1
+				vals = append(vals, v)
 			}
 		}
-		if w < 2 {
+		m, s, enough := calibrationSpread(vals)
+		if !enough {
 			sd[j] = math.NaN()
 			continue
 		}
-		mean[j] = s / w
-		sd[j] = math.Max(math.Sqrt(math.Max(ss/w-mean[j]*mean[j], 0)*w/(w-1)), least)
-		ok = true
+		mean[j], sd[j], ok = m, math.Max(s, least), true
 	}
 	out = make([][]float64, n)
 	for f := range n {
@@ -301,16 +306,23 @@ func normalised(values [][]float64, calibration []bool, n int, least float64) (o
 	return out, ok
 }
 
+// calibrationSpread is the mean and the sample standard deviation of a
+// series' calibration values (gonum's stat.MeanStdDev); false with fewer
+// than two.
+func calibrationSpread(xs []float64) (mean, sd float64, ok bool) {
+	if len(xs) < 2 {
+		return 0, 0, false
+	}
+	mean, sd = stat.MeanStdDev(xs, nil)
+	return mean, sd, true
+}
+
 // meanOf is the mean of xs (0 for none).
 func meanOf(xs []float64) float64 {
 	if len(xs) == 0 {
 		return 0
 	}
-	var s float64
-	for _, x := range xs {
-		s += x
-	}
-	return s / float64(len(xs))
+	return stat.Mean(xs, nil)
 }
 
 // history is onset k's OnsetHistory over the first n frames; z is its
