@@ -87,14 +87,7 @@ func TestKillAndResume(t *testing.T) {
 	if err := child.Start(); err != nil {
 		t.Fatal(err)
 	}
-	deadline := time.Now().Add(60 * time.Second)
-	for {
-		files, _ := filepath.Glob(filepath.Join(cut, runfolder.FieldsDir, "*.csv"))
-		if len(files) >= 4 || time.Now().After(deadline) {
-			break
-		}
-		time.Sleep(5 * time.Millisecond)
-	}
+	waitForFields(cut, 4)
 	child.Process.Signal(syscall.SIGKILL)
 	child.Wait()
 	files, _ := filepath.Glob(filepath.Join(cut, runfolder.FieldsDir, "*.csv"))
@@ -118,13 +111,32 @@ func TestKillAndResume(t *testing.T) {
 			t.Errorf("%s was recomputed after the resume", filepath.Base(f))
 		}
 	}
-	a, b := readAll(t, whole), readAll(t, cut)
+	sameOutputs(t, whole, cut, "SIGKILL")
+}
+
+// waitForFields waits (at most a minute) until run folder dir holds at
+// least n field files.
+func waitForFields(dir string, n int) {
+	deadline := time.Now().Add(60 * time.Second)
+	for time.Now().Before(deadline) {
+		if files, _ := filepath.Glob(filepath.Join(dir, runfolder.FieldsDir, "*.csv")); len(files) >= n {
+			return
+		}
+		time.Sleep(2 * time.Millisecond)
+	}
+}
+
+// sameOutputs fails unless the fields, strains and zones of run folders
+// whole and resumed are byte-identical (label names the case).
+func sameOutputs(t *testing.T, whole, resumed, label string) {
+	t.Helper()
+	a, b := readAll(t, whole), readAll(t, resumed)
 	if len(a) != len(b) || len(a) < 30 {
-		t.Fatalf("%d files uninterrupted, %d resumed", len(a), len(b))
+		t.Fatalf("%s: %d files uninterrupted, %d resumed", label, len(a), len(b))
 	}
 	for name, want := range a {
 		if !bytes.Equal(want, b[name]) {
-			t.Errorf("%s differs between the uninterrupted and the resumed run", name)
+			t.Errorf("%s: %s differs between the uninterrupted and the resumed run", label, name)
 		}
 	}
 }

@@ -9,7 +9,6 @@ import (
 	"strings"
 	"syscall"
 	"testing"
-	"time"
 
 	"spallscope/dic/runfolder"
 )
@@ -57,14 +56,7 @@ func TestIntegrationSignalStopsAndResumes(t *testing.T) {
 		if err := child.Start(); err != nil {
 			t.Fatal(err)
 		}
-		deadline := time.Now().Add(60 * time.Second)
-		for {
-			files, _ := filepath.Glob(filepath.Join(cut, runfolder.FieldsDir, "*.csv"))
-			if len(files) >= 3 || time.Now().After(deadline) {
-				break
-			}
-			time.Sleep(2 * time.Millisecond)
-		}
+		waitForFields(cut, 3)
 		child.Process.Signal(c.sig)
 		err := child.Wait()
 		var exit *exec.ExitError
@@ -94,14 +86,6 @@ func TestIntegrationSignalStopsAndResumes(t *testing.T) {
 		if !strings.Contains(string(out), "resumed after") {
 			t.Errorf("%v: second run did not resume: %s", c.sig, out)
 		}
-		a, b := readAll(t, whole), readAll(t, cut)
-		if len(a) != len(b) || len(a) < 30 {
-			t.Fatalf("%v: %d files uninterrupted, %d resumed", c.sig, len(a), len(b))
-		}
-		for name, want := range a {
-			if !bytes.Equal(want, b[name]) {
-				t.Errorf("%v: %s differs between the uninterrupted and the resumed run", c.sig, name)
-			}
-		}
+		sameOutputs(t, whole, cut, c.sig.String())
 	}
 }
