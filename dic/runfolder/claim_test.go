@@ -8,7 +8,8 @@ import (
 )
 
 // A folder with the user's files in it is refused and left as it was; a
-// new folder, an empty one and a run folder are accepted.
+// new folder, an empty one and a run folder are accepted (the tool deletes
+// only in folders it made: our own rule, no outside source).
 func TestClaimRefusesForeignFolder(t *testing.T) {
 	foreign := t.TempDir()
 	keep := filepath.Join(foreign, "thesis.docx")

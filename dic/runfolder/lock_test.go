@@ -11,7 +11,8 @@ import (
 )
 
 // A second writer is refused with the holder's PID while the first holds
-// the lock, and takes it once the first has released it.
+// the lock, and takes it once the first has released it (the run folder's
+// rule: one writer at a time, common practice, no source).
 func TestLockRefusesSecondWriter(t *testing.T) {
 	dir := t.TempDir()
 	unlock, err := Lock(dir)
@@ -33,7 +34,9 @@ func TestLockRefusesSecondWriter(t *testing.T) {
 	}
 }
 
-// A lock left by a process that has ended is taken over.
+// A lock left by a process that has ended is taken over: kill(pid, 0)
+// fails with ESRCH for a process that no longer exists (POSIX.1-2017,
+// kill()).
 func TestLockTakesOverStaleLock(t *testing.T) {
 	dir := t.TempDir()
 	cmd := exec.Command("true")
@@ -52,7 +55,8 @@ func TestLockTakesOverStaleLock(t *testing.T) {
 	unlock()
 }
 
-// A lock from another host cannot be checked and is refused, naming the host.
+// A lock from another host cannot be checked (a PID means nothing across
+// hosts) and is refused, naming the host (common practice, no source).
 func TestLockRefusesOtherHost(t *testing.T) {
 	dir := t.TempDir()
 	os.WriteFile(filepath.Join(dir, LockFile), []byte("4242 node-elsewhere 2026-01-01T00:00:00Z\n"), 0o644)
