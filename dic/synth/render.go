@@ -9,6 +9,7 @@ import (
 	"sync/atomic"
 
 	"spallscope/dic/lens"
+	"spallscope/dic/region"
 	"spallscope/subset"
 )
 
@@ -85,6 +86,13 @@ type Scene struct {
 	// photo is first mapped to ideal pixels by the lens's inverse. nil is
 	// a perfect lens.
 	Lens *lens.Model
+	// Magnification, if not 0, is the apparent magnification of
+	// out-of-plane motion about (MagCx, MagCy), in ideal pixels: each
+	// sample is mapped back by it after the lens and before the field.
+	Magnification, MagCx, MagCy float64
+	// Plate, if not nil, is a rigid plate (reference pixels) that the field
+	// does not move and that hides the face behind it.
+	Plate *region.Rect
 }
 
 // gaussLegendre returns nodes on [−½, ½] and weights summing to 1
@@ -191,6 +199,14 @@ func Expose(sc Scene, cam Camera, width, height int) (*subset.Image, error) {
 									continue
 								}
 							}
+							if sc.Magnification != 0 {
+								px = sc.MagCx + (px-sc.MagCx)/(1+sc.Magnification)
+								py = sc.MagCy + (py-sc.MagCy)/(1+sc.Magnification)
+							}
+							if sc.Plate != nil && sc.Plate.Contains(px, py) {
+								sum += weights[i] * weights[j] * sc.Speckles.Level(px, py)
+								continue
+							}
 							X, Y, ok := invertFrom(sc.Field, px, py, px+dx, py+dy)
 							if (dx != 0 || dy != 0) && (!ok || sc.inOpening(X, Y)) {
 								// A warm start can land across a jump or on a spurious
@@ -235,7 +251,7 @@ func Record(img *subset.Image, cam Camera, frame int) {
 // level is the gray level (fraction of full scale) seen at an image point
 // whose material point is (X, Y); ok is false where there is no material.
 func (sc Scene) level(X, Y float64, ok bool, void float64) float64 {
-	if !ok || sc.inOpening(X, Y) {
+	if !ok || sc.inOpening(X, Y) || (sc.Plate != nil && sc.Plate.Contains(X, Y)) {
 		return void
 	}
 	if sc.Fresh != nil {

@@ -152,6 +152,13 @@ type Scenario struct {
 	// Targets, if set, asks for chessboard photos through the lens for
 	// calibration, written beside the frames (needs Lens).
 	Targets *Targets `json:"targets,omitempty"`
+	// OutOfPlane, if set, moves the face towards the camera (an apparent
+	// magnification), with an optional rigid plate beside the specimen.
+	OutOfPlane *OutOfPlane `json:"out_of_plane,omitempty"`
+	// Lighting, if set, changes the light on the face over the frames.
+	Lighting *Lighting `json:"lighting,omitempty"`
+	// Exif, if set, stamps each photo with its capture time (format jpg).
+	Exif *ExifClock `json:"exif,omitempty"`
 }
 
 // LensModel returns the scenario's lens with its image size filled in,
@@ -239,9 +246,14 @@ func (sc *Scenario) Validate() error {
 	}
 	switch sc.Format {
 	case "", "png", "tif":
+	case "jpg":
+		if sc.Camera.withDefaults().Depth != 8 {
+			errs = append(errs, errors.New("format jpg needs camera depth 8"))
+		}
 	default:
-		errs = append(errs, fmt.Errorf("format %q, expected png or tif", sc.Format))
+		errs = append(errs, fmt.Errorf("format %q, expected png, tif or jpg", sc.Format))
 	}
+	errs = append(errs, sc.validateCameraEffects()...)
 	return errors.Join(errs...)
 }
 

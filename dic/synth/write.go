@@ -9,7 +9,6 @@ import (
 	"path/filepath"
 	"strconv"
 
-	"spallscope/dic/frames"
 	"spallscope/dic/runfolder"
 	"spallscope/subset"
 )
@@ -93,13 +92,14 @@ func Write(sc *Scenario, dir string, progress func(done, total int)) (*Truth, er
 	for f := 0; f < sc.Frames; f++ {
 		field := sc.FieldAt(f)
 		scene := Scene{Speckles: speckles, Field: field, Openings: sc.Openings, Fresh: fresh, Lens: sc.LensModel()}
+		sc.cameraEffects(&scene, f)
 		for _, s := range sc.Spalls {
 			if f >= s.Frame {
 				scene.Spalled = append(scene.Spalled, s.Region)
 			}
 		}
 		var img *subset.Image
-		if tr, ok := field.(Translation); ok && sc.FourierTranslation && len(scene.Spalled) == 0 {
+		if tr, ok := field.(Translation); ok && sc.FourierTranslation && len(scene.Spalled) == 0 && scene.Magnification == 0 && scene.Plate == nil {
 			if reference == nil {
 				if reference, err = Expose(Scene{Speckles: speckles, Openings: sc.Openings}, sc.Camera, sc.Width, sc.Height); err != nil {
 					return nil, err
@@ -109,6 +109,7 @@ func Write(sc *Scenario, dir string, progress func(done, total int)) (*Truth, er
 		} else if img, err = Expose(scene, sc.Camera, sc.Width, sc.Height); err != nil {
 			return nil, err
 		}
+		sc.Lighting.Light(img, f, sc.Frames)
 		Record(img, sc.Camera, f)
 		name := sc.FrameName(f)
 		ft := FrameTruth{
@@ -122,7 +123,7 @@ func Write(sc *Scenario, dir string, progress func(done, total int)) (*Truth, er
 		for i := range sc.Fields {
 			ft.Factors = append(ft.Factors, sc.Factor(i, f))
 		}
-		if err := frames.WriteImage(filepath.Join(dir, ft.File), img, sc.Camera.withDefaults().Depth); err != nil {
+		if err := sc.writeFrame(filepath.Join(dir, ft.File), img, f); err != nil {
 			return nil, err
 		}
 		if err := writeTruthGrid(filepath.Join(dir, ft.Grid), sc, field, f); err != nil {
