@@ -89,6 +89,8 @@ func bindInputs(fs *pflag.FlagSet, t *config.Test) {
 	b.value(&listValue[string]{dst: &t.Exclude, typ: "shape", parse: func(s string) (string, error) { return s, nil }},
 		"exclude", "exclude", "exclude a shape, repeatable: circle:cx,cy,r  ellipse:cx,cy,rx,ry[,deg]  polygon:x1,y1,...  rect:x0,y0,x1,y1")
 	b.str(&t.Lens, "lens", "lens", "", "lens file from 'spallscope calibrate': take the lens distortion out of the fields (fields then in undistorted px)")
+	b.str(&t.CompensationPlate, "compensation-plate", "compensation_plate", "", "a rigid, unloaded plate in view beside the specimen, as a shape (rect:x0,y0,x1,y1, ...): its apparent magnification (out-of-plane motion) is taken out of every frame")
+	b.float(&t.StandoffMM, "standoff", "standoff_mm", 0, "distance from the face to the lens in mm: reports the face's motion towards the camera from its magnification")
 	bindTimes(fs, &t.Times)
 	bindScale(fs, &t.Scale)
 }

@@ -24,6 +24,9 @@ var optionSamples = map[string][2]string{
 	"roi":       {"rect:0,0,50,50", `"rect:0,0,50,50"`},
 	"mask":      {"mask.png", "mask.png"},
 	"lens":      {"lens.json", "lens.json"},
+
+	"compensation_plate": {"rect:60,0,90,40", `"rect:60,0,90,40"`},
+	"standoff_mm":        {"450", "450"},
 	"exclude":   {"circle:9,9,4", `["circle:9,9,4"]`},
 	"openings":  {"W=circle:9,9,4", `[{name: W, shape: "circle:9,9,4"}]`},
 
@@ -95,7 +98,7 @@ var runFolderOptions = map[string]bool{"out": true, "fields": true, "strain": tr
 // The YAML keys of the sections the stage commands configure; every one
 // must be settable from the command line.
 var cliSections = []string{"correlation", "strain", "zones", "load", "times", "scale"}
-var cliTopKeys = []string{"images", "reference", "roi", "mask", "lens", "exclude", "openings"}
+var cliTopKeys = []string{"images", "reference", "roi", "mask", "lens", "compensation_plate", "standoff_mm", "exclude", "openings"}
 
 // Every option of track, strain and zones sets a YAML key, every YAML key
 // of their sections has an option, and an option and its key give the same

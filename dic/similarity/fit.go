@@ -23,7 +23,11 @@ type Motion struct {
 	Magnification float64 `json:"magnification"`
 	// MagnificationSD is the standard error of Magnification from the
 	// fit's residual scatter (RMS / sqrt(Σ|X − c|²)); it says how well a
-	// region of this size and this noise measures a magnification.
+	// region of this size and this noise measures a magnification. It
+	// takes the points' errors as independent; subsets that overlap (a
+	// step below the subset size) share pixels, which makes it optimistic
+	// by about subset/step (measured: errors of up to 4 of it at a 21 px
+	// subset and a 6 px step).
 	MagnificationSD float64 `json:"magnification_sd"`
 	// RMS is the root mean square of the residual displacement in px.
 	RMS float64 `json:"rms_px"`

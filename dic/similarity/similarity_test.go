@@ -3,6 +3,7 @@ package similarity
 import (
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"spallscope/dic"
@@ -132,5 +133,51 @@ func TestDemagnifyLeavesTheStrain(t *testing.T) {
 	}
 	if f.Points[5].P[subset.PUx] != s*(1+exx)-1 {
 		t.Error("Demagnify changed its input")
+	}
+}
+
+// A field whose plate (x ≥ 150) shows only a magnification about c and
+// whose specimen shows a strain on top of it: compensation finds the
+// plate's magnification exactly (Umeyama's closed form on exact data),
+// leaves the specimen its own strain and masks the plate.
+func TestCompensateWithAPlate(t *testing.T) {
+	const s, exx, cx, cy = 1.0007, -1.5e-3, 120, 100
+	g := dic.Grid{X0: 0, Y0: 0, Step: 10, Cols: 20, Rows: 15}
+	f := &dic.Field{Name: "f7", Grid: g, Points: make([]dic.Point, g.Len())}
+	inPlate := func(x, y int) bool { return x >= 150 }
+	for i := range f.Points {
+		x, y := g.Pos(i)
+		X, Y := float64(x), float64(y)
+		e := exx
+		if inPlate(x, y) {
+			e = 0
+		}
+		p := &f.Points[i]
+		p.X, p.Y, p.Status = x, y, subset.Converged
+		p.P[subset.PU] = cx + s*((1+e)*X-cx) - X
+		p.P[subset.PV] = cy + s*(Y-cy) - Y
+		p.P[subset.PUx], p.P[subset.PVy] = s*(1+e)-1, s-1
+	}
+	out, m, err := Compensate(f, inPlate, cx, cy)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(m.Magnification-(s-1)) > 1e-12 || m.Points != 5*15 {
+		t.Errorf("plate magnification %g on %d points, want %g on 75", m.Magnification, m.Points, s-1)
+	}
+	for i := range out.Points {
+		p := &out.Points[i]
+		if inPlate(p.X, p.Y) {
+			if p.Valid() {
+				t.Fatalf("plate point (%d, %d) left in the specimen's field", p.X, p.Y)
+			}
+			continue
+		}
+		if math.Abs(p.P[subset.PUx]-exx) > 1e-12 || math.Abs(p.P[subset.PVy]) > 1e-12 || math.Abs(p.P[subset.PU]-exx*float64(p.X)) > 1e-9 {
+			t.Fatalf("specimen point (%d, %d): ux %g vy %g u %g, want %g, 0, %g", p.X, p.Y, p.P[subset.PUx], p.P[subset.PVy], p.P[subset.PU], exx, exx*float64(p.X))
+		}
+	}
+	if _, _, err := Compensate(f, func(x, y int) bool { return x > 1000 }, cx, cy); err == nil || !strings.Contains(err.Error(), "frame f7") {
+		t.Errorf("a plate with no points: %v", err)
 	}
 }

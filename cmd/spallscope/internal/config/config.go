@@ -44,7 +44,8 @@ type Test struct {
 	AE          AE          `yaml:"ae"`
 	Model       Model       `yaml:"model"`
 	Outputs     Outputs     `yaml:"outputs"`
-	// Camera holds the camera's keys (lens), at the top level.
+	// Camera holds the camera's keys (lens, compensation plate, stand-off),
+	// at the top level.
 	Camera `yaml:",inline"`
 	// Faces lists the camera views of a test filmed from several sides.
 	// Each face is tracked and analysed on its own, with its own photos,
@@ -69,7 +70,8 @@ type Face struct {
 	Openings  []Opening `yaml:"openings"`
 	Exclude   []string  `yaml:"exclude"`
 	Mask      string    `yaml:"mask"`
-	// Camera holds the face camera's keys (lens).
+	// Camera holds the face camera's keys (lens, compensation plate,
+	// stand-off).
 	Camera `yaml:",inline"`
 	// ClockOffset is the load log's clock minus this camera's, in s (unset:
 	// the test's load.clock_offset_s); Sync gives a sync pair instead.
@@ -97,6 +99,10 @@ func (t *Test) FaceTest(i int) *Test {
 	set(&c.ROI, f.ROI)
 	set(&c.Mask, f.Mask)
 	set(&c.Lens, f.Lens)
+	set(&c.CompensationPlate, f.CompensationPlate)
+	if f.StandoffMM != 0 {
+		c.StandoffMM = f.StandoffMM
+	}
 	if f.Times != (Times{}) {
 		c.Times = f.Times
 	}
@@ -255,6 +261,7 @@ func (t *Test) CheckSettings() error {
 	p.add(t.Times.check("times"))
 	p.add(t.Scale.check("scale"))
 	p.add(checkShapes("", t.ROI, t.Exclude, t.Openings))
+	p.add(t.Camera.check(""))
 	p.add(t.Correlation.check())
 	p.add(t.Strain.check())
 	p.add(t.Zones.check())
@@ -266,6 +273,7 @@ func (t *Test) CheckSettings() error {
 		p.add(f.Times.check(prefix + ".times"))
 		p.add(f.Scale.check(prefix + ".scale"))
 		p.add(checkShapes(prefix+".", f.ROI, f.Exclude, f.Openings))
+		p.add(f.Camera.check(prefix + "."))
 		offset := 0.0
 		if f.ClockOffset != nil {
 			offset = *f.ClockOffset

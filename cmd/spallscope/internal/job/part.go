@@ -110,6 +110,9 @@ func CanSplit(t *config.Test) error {
 	if err != nil {
 		return fmt.Errorf("test %s: correlation: %w", t.Name, err)
 	}
+	if t.CompensationPlate != "" {
+		return fmt.Errorf("test %s has a compensation plate, whose per-frame magnifications are recorded by one tracking run; it runs as one task (leave --frames-per-task out)", t.Name)
+	}
 	if settings.Reference == dic.IncrementalReference {
 		return fmt.Errorf("test %s uses the %s reference, which carries its current reference image from frame to frame; frames can be split over tasks only with the fixed reference (set correlation.reference: fixed, or leave --frames-per-task out)", t.Name, settings.Reference)
 	}
@@ -193,7 +196,7 @@ func TrackPart(ctx context.Context, configPath, testDir, tool string, p Part, pr
 		return err
 	}
 	start := time.Now()
-	tr, err := stage.Track(ctx, dir, headSequence{tp.in.Seq, p.To}, tracker, tp.lens, tp.record(t, tool), from,
+	tr, err := stage.Track(ctx, dir, headSequence{tp.in.Seq, p.To}, tracker, tp.lens, nil, tp.record(t, tool), from,
 		func(done int, _ *dic.Field) { progress("track", done-p.From, p.To-p.From) })
 	if err != nil {
 		return fmt.Errorf("test %s, %s: %w", t.Name, p, err)

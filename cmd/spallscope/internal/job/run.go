@@ -95,6 +95,9 @@ func Run(ctx context.Context, t *config.Test, out, tool string, progress Progres
 	if runfolder.Section(out, "track", &tr) == nil && len(tr.Unmeasured) > 0 {
 		r.notes = append(r.notes, unmeasuredNote(tr.Unmeasured, len(tr.Frames)))
 	}
+	if n := motionNote(out); n != "" {
+		r.notes = append(r.notes, n)
+	}
 	sum := &Summary{Name: t.Name, Out: out, Frames: r.tp.in.Seq.Len(), Skipped: skipped, Resumed: r.resumed, Notes: r.notes}
 	if t.Outputs.WantReport() {
 		sum.Report = filepath.Join(out, render.ReportFile)

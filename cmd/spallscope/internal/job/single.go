@@ -37,7 +37,7 @@ func Track(ctx context.Context, t *config.Test, out, tool string, progress func(
 		return runfolder.TrackRecord{}, err
 	}
 	n, points := tp.in.Seq.Len(), tracker.Grid().Len()
-	return stage.Track(ctx, out, tp.in.Seq, tracker, tp.lens, tp.record(t, tool), 0, func(done int, _ *dic.Field) {
+	return stage.Track(ctx, out, tp.in.Seq, tracker, tp.lens, tp.compensation(out, 0), tp.record(t, tool), 0, func(done int, _ *dic.Field) {
 		if progress != nil {
 			progress(done, n, points)
 		}

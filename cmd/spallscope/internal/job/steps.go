@@ -54,7 +54,7 @@ func (r *testRun) track(ctx context.Context, resume bool) error {
 	}
 	r.resumed = from
 	n := in.Seq.Len()
-	_, err = stage.Track(ctx, r.out, in.Seq, tracker, r.tp.lens, r.tp.record(r.t, r.tool), from,
+	_, err = stage.Track(ctx, r.out, in.Seq, tracker, r.tp.lens, r.tp.compensation(r.out, from), r.tp.record(r.t, r.tool), from,
 		func(done int, _ *dic.Field) { r.progress("track", done, n) })
 	return err
 }
@@ -71,9 +71,15 @@ func (r *testRun) prepareStrain() ([]any, error) {
 
 // strain differentiates every field.
 func (r *testRun) strain(ctx context.Context, _ bool) error {
-	_, _, err := stage.Strain(ctx, r.out, r.window, 0, r.tp.scale, r.t.Strain.StaticFrames,
+	_, res, err := stage.Strain(ctx, r.out, r.window, 0, r.tp.scale, r.t.Strain.StaticFrames,
 		func(done, total int) { r.progress("strain", done, total) })
-	return err
+	if err != nil {
+		return err
+	}
+	if r.tp.plate != nil {
+		return plateWarning(r.out, res)
+	}
+	return r.recordFarFieldMotion(res)
 }
 
 // prepareZones reads the zone settings and openings, and reads and checks

@@ -6,6 +6,7 @@ import (
 	"strconv"
 
 	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic"
 	"spallscope/dic/lens"
 	"spallscope/dic/runfolder"
@@ -23,6 +24,7 @@ type trackInputs struct {
 	maskHash    string
 	lens        *lens.Correction // nil without a lens file
 	lensRecord  *runfolder.LensRecord
+	plate       *plate            // nil without a compensation plate
 	notes       []string          // what the user should know of the frame times
 	hashes      map[string]string // "mask", "images" and "lens", for run.json
 	inputs      []any             // what decides the track stage's output
@@ -49,6 +51,9 @@ func prepareTrack(t *config.Test, tool string) (*trackInputs, error) {
 	if tp.settings, err = t.Correlation.Settings(); err != nil {
 		return fail(inTest(t, fmt.Errorf("correlation: %w", err)))
 	}
+	if tp.plate, err = openPlate(t, tp.in, tp.settings.Subset, tp.settings.Step); err != nil {
+		return fail(inTest(t, err))
+	}
 	if err := tp.openLens(t); err != nil {
 		return fail(inTest(t, err))
 	}
@@ -66,6 +71,9 @@ func prepareTrack(t *config.Test, tool string) (*trackInputs, error) {
 	tp.inputs = []any{tool, tp.hashes["images"], resolveRef(t), t.ROI, tp.exclude, tp.maskHash, tp.settings, tp.scale}
 	if tp.lens != nil {
 		tp.inputs = append(tp.inputs, "lens", tp.hashes["lens"])
+	}
+	if tp.plate != nil {
+		tp.inputs = append(tp.inputs, "compensation_plate", tp.plate.given, t.StandoffMM)
 	}
 	tp.fingerprint = stageFingerprint("track", "", tp.inputs)
 	return tp, nil
@@ -130,11 +138,14 @@ func (tp *trackInputs) resume(dir string, tracker *dic.Tracker, from, to int) in
 		}
 		next++
 	}
+	if tp.plate != nil { // the frames whose plate motions are recorded
+		next = min(next, max(from, recordedMotions(dir)))
+	}
 	if next == from {
 		return from
 	}
 	src := runfolder.FieldPath(dir, tp.in.Seq.Name(next-1))
-	if tp.lens != nil { // the tracker resumes from its own, photo-pixel field
+	if tp.lens != nil || tp.plate != nil { // the tracker resumes from its own, photo-pixel field
 		src = runfolder.PhotoFieldPath(dir, tp.in.Seq.Name(next-1))
 	}
 	f, err := runfolder.ReadField(src)
@@ -166,4 +177,13 @@ func resolveRef(t *config.Test) string {
 		return t.Reference
 	}
 	return t.Resolve(t.Reference)
+}
+
+// compensation is the track stage's plate compensation for a run that
+// starts at frame from in dir, or nil without a plate.
+func (tp *trackInputs) compensation(dir string, from int) *stage.Compensation {
+	if tp.plate == nil {
+		return nil
+	}
+	return tp.plate.compensation(dir, tp.in.Ref.Width, tp.in.Ref.Height, tp.lens, from)
 }

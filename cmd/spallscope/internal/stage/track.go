@@ -28,16 +28,20 @@ var ErrNothingMeasured = errors.New("nothing measured")
 // rec.Times, when set, must hold one time per frame. With a lens
 // correction corr (nil: none) the tracker's own field goes to
 // dir/photo_fields/<frame>.csv first and the corrected field, in
-// undistorted pixels, to dir/fields/<frame>.csv. A
+// undistorted pixels, to dir/fields/<frame>.csv. With a compensation
+// plate comp (nil: none) the plate's magnification is taken out of each
+// field (after the lens correction), the plate's points are masked in
+// dir/fields, the tracker's own field goes to dir/photo_fields as with a
+// lens, and the plate's motions to run.json's "motion" section. A
 // frame that cannot be read stops the stage with an error naming it; the
 // fields already written stay. When ctx is done the stage stops before
 // its next frame with a *Stopped error; the fields written stay, so that
 // the run can resume after them.
-func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tracker, corr *lens.Correction, rec runfolder.TrackRecord, from int, progress func(done int, f *dic.Field)) (runfolder.TrackRecord, error) {
+func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tracker, corr *lens.Correction, comp *Compensation, rec runfolder.TrackRecord, from int, progress func(done int, f *dic.Field)) (runfolder.TrackRecord, error) {
 	if err := os.MkdirAll(filepath.Join(dir, runfolder.FieldsDir), 0o755); err != nil {
 		return rec, err
 	}
-	if corr != nil {
+	if corr != nil || comp != nil {
 		if err := os.MkdirAll(filepath.Join(dir, runfolder.PhotoFieldsDir), 0o755); err != nil {
 			return rec, err
 		}
@@ -62,11 +66,18 @@ func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tr
 		if err != nil {
 			return rec, err
 		}
-		if corr != nil {
+		if corr != nil || comp != nil {
 			if err := runfolder.WriteField(runfolder.PhotoFieldPath(dir, seq.Name(i)), field, 0); err != nil {
 				return rec, err
 			}
+		}
+		if corr != nil {
 			field = corr.Field(field)
+		}
+		if comp != nil {
+			if field, err = comp.apply(dir, field); err != nil {
+				return rec, err
+			}
 		}
 		if err := runfolder.WriteField(runfolder.FieldPath(dir, seq.Name(i)), field, rec.MMPerPx); err != nil {
 			return rec, err
