@@ -22,7 +22,9 @@ type PlotOptions struct {
 //   - stress_strain (or virtual_gauges without stresses): a virtual
 //     extensometer and a virtual strain gauge (needs the fields; the gauge
 //     needs the strain files), whose readings go to plots/virtual_gauges.csv;
-//   - noise_floor: the resolution per quantity (needs static frames).
+//   - noise_floor: the resolution per quantity (needs static frames);
+//   - magnification: each frame's apparent magnification, from the
+//     compensation plate or the far field (needs run.json's motion).
 //
 // A plot whose data the run lacks is left out; an unreadable file is an
 // error naming it.
@@ -58,6 +60,9 @@ func writeRunPlots(r *runRecords, opt PlotOptions) ([]Figure, *virtualReadings, 
 		return nil, nil, err
 	}
 	if err := add(plotNoiseFloor(r)); err != nil {
+		return nil, nil, err
+	}
+	if err := add(plotMagnification(r)); err != nil {
 		return nil, nil, err
 	}
 	return figs, v, nil

@@ -49,7 +49,7 @@ correlation: {subset: 21, step: 6}
 strain: {window: 5, static_frames: 3}
 zones: {calibrate_below: 0.4}
 load: {file: synth/loadlog.csv, area_mm2: 900}
-outputs: {overlays: false, report: false}
+outputs: {overlays: false}
 ` + extra
 	path := filepath.Join(dir, name+".yaml")
 	if err := os.WriteFile(path, []byte(body), 0o644); err != nil {
@@ -132,6 +132,11 @@ func TestCompensationPlateRemovesMagnification(t *testing.T) {
 	}
 	t.Logf("noise floor %.1f µε; plate magnification off by at most %.1f µε (exact up to %.0f µε); mean strain off by at most %.1f µε compensated, %.0f µε without the plate",
 		1e6*floor, 1e6*worstMag, 1e6*0.3/399.7, 1e6*worstWith, 1e6*worstWithout)
+	for _, run := range []string{with, without} {
+		if _, err := os.Stat(filepath.Join(run, "plots", "magnification.png")); err != nil {
+			t.Errorf("the report has no magnification plot: %v", err)
+		}
+	}
 	if worstWithout < 3*floor {
 		t.Errorf("without the plate the strain is off by only %.1f µε; the magnification should show (> 3 × %.1f µε)", 1e6*worstWithout, 1e6*floor)
 	}
