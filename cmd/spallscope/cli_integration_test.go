@@ -12,6 +12,9 @@ import (
 	"testing"
 
 	"gocv.io/x/gocv"
+
+	"spallscope/dic/region"
+	"spallscope/dic/synth"
 )
 
 // run executes the command line with args and returns stdout and the error.
@@ -124,5 +127,37 @@ func TestInspectBrightnessJump(t *testing.T) {
 	}
 	if !strings.Contains(out, "note: frame 2 (f_2): the mean gray level jumps by +38 %") || strings.Contains(out, "frame 1 (f_1): the mean") {
 		t.Errorf("inspect output does not tell of the one jump:\n%s", out)
+	}
+}
+
+// inspect --flash finds the frame an LED in view lights (synthetic frames
+// whose LED region is 1.6 times brighter in frame 5 only, under a
+// flickering lamp) and prints its camera time as a sync pair: frame 5 at
+// 2 fps is 2.5 s. Over the whole frame the flicker hides it. A region
+// that does not parse is refused, naming the option.
+func TestInspectFlashSyncPair(t *testing.T) {
+	dir := t.TempDir()
+	box := &region.Rect{X0: 0, Y0: 0, X1: 15, Y1: 15}
+	sc := &synth.Scenario{Name: "flash", Width: 64, Height: 48, Frames: 8, FPS: 2,
+		Pattern:  synth.Pattern{Radius: 2, Coverage: 0.4, Seed: 2},
+		Camera:   synth.Camera{Oversample: 1},
+		Lighting: &synth.Lighting{Exposure: 0.5, Flicker: 3, Flash: &synth.Flash{Frame: 5, Gain: 1.6, Region: box}},
+	}
+	if _, err := synth.Write(sc, dir, nil); err != nil {
+		t.Fatal(err)
+	}
+	frames := filepath.Join(dir, synth.FramesDir)
+	out, err := run(t, "inspect", frames, "--fps", "2", "--flash", "--flash-region", "rect:0,0,15,15")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(out, "flash: frame 5 (flash_0005) is +4") || !strings.Contains(out, "sync pair [2.500, LOG_S]") || strings.Contains(out, "flash: also") {
+		t.Errorf("inspect --flash output:\n%s", out)
+	}
+	if out, err = run(t, "inspect", frames, "--fps", "2", "--flash"); err != nil || !strings.Contains(out, "flash: no frame is brighter") {
+		t.Errorf("inspect --flash over the whole flickering frame: %v\n%s", err, out)
+	}
+	if _, err = run(t, "inspect", frames, "--flash", "--flash-region", "rect:0,0"); err == nil || !strings.Contains(err.Error(), "--flash-region") {
+		t.Errorf("a malformed flash region: %v", err)
 	}
 }

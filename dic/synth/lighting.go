@@ -11,11 +11,15 @@ import (
 
 // Lighting is how the light on the face changes over a test, applied to
 // each frame's exposure before noise and quantisation: a gain that drifts
-// linearly from 1 at the first frame to 1 + Drift at the last (a lamp
+// linearly from Exposure at the first frame to Exposure·(1 + Drift) at
+// the last (a lamp
 // that dims), a fall-off across the face (gain × (1 + Gradient·(x/W −
 // ½)), light from one side), a flicker of ±Flicker gray levels on
 // alternate frames, and an optional flash.
 type Lighting struct {
+	// Exposure is the gain of the first frame (0: 1), below 1 to leave
+	// headroom for a flash.
+	Exposure float64 `json:"exposure,omitempty"`
 	Drift    float64 `json:"drift,omitempty"`
 	Gradient float64 `json:"gradient,omitempty"`
 	Flicker  float64 `json:"flicker_levels,omitempty"`
@@ -34,8 +38,8 @@ type Flash struct {
 // Validate reports lighting that cannot be rendered.
 func (l *Lighting) Validate(frames int) error {
 	var errs []error
-	if !finiteAll(l.Drift, l.Gradient, l.Flicker) || l.Drift <= -1 || math.Abs(l.Gradient) >= 2 {
-		errs = append(errs, fmt.Errorf("drift %g, gradient %g and flicker %g: expected finite numbers, drift above −1 and gradient within ±2", l.Drift, l.Gradient, l.Flicker))
+	if !finiteAll(l.Exposure, l.Drift, l.Gradient, l.Flicker) || l.Exposure < 0 || l.Drift <= -1 || math.Abs(l.Gradient) >= 2 {
+		errs = append(errs, fmt.Errorf("exposure %g, drift %g, gradient %g and flicker %g: expected finite numbers, exposure ≥ 0, drift above −1 and gradient within ±2", l.Exposure, l.Drift, l.Gradient, l.Flicker))
 	}
 	if f := l.Flash; f != nil {
 		if f.Frame < 0 || f.Frame >= frames || !(f.Gain > 0) || math.IsInf(f.Gain, 0) {
@@ -70,6 +74,9 @@ func (l *Lighting) Light(img *subset.Image, frame, n int) {
 		s = float64(frame) / float64(n-1)
 	}
 	gain := 1 + l.Drift*s
+	if l.Exposure != 0 {
+		gain *= l.Exposure
+	}
 	offset := l.Flicker
 	if frame%2 == 1 {
 		offset = -offset
