@@ -96,7 +96,10 @@ func drawVectors(img *gocv.Mat, v *Vectors, d *Deformation) float64 {
 			x, y := g.Pos(i)
 			fx, fy := float64(x), float64(y)
 			if d != nil {
-				fx, fy = fx+u, fy+w
+				var ok bool
+				if fx, fy, ok = d.Current(fx, fy); !ok {
+					continue
+				}
 			}
 			a := image.Pt(int(math.Round(fx)), int(math.Round(fy)))
 			b := image.Pt(int(math.Round(fx+gain*u)), int(math.Round(fy+gain*w)))

@@ -37,7 +37,7 @@ func drawPanel(p *sidePanel, opt OverlayOptions, gain float64, over, under bool)
 			p.text(p.fine, panelMuted, fmt.Sprintf("%.0f %% of the test's peak, %.1f MPa", 100*st.Stress/st.Peak, st.Peak))
 		}
 	}
-	if opt.Deform != nil {
+	if opt.Deform.moves() {
 		p.text(p.fine, panelMuted, "on this frame's photo, moved with the material")
 	} else {
 		p.text(p.fine, panelMuted, "on the reference photo, where it was measured")

@@ -4,25 +4,44 @@ import (
 	"fmt"
 	"math"
 
+	"spallscope/dic/lens"
 	"spallscope/dic/region"
 )
 
 // Deformation is the displacement of one frame on its grid, u and v in
 // reference px: the material point at reference position X is at X + u(X)
 // in that frame. It places reference-grid results on the current photo.
+//
+// With a Lens, the fields are in the lens's undistorted px (a run with a
+// lens file) and the photos as taken: positions go through the lens's
+// distortion to the photo (lens.Model.Distort), and photo pixels through
+// its inverse to the fields. U and V nil is no motion: the reference photo
+// seen through the lens.
 type Deformation struct {
 	U, V *GridValues
+	Lens *lens.Model
 }
 
-// Current returns where reference position (X, Y) is in the frame.
+// Current returns where reference position (X, Y) is in the frame's
+// photo.
 func (d *Deformation) Current(X, Y float64) (x, y float64, ok bool) {
-	u, ok1 := d.U.At(X, Y)
-	v, ok2 := d.V.At(X, Y)
-	if !ok1 || !ok2 {
-		return X, Y, false
+	x, y, ok = X, Y, true
+	if d.U != nil && d.V != nil {
+		u, ok1 := d.U.At(X, Y)
+		v, ok2 := d.V.At(X, Y)
+		if !ok1 || !ok2 {
+			return X, Y, false
+		}
+		x, y = X+u, Y+v
 	}
-	return X + u, Y + v, true
+	if d.Lens != nil {
+		x, y = d.Lens.Distort(x, y)
+	}
+	return x, y, ok
 }
+
+// moves reports whether d holds a displacement (not only a lens).
+func (d *Deformation) moves() bool { return d != nil && d.U != nil && d.V != nil }
 
 // warpIterations and warpTolerance bound the fixed-point search of
 // Reference: with displacement gradients below 0.1 (strains of 10 %, beyond
@@ -64,34 +83,58 @@ func (g *GridValues) RasterOn(d *Deformation, width, height int, keep *region.Ma
 	if err := g.check(); err != nil {
 		return nil, err
 	}
-	if d == nil || d.U == nil || d.V == nil {
+	if d == nil || (d.Lens == nil && !d.moves()) {
 		return nil, fmt.Errorf("raster on the current frame: no displacement field")
 	}
-	if err := d.U.check(); err != nil {
-		return nil, fmt.Errorf("displacement u: %w", err)
+	if keep != nil && (keep.Width != width || keep.Height != height) {
+		return nil, fmt.Errorf("raster: mask %dx%d for a %dx%d image", keep.Width, keep.Height, width, height)
 	}
-	if err := d.V.check(); err != nil {
-		return nil, fmt.Errorf("displacement v: %w", err)
-	}
+	umin, umax, vmin, vmax := 0.0, 0.0, 0.0, 0.0
 	r := newRaster(width, height)
-	umin, umax := finiteRange(d.U.Values)
-	vmin, vmax := finiteRange(d.V.Values)
-	if math.IsNaN(umin) || math.IsNaN(vmin) {
-		return r, nil // nothing measured
+	if d.moves() {
+		if err := d.U.check(); err != nil {
+			return nil, fmt.Errorf("displacement u: %w", err)
+		}
+		if err := d.V.check(); err != nil {
+			return nil, fmt.Errorf("displacement v: %w", err)
+		}
+		umin, umax = finiteRange(d.U.Values)
+		vmin, vmax = finiteRange(d.V.Values)
+		if math.IsNaN(umin) || math.IsNaN(vmin) {
+			return r, nil // nothing measured
+		}
 	}
 	x0, y0, x1, y1 := g.bounds(width, height)
 	x0, x1 = max(0, x0+int(math.Floor(umin))), min(width-1, x1+int(math.Ceil(umax)))
 	y0, y1 = max(0, y0+int(math.Floor(vmin))), min(height-1, y1+int(math.Ceil(vmax)))
+	if d.Lens != nil { // a photo pixel may show any field position
+		x0, y0, x1, y1 = 0, 0, width-1, height-1
+	}
 	for y := y0; y <= y1; y++ {
 		gu, gv := (umin+umax)/2, (vmin+vmax)/2
 		for x := x0; x <= x1; x++ {
-			X, Y, ok := d.Reference(float64(x), float64(y), gu, gv)
-			if !ok {
-				continue
+			px, py := float64(x), float64(y)
+			if d.Lens != nil {
+				var seen bool
+				if px, py, seen = d.Lens.Undistort(px, py); !seen {
+					continue
+				}
 			}
-			gu, gv = float64(x)-X, float64(y)-Y
-			if keep != nil && !keep.At(int(math.Round(X)), int(math.Round(Y))) {
-				continue
+			X, Y, ok := px, py, true
+			if d.moves() {
+				if X, Y, ok = d.Reference(px, py, gu, gv); !ok {
+					continue
+				}
+				gu, gv = px-X, py-Y
+			}
+			if keep != nil {
+				kx, ky := X, Y // the mask is in the reference photo's pixels
+				if d.Lens != nil {
+					kx, ky = d.Lens.Distort(X, Y)
+				}
+				if !keep.At(int(math.Round(kx)), int(math.Round(ky))) {
+					continue
+				}
 			}
 			if v, ok := g.At(X, Y); ok {
 				r.Pix[y*width+x] = float32(v)

@@ -8,6 +8,7 @@ import (
 	"gocv.io/x/gocv"
 
 	"spallscope/dic"
+	"spallscope/dic/lens"
 	"spallscope/dic/region"
 	"spallscope/subset"
 )
@@ -75,6 +76,10 @@ type OverlayOptions struct {
 	Stamp  Stamp
 	Zones  []ZoneOutline
 	Onsets []OnsetMark
+	// Lens, when set, is the lens whose distortion the run's fields were
+	// corrected for (fields in undistorted px): the field and its marks are
+	// drawn through it at their places on the photos as taken.
+	Lens *lens.Model
 	// Vectors, when set, adds displacement arrows.
 	Vectors *Vectors
 	// Notes are short lines at the foot of the panel (resolution, VSG).
@@ -107,6 +112,13 @@ func Overlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.
 	}
 	if opt.Map.table == nil {
 		opt.Map = opt.Quantity.Map()
+	}
+	if opt.Lens != nil {
+		d := Deformation{Lens: opt.Lens}
+		if opt.Deform != nil {
+			d.U, d.V = opt.Deform.U, opt.Deform.V
+		}
+		opt.Deform = &d
 	}
 	var r *Raster
 	var err error

@@ -17,6 +17,7 @@ import (
 
 	"spallscope/dic"
 	"spallscope/dic/frames"
+	"spallscope/dic/lens"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/strain/strainfile"
@@ -244,6 +245,7 @@ type renderRun struct {
 	seqIndex map[string]int
 	ref      *subset.Image
 	keep     *region.Mask
+	lens     *lens.Model // the fields' lens correction (nil: none)
 	grid     dic.Grid
 	scale    dic.Scale
 	times    map[string]float64
@@ -301,6 +303,17 @@ func openRenderRun(dir string, opt Options) (*renderRun, error) {
 	if len(layout.Exclude) > 0 {
 		if rr.keep, err = layout.Rasterise(rr.ref.Width, rr.ref.Height); err != nil {
 			return nil, fmt.Errorf("run folder %s: %w", dir, err)
+		}
+	}
+	if tr.Lens != nil {
+		path := resolveRunPath(dir, tr.Lens.File)
+		switch m, err := lens.Read(path); {
+		case err != nil:
+			rr.notes = append(rr.notes, fmt.Sprintf("the fields are corrected for the lens %s, which cannot be read (%v): they are drawn at their undistorted positions, off the photos by the lens's distortion towards the frame's corners", path, err))
+		case m.Width != rr.ref.Width || m.Height != rr.ref.Height:
+			rr.notes = append(rr.notes, fmt.Sprintf("the lens %s is for %dx%d px photos, these are %dx%d px: the fields are drawn at their undistorted positions", path, m.Width, m.Height, rr.ref.Width, rr.ref.Height))
+		default:
+			rr.lens = &m
 		}
 	}
 	for k, name := range tr.Frames {
@@ -487,7 +500,7 @@ func (rr *renderRun) frameValues(q Quantity, name string, disp bool) (frameData,
 
 // overlayOptions returns the drawing options of frame k, name.
 func (rr *renderRun) overlayOptions(q Quantity, lim Limits, k int, name string) OverlayOptions {
-	ov := OverlayOptions{Quantity: q, Limits: lim, Scale: rr.scale, Keep: rr.keep,
+	ov := OverlayOptions{Quantity: q, Limits: lim, Scale: rr.scale, Keep: rr.keep, Lens: rr.lens,
 		Zones: rr.zones[name], ReserveZones: len(rr.zones) > 0, ReserveOnsets: len(rr.onsets)}
 	ov.Stamp = Stamp{Frame: name, Peak: rr.peak}
 	if t, ok := rr.times[name]; ok {

@@ -9,6 +9,7 @@ import (
 	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic"
 	"spallscope/dic/frames"
+	"spallscope/dic/lens"
 	"spallscope/dic/runfolder"
 	"spallscope/strain/strainfile"
 )
@@ -90,6 +91,15 @@ func Zones(t *config.Test, dir, tool string) (rep *strainfile.OnsetReport, notes
 	}
 	if haveTrack {
 		st.Finder.SubsetHalf = tr.Settings.Subset / 2
+		if tr.Lens != nil {
+			m, err := lens.Read(tr.Lens.File)
+			if err != nil {
+				return nil, nil, fmt.Errorf("the fields of %s are corrected for a lens, whose file is needed to place the openings: %w", dir, err)
+			}
+			if err := undistortOpenings(&st, &m); err != nil {
+				return nil, nil, err
+			}
+		}
 	}
 	st.Finder.Scale = strainfile.Scale(dir)
 	names, err := runfolder.Frames(dir)

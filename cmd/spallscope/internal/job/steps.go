@@ -94,6 +94,11 @@ func (r *testRun) prepareZones() ([]any, error) {
 		return nil, err
 	}
 	st.Finder.Scale, st.Finder.SubsetHalf = r.tp.scale, r.tp.settings.Subset/2
+	if r.tp.lens != nil {
+		if err := undistortOpenings(&st, &r.tp.lens.Model); err != nil {
+			return nil, err
+		}
+	}
 	r.zoneCfg = st
 	loadPath := t.Resolve(t.Load.File)
 	if r.hashes["load_log"], err = fileHash(loadPath); err != nil {
