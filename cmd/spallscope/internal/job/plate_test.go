@@ -147,4 +147,28 @@ func TestCompensationPlateRemovesMagnification(t *testing.T) {
 	if !strings.Contains(ff.Warning, "above the strain noise floor") || !strings.Contains(ff.Warning, sc.FrameName(sc.Frames-1)) {
 		t.Errorf("far-field warning %q: want it to name the last frame", ff.Warning)
 	}
+	refusedPlates(t, dir)
+}
+
+// A plate too close to the region of interest, too small, or beyond the
+// photos is refused before tracking, naming the key and the problem.
+func refusedPlates(t *testing.T, dir string) {
+	for plate, want := range map[string]string{
+		"rect:185,8,250,152": "within half a subset (11 px)",
+		"rect:220,60,228,68": "at least 6 needed",
+		"rect:220,60,300,90": "reaches outside the 256x160 photos",
+	} {
+		path := filepath.Join(dir, "refused.yaml")
+		body := "images: synth/frames\nroi: \"rect:0,0,180,159\"\ncorrelation: {subset: 21, step: 6}\ncompensation_plate: \"" + plate + "\"\n"
+		if err := os.WriteFile(path, []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		tc, err := config.Read(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, err := prepareTrack(tc, tool); err == nil || !strings.Contains(err.Error(), "compensation_plate") || !strings.Contains(err.Error(), want) {
+			t.Errorf("plate %s: %v, want it to say %q", plate, err, want)
+		}
+	}
 }
