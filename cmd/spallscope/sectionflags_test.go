@@ -27,8 +27,8 @@ var optionSamples = map[string][2]string{
 
 	"compensation_plate": {"rect:60,0,90,40", `"rect:60,0,90,40"`},
 	"standoff_mm":        {"450", "450"},
-	"exclude":   {"circle:9,9,4", `["circle:9,9,4"]`},
-	"openings":  {"W=circle:9,9,4", `[{name: W, shape: "circle:9,9,4"}]`},
+	"exclude":            {"circle:9,9,4", `["circle:9,9,4"]`},
+	"openings":           {"W=circle:9,9,4", `[{name: W, shape: "circle:9,9,4"}]`},
 
 	"times.csv":       {"times.csv", "times.csv"},
 	"times.fps":       {"2.5", "2.5"},
