@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"math"
 	"path/filepath"
 
 	"github.com/spf13/cobra"
@@ -62,7 +63,15 @@ deformed positions are undistorted and the displacement is their difference.
 The grid of DIR/fields is then regular in undistorted px (the photo's pixels
 at the principal point), and strains and a scale line come from undistorted
 positions; the tracker's own fields, in photo px, are kept in
-DIR/photo_fields.`,
+DIR/photo_fields.
+
+Out-of-plane motion: with --compensation-plate SHAPE (a rigid, unloaded,
+speckled plate beside the specimen, in photo px, at least half a subset clear
+of the region of interest) the plate is tracked with the specimen, each frame's
+apparent magnification is fitted to it and taken out of the specimen's field
+about the lens's principal point (the image centre without a lens), and the
+plate's points are left out of DIR/fields. The fits go to DIR/run.json's
+"motion" section; --standoff MM adds the motion towards the camera in mm.`,
 		Example: `  spallscope track --images photos/ --ref 0 --exclude circle:1012,980,240 --out run1
   spallscope track --images "cam1/*.tif" --subset 31 --step 10 --order 2 --out run2`,
 		Args: cobra.NoArgs,
@@ -86,6 +95,15 @@ DIR/photo_fields.`,
 			if rec.Lens != nil {
 				fmt.Fprintf(cmd.OutOrStdout(), "lens distortion taken out with %s: fields in undistorted px; the tracker's own fields in %s\n",
 					rec.Lens.File, filepath.Join(out, runfolder.PhotoFieldsDir))
+			}
+			var mo runfolder.MotionRecord
+			if t.CompensationPlate != "" && runfolder.Section(out, runfolder.MotionSection, &mo) == nil && len(mo.Frames) > 0 {
+				worst := 0.0
+				for _, m := range mo.Frames {
+					worst = math.Max(worst, math.Abs(m.Magnification))
+				}
+				fmt.Fprintf(cmd.OutOrStdout(), "compensation plate %s: apparent magnification up to %.0f µε taken out of every frame (about the %s); each frame's fit in run.json's %s section\n",
+					mo.Plate, 1e6*worst, mo.CentreIs, runfolder.MotionSection)
 			}
 			return nil
 		},
