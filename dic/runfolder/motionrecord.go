@@ -36,11 +36,24 @@ type MotionRecord struct {
 	StandoffMM     float64             `json:"standoff_mm,omitempty"`
 	TowardCameraMM []float64           `json:"toward_camera_mm,omitempty"`
 	Frames         []similarity.Motion `json:"frames"`
+	// Baseline is the far field's elastic magnification, when the frames'
+	// stresses are known.
+	Baseline *MotionBaseline `json:"elastic_baseline,omitempty"`
 	// Unfitted lists far-field frames with too few points for a fit.
 	Unfitted []string `json:"unfitted_frames,omitempty"`
 	// Warning, when set, tells of a magnification change above the strain
 	// noise floor.
 	Warning string `json:"warning,omitempty"`
+}
+
+// MotionBaseline is the far field's magnification as a line against
+// nominal stress, Intercept + PerMPa·σ, fitted over Frames calibration
+// frames; Stress holds each frame's stress.
+type MotionBaseline struct {
+	Intercept float64   `json:"intercept"`
+	PerMPa    float64   `json:"per_MPa"`
+	Frames    int       `json:"calibration_frames"`
+	Stress    []float64 `json:"stress_MPa"`
 }
 
 // Add appends a frame's motion, with its motion towards the camera when

@@ -6,6 +6,7 @@ import (
 	"slices"
 	"strings"
 
+	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/similarity"
@@ -76,10 +77,61 @@ func (r *testRun) recordFarFieldMotion(res *strainfile.ResolutionRecord) error {
 		}
 		rec.Add(m)
 	}
+	rec.Baseline = r.elasticMagnification(names, &rec)
 	if res != nil {
 		rec.Warning = magnificationWarning(&rec, res)
 	}
 	return runfolder.SetSection(r.out, runfolder.MotionSection, rec)
+}
+
+// elasticMagnification fits the far field's magnification as a + b·σ over
+// the zone stage's calibration frames (stress up to its calibrate_below
+// fraction of the peak, or its first calibrate_frames without a load):
+// the same frames each point's elastic response is fitted on, which the
+// onset detection takes out of every point. A magnification linear in
+// stress goes with it; what departs from the line is what can move an
+// onset. nil when the frames' stresses are unknown or too few frames
+// calibrate.
+func (r *testRun) elasticMagnification(names []string, rec *runfolder.MotionRecord) *runfolder.MotionBaseline {
+	if len(r.tp.times) != len(names) {
+		return nil
+	}
+	st := r.zoneCfg.Effective()
+	states := stage.FrameStates(names, r.tp.times, r.sigma)
+	peak := 0.0
+	for _, f := range states {
+		peak = math.Max(peak, f.Stress)
+	}
+	var xs, ys []float64
+	for k, f := range states {
+		if slices.Contains(rec.Unfitted, names[k]) {
+			continue
+		}
+		if (peak > 0 && f.Stress <= st.CalibrateBelow*peak) || (peak == 0 && k < st.CalibrateFrames) {
+			xs, ys = append(xs, f.Stress), append(ys, rec.Frames[k].Magnification)
+		}
+	}
+	if len(xs) < 2 {
+		return nil
+	}
+	var mx, my float64
+	for i := range xs {
+		mx, my = mx+xs[i], my+ys[i]
+	}
+	mx, my = mx/float64(len(xs)), my/float64(len(xs))
+	var sxx, sxy float64
+	for i := range xs {
+		sxx, sxy = sxx+(xs[i]-mx)*(xs[i]-mx), sxy+(xs[i]-mx)*(ys[i]-my)
+	}
+	b := runfolder.MotionBaseline{Frames: len(xs)}
+	if sxx > 0 {
+		b.PerMPa = sxy / sxx
+	}
+	b.Intercept = my - b.PerMPa*mx
+	for _, f := range states {
+		b.Stress = append(b.Stress, f.Stress)
+	}
+	return &b
 }
 
 // plateWarning tells when the compensation plate measures magnification
@@ -117,43 +169,75 @@ func noiseFloorIso(res *strainfile.ResolutionRecord) float64 {
 	return (res.Exx + res.Eyy) / 2
 }
 
-// magnificationWarning says which frames' far-field magnification differs
-// from the first frame's by more than the strain noise floor, or "".
+// magnificationWarning says which frames' far-field magnification
+// changes by more than the strain noise floor where the specimen's own
+// strain cannot explain it: at zero load, from the first frame's; under
+// load, from its elastic line (the record's Baseline) — or, without
+// stresses, from the first frame's in every frame. "" when none does.
 func magnificationWarning(rec *runfolder.MotionRecord, res *strainfile.ResolutionRecord) string {
 	floor := noiseFloorIso(res)
 	if !(floor > 0) || len(rec.Frames) == 0 {
 		return ""
 	}
 	m0 := rec.Frames[0].Magnification
-	var over []string
-	worst, at := 0.0, ""
-	for i, m := range rec.Frames {
+	b := rec.Baseline
+	if b != nil && len(b.Stress) != len(rec.Frames) {
+		b = nil
+	}
+	var still, loaded []string
+	worstStill, worstLoaded, atStill, atLoaded := 0.0, 0.0, "", ""
+	for k, m := range rec.Frames {
 		if slices.Contains(rec.Unfitted, m.Frame) {
 			continue
 		}
-		d := math.Abs(m.Magnification - m0)
-		if d > floor {
-			over = append(over, m.Frame)
+		if b == nil || b.Stress[k] == 0 {
+			if d := math.Abs(m.Magnification - m0); d > floor {
+				still = append(still, m.Frame)
+				if d > worstStill {
+					worstStill, atStill = d, m.Frame
+				}
+			}
+			continue
 		}
-		if d > worst {
-			worst, at = d, rec.Frames[i].Frame
+		if d := math.Abs(m.Magnification - (b.Intercept + b.PerMPa*b.Stress[k])); d > floor {
+			loaded = append(loaded, m.Frame)
+			if d > worstLoaded {
+				worstLoaded, atLoaded = d, m.Frame
+			}
 		}
 	}
-	if len(over) == 0 {
+	if len(still) == 0 && len(loaded) == 0 {
 		return ""
 	}
-	list := over
-	if len(list) > 8 {
-		list = append(slices.Clone(list[:8]), fmt.Sprintf("and %d more", len(over)-8))
+	w := func(m float64) string {
+		if rec.StandoffMM > 0 {
+			return fmt.Sprintf(" (at the stand-off of %g mm, %.3g mm along the camera's axis)", rec.StandoffMM, rec.StandoffMM*m)
+		}
+		return ""
 	}
-	w := ""
-	if rec.StandoffMM > 0 {
-		w = fmt.Sprintf(" (at the stand-off of %g mm, %.3g mm of motion along the camera's axis)", rec.StandoffMM, rec.StandoffMM*worst)
+	var parts []string
+	if len(still) > 0 {
+		where := "at zero load"
+		if b == nil {
+			where = "(frame stresses unknown)"
+		}
+		parts = append(parts, fmt.Sprintf("the far field's apparent magnification changes from the first frame's by up to %.0f µε (frame %s)%s %s, where the specimen is not strained, in %d frame(s): %s — out-of-plane motion (an apparent strain of w/Z), or a change of focus or of the camera's mount",
+			1e6*worstStill, atStill, w(worstStill), where, len(still), frameList(still)))
 	}
-	return fmt.Sprintf("apparent magnification of the far field changes by up to %.0f µε (frame %s)%s, above the strain noise floor of %.0f µε, in %d frame(s): %s. "+
-		"It is the face moving along the camera's axis (out-of-plane motion, w ≈ m·Z), or the specimen's own mean in-plane strain, which the far field cannot tell apart under load; "+
-		"name a compensation_plate (a rigid, unloaded plate beside the specimen) to measure it and take it out",
-		1e6*worst, at, w, 1e6*floor, len(over), strings.Join(list, ", "))
+	if len(loaded) > 0 {
+		parts = append(parts, fmt.Sprintf("under load it departs from its elastic line (fitted against stress over the %d calibration frames; the onset detection takes such a line out of every point) by up to %.0f µε (frame %s)%s, in %d frame(s): %s — out-of-plane motion, or the specimen's own mean strain turning inelastic, which the far field cannot tell apart",
+			b.Frames, 1e6*worstLoaded, atLoaded, w(worstLoaded), len(loaded), frameList(loaded)))
+	}
+	return fmt.Sprintf("%s; all above the strain noise floor of %.0f µε. Name a compensation_plate (a rigid, unloaded plate beside the specimen) to measure the magnification and take it out",
+		strings.Join(parts, "; "), 1e6*floor)
+}
+
+// frameList names up to eight frames and counts the rest.
+func frameList(names []string) string {
+	if len(names) > 8 {
+		names = append(slices.Clone(names[:8]), fmt.Sprintf("and %d more", len(names)-8))
+	}
+	return strings.Join(names, ", ")
 }
 
 // motionNote is the motion record's warning, for the run's notes ("" when
