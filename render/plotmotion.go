@@ -48,6 +48,18 @@ func plotMagnification(r *runRecords) (Figure, bool, error) {
 	if err := addSeriesRuns(p, frameRuns(pts), plotColour(0), sectorGlyph(""), false, label); err != nil {
 		return Figure{}, false, fmt.Errorf("magnification plot: %w", err)
 	}
+	if b := rec.Baseline; b != nil && len(b.Stress) == len(rec.Frames) {
+		var line []framePoint
+		for k, m := range rec.Frames {
+			if x, ok := r.Axis.Of(m.Frame); ok {
+				line = append(line, framePoint{r.Axis.index[m.Frame], plotter.XY{X: x, Y: 1e6 * (b.Intercept + b.PerMPa*b.Stress[k])}})
+			}
+		}
+		if err := addSeriesRuns(p, frameRuns(line), plotColour(1), sectorGlyph(""), true, "elastic line (calibration frames)"); err != nil {
+			return Figure{}, false, fmt.Errorf("magnification plot: %w", err)
+		}
+		how += fmt.Sprintf("; dashed, its line against stress over the %d calibration frames, which the onset detection takes out of every point", b.Frames)
+	}
 	floor := ""
 	if res := r.Resolution; res != nil && res.Frames > 0 {
 		f := 1e6 * (res.Exx + res.Eyy) / 2
