@@ -44,6 +44,23 @@ func farFieldKeep(openings []string) func(x, y int) bool {
 	}
 }
 
+// recordMotion completes run.json's "motion" section before the zones
+// are found: the plate's note, or the far field's fit and warning, against
+// the noise floor of the "resolution" section (none: no warning). It runs
+// with the zones stage, whose calibration frames the far field's elastic
+// line uses.
+func (r *testRun) recordMotion() error {
+	var res *strainfile.ResolutionRecord
+	var rr strainfile.ResolutionRecord
+	if runfolder.Section(r.out, "resolution", &rr) == nil {
+		res = &rr
+	}
+	if r.tp.plate != nil {
+		return plateWarning(r.out, res)
+	}
+	return r.recordFarFieldMotion(res)
+}
+
 // recordFarFieldMotion fits each frame's similarity to the far field of
 // run folder dir's fields (no compensation plate) and writes run.json's
 // "motion" section, with a warning when the magnification changes by more

@@ -71,15 +71,9 @@ func (r *testRun) prepareStrain() ([]any, error) {
 
 // strain differentiates every field.
 func (r *testRun) strain(ctx context.Context, _ bool) error {
-	_, res, err := stage.Strain(ctx, r.out, r.window, 0, r.tp.scale, r.t.Strain.StaticFrames,
+	_, _, err := stage.Strain(ctx, r.out, r.window, 0, r.tp.scale, r.t.Strain.StaticFrames,
 		func(done, total int) { r.progress("strain", done, total) })
-	if err != nil {
-		return err
-	}
-	if r.tp.plate != nil {
-		return plateWarning(r.out, res)
-	}
-	return r.recordFarFieldMotion(res)
+	return err
 }
 
 // prepareZones reads the zone settings and openings, and reads and checks
@@ -136,6 +130,9 @@ func (r *testRun) prepareZones() ([]any, error) {
 func (r *testRun) zones(_ context.Context, _ bool) error {
 	names, err := runfolder.Frames(r.out)
 	if err != nil {
+		return err
+	}
+	if err := r.recordMotion(); err != nil {
 		return err
 	}
 	states := stage.FrameStates(names, r.tp.times, r.sigma)
