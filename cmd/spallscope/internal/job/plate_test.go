@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"spallscope/cmd/spallscope/internal/config"
+	"spallscope/dic"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
@@ -172,5 +173,55 @@ func refusedPlates(t *testing.T, dir string) {
 		if _, err := prepareTrack(tc, tool); err == nil || !strings.Contains(err.Error(), "compensation_plate") || !strings.Contains(err.Error(), want) {
 			t.Errorf("plate %s: %v, want it to say %q", plate, err, want)
 		}
+	}
+}
+
+// A run with a plate resumes only after frames whose plate fit is
+// recorded (their fields are compensated with it), from the tracker's own
+// photo-pixel fields, and keeps the earlier frames' fits.
+func TestPlateResume(t *testing.T) {
+	dir := t.TempDir()
+	sc := plateScenario()
+	sc.Frames = 4
+	out := runPlate(t, dir, sc, "resume", "compensation_plate: \"rect:200,8,250,152\"\n")
+	tc, err := config.Read(filepath.Join(dir, "resume.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	tp, err := prepareTrack(tc, tool)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer tp.in.Seq.Close()
+	var rec runfolder.MotionRecord
+	if err := runfolder.Section(out, runfolder.MotionSection, &rec); err != nil || len(rec.Frames) != 4 {
+		t.Fatalf("motion record of %d frames (%v)", len(rec.Frames), err)
+	}
+	resume := func() int {
+		tracker, err := dic.NewTracker(tp.in.Ref, 0, tp.in.Mask, tp.settings)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return tp.resume(out, tracker, 0, 4)
+	}
+	os.Remove(runfolder.FieldPath(out, sc.FrameName(3)))
+	if from := resume(); from != 3 {
+		t.Errorf("resume with 3 fields and 4 fits: from frame %d, want 3", from)
+	}
+	kept := rec
+	kept.Truncate(2)
+	if err := runfolder.SetSection(out, runfolder.MotionSection, kept); err != nil {
+		t.Fatal(err)
+	}
+	if from := resume(); from != 2 {
+		t.Errorf("resume with 3 fields and 2 fits: from frame %d, want 2", from)
+	}
+	c := tp.compensation(out, 2)
+	if len(c.Record.Frames) != 2 || c.Record.Frames[1] != rec.Frames[1] {
+		t.Errorf("a run resumed at frame 2 keeps fits %+v, want the first two of %+v", c.Record.Frames, rec.Frames)
+	}
+	os.Remove(runfolder.PhotoFieldPath(out, sc.FrameName(1)))
+	if from := resume(); from != 0 {
+		t.Errorf("resume without frame 1's photo-pixel field: from frame %d, want 0", from)
 	}
 }
