@@ -20,6 +20,7 @@ func newSynthCmd() *cobra.Command {
 		size      string
 		from, to  string
 		printSpec bool
+		nu        float64
 	)
 	var kinds strings.Builder
 	for _, k := range synth.FieldKinds {
@@ -65,6 +66,10 @@ given; tension positive in the truth's derived quantities), s for time.`,
   spallscope synth --field strain --eyy -0.004 --print-spec > mytest.json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
+			if err := refuseTypedZeros(cmd.Flags()); err != nil {
+				return fmt.Errorf("synth: %w", err)
+			}
+			s.Nu = &nu
 			var sc *synth.Scenario
 			if spec != "" {
 				var err error
@@ -134,7 +139,7 @@ given; tension positive in the truth's derived quantities), s for time.`,
 	f.Float64Var(&s.Stress, "stress", 40, "peak far-field vertical stress in MPa (compression positive)")
 	f.Float64Var(&s.K, "k", 0, "kirsch: lateral to vertical far-field stress ratio")
 	f.Float64Var(&s.E, "E", 20000, "kirsch: Young's modulus in MPa")
-	f.Float64Var(&s.Nu, "nu", 0.2, "kirsch: Poisson's ratio")
+	f.Float64Var(&nu, "nu", 0.2, "kirsch: Poisson's ratio")
 	f.BoolVar(&s.PlaneStress, "plane-stress", false, "kirsch: plane stress instead of plane strain")
 	f.Float64Var(&s.Amplitude, "amplitude", 0.5, "sine-sweep: amplitude in px")
 	f.Float64Var(&s.PeriodMin, "period-min", 10, "sine-sweep: period at the top row in px")
@@ -147,6 +152,11 @@ given; tension positive in the truth's derived quantities), s for time.`,
 	f.IntVar(&s.StartFrame, "start-frame", 1, "crack/band: first frame in which it shows")
 	f.Float64Var(&s.MMPerPx, "mm-per-px", 0.1, "image scale in mm per px")
 	f.Float64Var(&s.ThicknessMM, "thickness", 50, "specimen thickness in mm (loaded area = image width × thickness)")
+	// Options whose zero the scenario builder takes as "the default".
+	for _, name := range []string{"frames", "fps", "speckle-radius", "coverage", "radius", "stress", "E",
+		"amplitude", "period-min", "period-max", "half-width", "mm-per-px", "thickness"} {
+		f.SetAnnotation(name, zeroDefaultAnnotation, []string{"true"})
+	}
 	return cmd
 }
 
