@@ -44,7 +44,7 @@ func DemoBlock() *Scenario {
 
 // DemoTwin is the demo test's second face, filmed by a second camera: a
 // second block of the same mix and size, with twin 18 mm openings side by
-// side (centres 34 mm apart: a 16 mm pillar between them), stacked on the
+// side (centres 38 mm apart: a 20 mm pillar between them), stacked on the
 // first in the frame so that both carry the same force and, with the same
 // cross-section, the same nominal stress. The camera sees it at 0.26 mm/px
 // (384×384 px) with its own speckle paint. The pillar concentrates the
@@ -56,14 +56,14 @@ func DemoTwin() *Scenario {
 	const size = 384
 	s := float64(size) / 512 // px of this view per px of the front view
 	c := float64(size) / 2
-	r, half := 45*s, 85*s // opening radius and half the centre spacing
+	r, half := 45*s, 95*s // opening radius and half the centre spacing
 	ax, bx := c-half, c+half
 	sc := demoScenario("twin", size, 20261202, 78, 1)
 	sc.Specimen.MMPerPx = 0.2 / s
 	sc.Openings = []Opening{Circle(ax, c, r), Circle(bx, c, r)}
 	elastic := KirschPair{X1: ax, Y1: c, R1: r, X2: bx, Y2: c, R2: r, Stress: 32, K: 0.25, E: 12000, Nu: 0.22}
 	sc.Fields = append(sc.Fields, FieldSpec{KirschPair: &elastic, Drive: DriveLoad})
-	// Pillar walls first (arms 30 px into the 80 px pillar, of the front
+	// Pillar walls first (arms 30 px into the 100 px pillar, in px of the front
 	// view's px), then the outer sidewalls.
 	sc.Fields = append(sc.Fields,
 		demoNotchScaled(ax+r, c, 1, 30, 22, 7, s),
