@@ -92,6 +92,9 @@ func TestLoadCurve(t *testing.T) {
 	if err := sc.Validate(); err != nil {
 		t.Fatal(err)
 	}
+	if err := DemoTwin().Validate(); err != nil {
+		t.Fatal(err)
+	}
 	p := sc.Load.PeakFrame
 	if s := sc.Stress(p); math.Abs(s-32) > 1e-12 {
 		t.Errorf("peak stress %g, want 32", s)
