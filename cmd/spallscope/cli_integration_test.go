@@ -69,11 +69,19 @@ func TestSynthBadInput(t *testing.T) {
 		{[]string{"synth", "--field", "crack", "--out", dir}, "distinct mouth and tip"},
 		{[]string{"synth", "--depth", "12", "--out", dir}, "bit depth 12"},
 		{[]string{"synth", "--field", "translation"}, "--out DIR is required"},
+		// A typed 0 that the scenario builder would take as its default.
+		{[]string{"synth", "--frames", "0", "--out", dir}, "--frames 0: 0 is not a setting here"},
+		{[]string{"synth", "--E", "0.0", "--out", dir}, "--E 0: 0 is not a setting here"},
 	}
 	for _, c := range cases {
 		if _, err := run(t, c.args...); err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%v: error %v, want it to say %q", c.args, err, c.want)
 		}
+	}
+	// ν = 0 is a material's value (cork, to within a few hundredths:
+	// common practice, no source), kept rather than replaced by the default.
+	if out, err := run(t, "synth", "--nu", "0", "--print-spec"); err != nil || !strings.Contains(out, `"nu": 0`+"\n") {
+		t.Errorf("--nu 0: %v, scenario %s, want nu 0 in it", err, out)
 	}
 	spec := filepath.Join(dir, "bad.json")
 	os.WriteFile(spec, []byte(`{"name":"x","widht_px":64}`), 0o644)

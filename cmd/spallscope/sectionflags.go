@@ -199,7 +199,7 @@ func refuseTypedZeros(fs *pflag.FlagSet) error {
 		if v, perr := strconv.ParseFloat(f.Value.String(), 64); perr == nil && v == 0 {
 			def := f.DefValue
 			if def == "0" {
-				def = "none"
+				def = "as --help says"
 			}
 			err = fmt.Errorf("--%s 0: 0 is not a setting here; leave the option out for its default (%s)", f.Name, def)
 		}

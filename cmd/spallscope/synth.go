@@ -20,6 +20,7 @@ func newSynthCmd() *cobra.Command {
 		size      string
 		from, to  string
 		printSpec bool
+		nu        float64
 	)
 	var kinds strings.Builder
 	for _, k := range synth.FieldKinds {
@@ -38,8 +39,9 @@ area; no reference bitmap is interpolated.
 
 Fields (--field):
 ` + kinds.String() + `
-For anything richer (several fields, openings, spalling, a load history) write
-the scenario as JSON: --print-spec prints the scenario the flags describe, to
+For anything richer (several fields, openings, spalling, a load history; also
+"notch" — a V of two bands from one apex — and "kirsch_pair" — twin openings
+as two superposed Kirsch fields) write the scenario as JSON: --print-spec prints the scenario the flags describe, to
 edit and pass back with --spec. The demo scenario is 'spallscope demo'.
 
 A real camera: the scenario's "lens" (fx_px, fy_px, cx_px, cy_px, k1, k2, k3,
@@ -54,7 +56,11 @@ the same camera at poses that cover the frame, for calibrate:
 Output folder:
   frames/<name>.png   frames; frame 0 is the undeformed reference
   truth/<name>.csv    exact x,y,u,v,dudx,dudy,dvdx,dvdy,material on a grid (px)
-  truth.json          scenario, and each frame's time, stress and force
+  truth.json          scenario, each frame's time, stress and force, and each
+                      damage feature's truth ("features": band, crack, notch,
+                      spall; its opening and sector, hidden_start_frame,
+                      detectable_frame at "detection" {vsg_px, limit}, and
+                      its own γmax per frame, pointwise and over the VSG)
   loadlog.csv         time_s,force_kN,stroke_mm on the test frame's clock
 
 Units: px for lengths in the image, MPa for stresses (compression positive as
@@ -65,6 +71,10 @@ given; tension positive in the truth's derived quantities), s for time.`,
   spallscope synth --field strain --eyy -0.004 --print-spec > mytest.json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
+			if err := refuseTypedZeros(cmd.Flags()); err != nil {
+				return fmt.Errorf("synth: %w", err)
+			}
+			s.Nu = &nu
 			var sc *synth.Scenario
 			if spec != "" {
 				var err error
@@ -134,7 +144,7 @@ given; tension positive in the truth's derived quantities), s for time.`,
 	f.Float64Var(&s.Stress, "stress", 40, "peak far-field vertical stress in MPa (compression positive)")
 	f.Float64Var(&s.K, "k", 0, "kirsch: lateral to vertical far-field stress ratio")
 	f.Float64Var(&s.E, "E", 20000, "kirsch: Young's modulus in MPa")
-	f.Float64Var(&s.Nu, "nu", 0.2, "kirsch: Poisson's ratio")
+	f.Float64Var(&nu, "nu", 0.2, "kirsch: Poisson's ratio")
 	f.BoolVar(&s.PlaneStress, "plane-stress", false, "kirsch: plane stress instead of plane strain")
 	f.Float64Var(&s.Amplitude, "amplitude", 0.5, "sine-sweep: amplitude in px")
 	f.Float64Var(&s.PeriodMin, "period-min", 10, "sine-sweep: period at the top row in px")
@@ -147,6 +157,11 @@ given; tension positive in the truth's derived quantities), s for time.`,
 	f.IntVar(&s.StartFrame, "start-frame", 1, "crack/band: first frame in which it shows")
 	f.Float64Var(&s.MMPerPx, "mm-per-px", 0.1, "image scale in mm per px")
 	f.Float64Var(&s.ThicknessMM, "thickness", 50, "specimen thickness in mm (loaded area = image width × thickness)")
+	// Options whose zero the scenario builder takes as "the default".
+	for _, name := range []string{"frames", "fps", "speckle-radius", "coverage", "radius", "stress", "E",
+		"amplitude", "period-min", "period-max", "half-width", "mm-per-px", "thickness"} {
+		f.SetAnnotation(name, zeroDefaultAnnotation, []string{"true"})
+	}
 	return cmd
 }
 

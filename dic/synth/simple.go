@@ -33,10 +33,11 @@ type Simple struct {
 	AngleDeg      float64 // rotation
 	Exx, Eyy, Exy float64 // uniform strain
 
-	Radius      float64 // kirsch opening radius, px (default a tenth of the smaller side)
-	Stress      float64 // peak far-field vertical stress, MPa (compression positive; default 40)
-	K           float64 // lateral stress ratio
-	E, Nu       float64 // MPa (default 20000), Poisson's ratio (default 0.2)
+	Radius      float64  // kirsch opening radius, px (default a tenth of the smaller side)
+	Stress      float64  // peak far-field vertical stress, MPa (compression positive; default 40)
+	K           float64  // lateral stress ratio
+	E           float64  // Young's modulus, MPa (default 20000)
+	Nu          *float64 // Poisson's ratio (nil: 0.2; 0 is a material's value, so not the default)
 	PlaneStress bool
 
 	Amplitude, PeriodMin, PeriodMax float64 // sine-sweep, px
@@ -72,8 +73,9 @@ func (s Simple) Scenario() (*Scenario, error) {
 	if s.E == 0 {
 		s.E = 20000
 	}
-	if s.Nu == 0 {
-		s.Nu = 0.2
+	nu := 0.2
+	if s.Nu != nil {
+		nu = *s.Nu
 	}
 	if s.MMPerPx == 0 {
 		s.MMPerPx = 0.1
@@ -111,7 +113,7 @@ func (s Simple) Scenario() (*Scenario, error) {
 		if r == 0 {
 			r = float64(min(s.Width, s.Height)) / 10
 		}
-		spec.Kirsch = &Kirsch{Cx: cx, Cy: cy, Radius: r, Stress: s.Stress, K: s.K, E: s.E, Nu: s.Nu, PlaneStress: s.PlaneStress}
+		spec.Kirsch = &Kirsch{Cx: cx, Cy: cy, Radius: r, Stress: s.Stress, K: s.K, E: s.E, Nu: nu, PlaneStress: s.PlaneStress}
 		spec.Drive = DriveLoad
 		sc.Openings = []Opening{Circle(cx, cy, r)}
 	case "sine-sweep":

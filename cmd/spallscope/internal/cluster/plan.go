@@ -68,7 +68,10 @@ func NewPlan(c *config.Campaign, framesPerTask, tasks int) (*Plan, error) {
 	}
 	p := &Plan{Campaign: c.Name, FramesPerTask: framesPerTask}
 	for _, path := range c.Tests {
-		name := job.TestName(path)
+		name, err := config.TestName(path)
+		if err != nil {
+			return nil, fmt.Errorf("plan: %w", err)
+		}
 		whole := Unit{Test: name, Config: path}
 		if p.FramesPerTask == 0 {
 			p.Units = append(p.Units, whole)

@@ -124,7 +124,10 @@ func Merge(ctx context.Context, c *config.Campaign, p *Plan, out, tool string, p
 	var missing []string
 	var results []job.Result
 	for _, path := range c.Tests {
-		name := job.TestName(path)
+		name, err := config.TestName(path)
+		if err != nil {
+			return nil, fmt.Errorf("merge: %w", err)
+		}
 		us := byTest[name]
 		var notDone []string
 		for _, s := range us {

@@ -37,6 +37,7 @@ func checkSchema(data []byte, doc any, t reflect.Type) error {
 		w.anchors = map[string]ast.Node{}
 		if w.root != nil {
 			ast.Walk(anchorCollector(w.anchors), w.root)
+			w.problems = append(w.problems, leadingZeroes(w.root)...)
 		}
 	}
 	w.walk(t, doc, nil)

@@ -123,3 +123,32 @@ func TestAliasesCannotBlowUp(t *testing.T) {
 		}
 	}
 }
+
+// A plain number with a leading zero is refused with its line: YAML 1.1
+// (yaml.org/type/int, 2005) reads 017 as octal 15 and YAML 1.2.2's core
+// schema (§10.3.2) as decimal 17; the decoder used here follows 1.1
+// (checked below), so a specimen called 017 would become the test "15".
+// Quoted, and in the 0o/0x forms both versions agree on, it passes.
+func TestLeadingZeroIsRefused(t *testing.T) {
+	var v struct {
+		N int `yaml:"n"`
+	}
+	if err := yaml.Unmarshal([]byte("n: 017\n"), &v); err != nil || v.N != 15 {
+		t.Fatalf("the decoder read 017 as %d (%v); this test's premise is octal 15", v.N, err)
+	}
+	for _, c := range []struct{ yaml, want string }{
+		{"images: p\nname: 017\n", "line 2: 017: a number with a leading zero"},
+		{"images: p\ncorrelation: {subset: 021}\n", "line 2: 021: a number with a leading zero"},
+		{"images: p\nstrain:\n  window: -07\n", "line 3: -07"},
+	} {
+		_, err := Parse([]byte(c.yaml), "t.yaml")
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%q:\n got %v\nwant %q", c.yaml, err, c.want)
+		}
+	}
+	for _, ok := range []string{"images: p\nname: '017'\n", "images: p\ncorrelation: {subset: 21}\n", "images: p\nstrain: {window: 0o11}\n", "images: p\nzones: {threshold: 0.5}\n", "images: p\nstrain: {static_frames: 0}\n"} {
+		if _, err := Parse([]byte(ok), "t.yaml"); err != nil && strings.Contains(err.Error(), "leading zero") {
+			t.Errorf("%q refused: %v", ok, err)
+		}
+	}
+}

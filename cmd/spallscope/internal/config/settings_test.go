@@ -160,7 +160,7 @@ func TestParseThreshold(t *testing.T) {
 		{"", 6, 0}, {"6mad", 6, 0}, {"4.5MAD", 4.5, 0}, {"500ue", -1, 500e-6}, {"6mad, 800ue", 6, 800e-6},
 	} {
 		var th strain.Thresholds
-		if err := ParseThreshold(c.text, &th); err != nil {
+		if err := parseThreshold(c.text, &th); err != nil {
 			t.Errorf("%q: %v", c.text, err)
 			continue
 		}

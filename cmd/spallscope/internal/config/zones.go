@@ -60,7 +60,7 @@ func (z Zones) check() error {
 		}
 	}
 	var t strain.Thresholds
-	p.add(ParseThreshold(z.Threshold, &t))
+	p.add(parseThreshold(z.Threshold, &t))
 	return p.err()
 }
 
@@ -74,7 +74,7 @@ func (z Zones) Stage(openings []Opening) (stage.ZoneStage, error) {
 	if len(z.Indicators) > 0 {
 		st.Finder.Indicators, _ = strain.ParseIndicators(strings.Join(z.Indicators, ",")) // checked
 	}
-	ParseThreshold(z.Threshold, &st.Finder.Thresholds) // checked
+	parseThreshold(z.Threshold, &st.Finder.Thresholds) // checked
 	st.Finder.Thresholds.MinCells, st.Finder.Thresholds.MinZNCC = z.MinCells, z.MinZNCC
 	st.Finder.Persistence = z.Persistence
 	st.Finder.Sectors = strain.Sectors{LoadAngleDeg: z.LoadAngleDeg, CrownHalfAngle: z.CrownHalfAngle, Reach: z.Reach}
@@ -89,11 +89,11 @@ func (z Zones) Stage(openings []Opening) (stage.ZoneStage, error) {
 	return st.Effective(), nil
 }
 
-// ParseThreshold reads "6mad", "500ue" or "6mad,500ue" into t (empty:
+// parseThreshold reads "6mad", "500ue" or "6mad,500ue" into t (empty:
 // 6mad). Each number must be finite and positive, each unit given once:
 // "0mad" alone would put the bar at the frame's median and mark half the
 // points, a NaN or infinite one would mark none.
-func ParseThreshold(s string, t *strain.Thresholds) error {
+func parseThreshold(s string, t *strain.Thresholds) error {
 	text := s
 	if s == "" {
 		s = "6mad"

@@ -194,18 +194,13 @@ type Outcome struct {
 	Error  string `json:"error,omitempty"`
 }
 
-// TestName is the run folder name of a campaign test: its config's name,
-// or the config file's stem when the config cannot be read.
-func TestName(configPath string) string {
-	if t, err := config.Read(configPath); err == nil {
-		return t.Name
-	}
-	return strings.TrimSuffix(filepath.Base(configPath), filepath.Ext(configPath))
-}
-
 // WriteOutcome records how test r ended in its run folder under out.
 func WriteOutcome(out string, r Result) error {
-	dir := filepath.Join(out, TestName(r.Config))
+	name, err := config.TestName(r.Config)
+	if err != nil {
+		return err
+	}
+	dir := filepath.Join(out, name)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
@@ -215,7 +210,11 @@ func WriteOutcome(out string, r Result) error {
 // ReadOutcome reads a test's outcome; fs.ErrNotExist when it has none yet.
 func ReadOutcome(out, configPath string) (Outcome, error) {
 	var o Outcome
-	err := readJSON(filepath.Join(out, TestName(configPath), outcomeFile), &o)
+	name, err := config.TestName(configPath)
+	if err != nil {
+		return o, err
+	}
+	err = readJSON(filepath.Join(out, name, outcomeFile), &o)
 	return o, err
 }
 

@@ -53,11 +53,9 @@ func openPhotos(images, reference, roi string, exclude []string, maskFile string
 	seq.ExpectSize(in.Ref.Width, in.Ref.Height)
 	var layout region.Layout
 	if roi != "" {
-		shape, err := region.ParseShape(roi)
+		shape, err := config.ParseROI(roi)
 		if err != nil {
-			if shape, err = region.ParseShape("rect:" + roi); err != nil {
-				return fail(fmt.Errorf("roi %q: expected x0,y0,x1,y1 or a shape such as polygon:x1,y1,...", roi))
-			}
+			return fail(err)
 		}
 		x0, y0, x1, y1 := shape.Bounds()
 		if x1 < 0 || y1 < 0 || x0 > float64(in.Ref.Width-1) || y0 > float64(in.Ref.Height-1) {
