@@ -43,7 +43,7 @@ frame brighter by more than 5 % than each of the 5 frames before it (a flash,
 or an LED in view switched on at a known time of the load log), over the whole
 frame or inside --flash-region SHAPE (rect:x0,y0,x1,y1, circle:..., polygon:...;
 an LED is best given its own region). It prints the strongest such frame with
-its camera time as a sync pair for run's load.sync key or track's --sync
+its camera time as a sync pair for a test config's load.sync key or zones' --sync
 option: [camera_s, log_s], log_s being the log's time of the event. The event
 happened while that frame was exposed, so the pair is good to one frame
 interval.`,
