@@ -67,3 +67,27 @@ func TestRasterThroughLens(t *testing.T) {
 		}
 	}
 }
+
+// Through a lens, a grid inside the photo is drawn wherever a photo
+// pixel's undistorted position lies within half a step of the grid (At's
+// rule), and nowhere else: the photo box the raster scans covers it.
+func TestRasterThroughLensCoversTheGrid(t *testing.T) {
+	m := lens.Model{Width: 120, Height: 90, Fx: 100, Fy: 100, Cx: 59.5, Cy: 44.5, K1: -0.25}
+	g := dic.Grid{X0: 70, Y0: 50, Step: 10, Cols: 5, Rows: 4}
+	vals := &GridValues{Grid: g, Values: make([]float64, g.Len())}
+	r, err := vals.RasterOn(&Deformation{Lens: &m}, 120, 90, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for y := 0; y < 90; y++ {
+		for x := 0; x < 120; x++ {
+			X, Y, _ := m.Undistort(float64(x), float64(y))
+			inside := X >= 65.01 && X <= 114.99 && Y >= 45.01 && Y <= 84.99
+			outside := X < 64.99 || X > 115.01 || Y < 44.99 || Y > 85.01
+			drawn := !math.IsNaN(float64(r.Pix[y*120+x]))
+			if (inside && !drawn) || (outside && drawn) {
+				t.Fatalf("photo pixel (%d, %d) at (%.2f, %.2f) undistorted: drawn %v", x, y, X, Y, drawn)
+			}
+		}
+	}
+}

@@ -107,8 +107,8 @@ func (g *GridValues) RasterOn(d *Deformation, width, height int, keep *region.Ma
 	x0, y0, x1, y1 := g.bounds(width, height)
 	x0, x1 = max(0, x0+int(math.Floor(umin))), min(width-1, x1+int(math.Ceil(umax)))
 	y0, y1 = max(0, y0+int(math.Floor(vmin))), min(height-1, y1+int(math.Ceil(vmax)))
-	if d.Lens != nil { // a photo pixel may show any field position
-		x0, y0, x1, y1 = 0, 0, width-1, height-1
+	if d.Lens != nil {
+		x0, y0, x1, y1 = d.photoBounds(x0, y0, x1, y1, width, height)
 	}
 	for y := y0; y <= y1; y++ {
 		gu, gv := (umin+umax)/2, (vmin+vmax)/2
@@ -142,6 +142,23 @@ func (g *GridValues) RasterOn(d *Deformation, width, height int, keep *region.Ma
 		}
 	}
 	return r, nil
+}
+
+// photoBounds returns the photo's pixel box that shows the field's box
+// x0…x1, y0…y1 through the lens: the box of its rim's distorted points
+// (a radial distortion's extremes lie on the rim), grown by 2 px.
+func (d *Deformation) photoBounds(x0, y0, x1, y1, width, height int) (int, int, int, int) {
+	lx, ly, hx, hy := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	const n = 32
+	for k := 0; k <= n; k++ {
+		f := float64(k) / n
+		ax, ay := float64(x0)+f*float64(x1-x0), float64(y0)+f*float64(y1-y0)
+		for _, p := range [4][2]float64{{ax, float64(y0)}, {ax, float64(y1)}, {float64(x0), ay}, {float64(x1), ay}} {
+			x, y := d.Lens.Distort(p[0], p[1])
+			lx, ly, hx, hy = math.Min(lx, x), math.Min(ly, y), math.Max(hx, x), math.Max(hy, y)
+		}
+	}
+	return max(0, int(math.Floor(lx))-2), max(0, int(math.Floor(ly))-2), min(width-1, int(math.Ceil(hx))+2), min(height-1, int(math.Ceil(hy))+2)
 }
 
 // finiteRange returns the smallest and largest finite values (NaN, NaN if
