@@ -54,7 +54,9 @@ func realCameraScenarios(t *testing.T) (ideal, real *synth.Scenario) {
 }
 
 // realCameraRun renders sc into dir/name and runs the job on it from a
-// YAML config as the run command does, with the extra keys.
+// YAML config as the run command does, with the extra keys. Both cameras'
+// configs name the plate, so that their grids agree point for point (the
+// ideal camera's plate measures no magnification, to its noise).
 func realCameraRun(t *testing.T, dir, name string, sc *synth.Scenario, extra string) (string, *Summary) {
 	t.Helper()
 	if _, err := synth.Write(sc, filepath.Join(dir, name), nil); err != nil {
