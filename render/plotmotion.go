@@ -60,6 +60,11 @@ func plotMagnification(r *runRecords) (Figure, bool, error) {
 		}
 		how += fmt.Sprintf("; dashed, its line against stress over the %d calibration frames, which the onset detection takes out of every point", b.Frames)
 	}
+	all := make([]plotter.XY, 0, len(pts))
+	for _, q := range pts {
+		all = append(all, q.XY)
+	}
+	legendAwayFrom(p, all)
 	floor := ""
 	if res := r.Resolution; res != nil && res.Frames > 0 {
 		f := 1e6 * (res.Exx + res.Eyy) / 2

@@ -204,3 +204,43 @@ func (triggerGlyph) DrawGlyph(c *draw.Canvas, sty draw.GlyphStyle, pt vg.Point) 
 	x.Line(vg.Point{X: pt.X + d, Y: pt.Y - d})
 	c.Stroke(x)
 }
+
+// legendAwayFrom puts p's legend in the corner of the data's bounding box
+// that holds the fewest of pts (each corner a box of 40 % of the width and
+// 30 % of the height, about what a two-line legend takes; counted over the
+// points of every series given), so that it covers as little of the
+// curves as it can: a curve that falls from the top left, as a loaded
+// face's apparent magnification does, would run under the default corner.
+// Ties go to top left, top right, bottom left, bottom right, in that order.
+func legendAwayFrom(p *plot.Plot, pts []plotter.XY) {
+	if len(pts) == 0 {
+		return
+	}
+	x0, x1, y0, y1 := pts[0].X, pts[0].X, pts[0].Y, pts[0].Y
+	for _, q := range pts {
+		x0, x1, y0, y1 = min(x0, q.X), max(x1, q.X), min(y0, q.Y), max(y1, q.Y)
+	}
+	w, h := 0.4*(x1-x0), 0.3*(y1-y0)
+	corners := []struct{ top, left bool }{{true, true}, {true, false}, {false, true}, {false, false}}
+	best, fewest := 0, len(pts)+1
+	for i, c := range corners {
+		n := 0
+		for _, q := range pts {
+			inX := (c.left && q.X <= x0+w) || (!c.left && q.X >= x1-w)
+			inY := (c.top && q.Y >= y1-h) || (!c.top && q.Y <= y0+h)
+			if inX && inY {
+				n++
+			}
+		}
+		if n < fewest {
+			best, fewest = i, n
+		}
+	}
+	p.Legend.Top, p.Legend.Left = corners[best].top, corners[best].left
+	if !p.Legend.Top {
+		p.Legend.YOffs = 4
+	}
+	if !p.Legend.Left {
+		p.Legend.XOffs = -6
+	}
+}
