@@ -19,20 +19,25 @@ func newDemoCmd() *cobra.Command {
 	var out string
 	cmd := &cobra.Command{
 		Use:   "demo",
-		Short: "Run the whole job on the built-in demo test (a synthetic block with one opening)",
+		Short: "Run the whole job on the built-in demo test (synthetic blocks with one and with twin openings)",
 		Long: `demo builds spallscope's own demo test with the synthetic speckle lab: a
 100 mm mortar-analogue block with a 24 mm circular opening, loaded vertically
 with lateral confinement to a peak of 32 MPa and beyond, with notches growing
-at both sidewalls, a crack from the crown and slabs spalling late in the test.
-Two cameras film it (front 512 px, back 384 px, mirrored, its own paint), and
-the test comes with the frame's load log, an acoustic-emission hit list (with
-a stretch where the recording stopped) and a model file (the elastic Kirsch
-solution at 8 MPa). It writes the test config OUT/demo.yaml and runs it like
-any test (spallscope run): both faces tracked and analysed, onsets of both on
-the load log's clock, the AE onset, the model held against the front face,
-overlays, video and the report OUT/run/report.html. It checks the measured
-displacements against the exact field. Everything is invented for the demo.
-A complete demo folder is reused; an interrupted one resumes.`,
+at both sidewalls, a crack from the crown and slabs spalling late in the test,
+stacked in the frame on a second block with twin 18 mm openings side by side,
+whose damage begins at the pillar walls between them and spreads. Two cameras
+film them (front 512 px, twin 384 px, its own paint), and the test comes with
+the frame's load log, an acoustic-emission hit list (with a stretch where the
+recording stopped) and a model file (the elastic Kirsch solution at 8 MPa). It
+writes the test config OUT/demo.yaml and runs it like any test (spallscope
+run): both faces tracked and analysed, onsets of both on the load log's clock,
+the AE onset, the model held against the front face, overlays, video and the
+report OUT/run/report.html. It checks the measured displacements against the
+exact field and prints, beside the onsets, the truth of every damage feature
+(sector, hidden start, and the first frame any method could report it at the
+face's own detection limit), also written to OUT/feature_truth.csv.
+Everything is invented for the demo. A complete demo folder is reused; an
+interrupted one resumes.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			start := time.Now()
@@ -62,10 +67,10 @@ A complete demo folder is reused; an interrupted one resumes.`,
 				return err
 			}
 			o := cmd.OutOrStdout()
-			front, back, truth := d.Front, d.Back, d.Truth
+			front, twin, truth := d.Front, d.Twin, d.Truth
 			peak := truth.Frames[front.Load.PeakFrame]
-			fmt.Fprintf(o, "demo test: two faces, %dx%d px (front) and %dx%d px (back), %d frames each; config %s\n",
-				front.Width, front.Height, back.Width, back.Height, front.Frames, d.Config)
+			fmt.Fprintf(o, "demo test: two faces, %dx%d px (front, one opening) and %dx%d px (twin, two openings), %d frames each; config %s\n",
+				front.Width, front.Height, twin.Width, twin.Height, front.Frames, d.Config)
 			fmt.Fprintf(o, "  load log: %s (peak %.1f MPa = %.0f kN at frame %s, t = %.0f s)\n",
 				filepath.Join(out, demo.FrontDir, synth.LoadLogCSV), peak.Stress, peak.Force, peak.Name, peak.Time)
 			fmt.Fprintf(o, "  front face: %d points per frame (%d px subsets, %d px step) in %s\n", check.Track.Grid.Len(), check.Track.Settings.Subset, check.Track.Settings.Step, frontDir)
@@ -76,6 +81,12 @@ A complete demo folder is reused; an interrupted one resumes.`,
 					r.Frames, r.U, 1000*r.UMM, r.Exx*1e6, r.Eyy*1e6, r.Eeq*1e6, r.VSG, r.VSGmm)
 			}
 			printFaces(cmd, runDir)
+			rows := d.TruthTable(func(face string) string { return filepath.Join(runDir, job.FacesDir, face) })
+			truthCSV := filepath.Join(out, demo.TruthCSV)
+			if err := demo.WriteTruthTable(truthCSV, rows); err != nil {
+				return err
+			}
+			printTruth(cmd, rows, truthCSV)
 			if sum.AE != nil && sum.AE.Onset != nil {
 				fmt.Fprintf(o, "  acoustic emission: %d hits, hit-rate onset at camera time %.1f s, %d gap(s) in the record\n", sum.AE.Hits, sum.AE.Onset.Time, len(sum.AE.Gaps))
 			}

@@ -27,14 +27,32 @@ func printFaces(cmd *cobra.Command, run string) {
 	o := cmd.OutOrStdout()
 	fmt.Fprintf(o, "  onsets of both faces on the load log's clock (UCS %.0f MPa, K = %.2f assumed for the context):\n", demo.UCS, demo.K)
 	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
-	fmt.Fprintln(w, "    face\tclass\tsector\tindicator\tframe\tlog_time_s\tstress_MPa\tpct_of_peak")
+	fmt.Fprintln(w, "    face\tclass\topening\tsector\tindicator\tframe\tlog_time_s\tstress_MPa\tpct_of_peak")
 	for _, on := range rep.Onsets {
-		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%.1f\t%.2f\t%.0f\n", on.Face, on.Class, on.Sector, on.Indicator, on.Name, on.LogTime, on.Stress, on.Percent)
+		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%s\t%.1f\t%.2f\t%.0f\n", on.Face, on.Class, on.OpeningName, on.Sector, on.Indicator, on.Name, on.LogTime, on.Stress, on.Percent)
 	}
 	w.Flush()
 	if f := rep.First; f != nil {
 		fmt.Fprintf(o, "  first onset over all faces: %s, %s at the %s, log time %.1f s, %.2f MPa (%.0f %% of peak)\n", f.Face, f.Class, f.Sector, f.LogTime, f.Stress, f.Percent)
 	}
+}
+
+// printTruth prints the truth table of the faces' damage features, to
+// read beside the onsets.
+func printTruth(cmd *cobra.Command, rows []demo.TruthRow, path string) {
+	o := cmd.OutOrStdout()
+	fmt.Fprintf(o, "  truth of the damage features (the earliest frame any method could report each: its own γmax over the VSG above the face's detection limit), in %s:\n", path)
+	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
+	fmt.Fprintln(w, "    face\tfeature\topening\tsector\twall\thidden_start\tdetectable\tstress_MPa\tlimit_µε\tVSG_px")
+	for _, r := range rows {
+		src := ""
+		if !r.LimitFromRun {
+			src = " (nominal)"
+		}
+		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%s\t%s\t%.2f\t%.0f%s\t%d\n", r.Face, r.Feature, r.Opening, r.Sector, r.Wall,
+			r.HiddenName, r.DetectableName, r.DetectableStress, r.Limit*1e6, src, r.VSG)
+	}
+	w.Flush()
 }
 
 // printModel prints the model comparison's summary, if there is one.

@@ -38,8 +38,9 @@ area; no reference bitmap is interpolated.
 
 Fields (--field):
 ` + kinds.String() + `
-For anything richer (several fields, openings, spalling, a load history) write
-the scenario as JSON: --print-spec prints the scenario the flags describe, to
+For anything richer (several fields, openings, spalling, a load history; also
+"notch" — a V of two bands from one apex — and "kirsch_pair" — twin openings
+as two superposed Kirsch fields) write the scenario as JSON: --print-spec prints the scenario the flags describe, to
 edit and pass back with --spec. The demo scenario is 'spallscope demo'.
 
 A real camera: the scenario's "lens" (fx_px, fy_px, cx_px, cy_px, k1, k2, k3,
@@ -54,7 +55,11 @@ the same camera at poses that cover the frame, for calibrate:
 Output folder:
   frames/<name>.png   frames; frame 0 is the undeformed reference
   truth/<name>.csv    exact x,y,u,v,dudx,dudy,dvdx,dvdy,material on a grid (px)
-  truth.json          scenario, and each frame's time, stress and force
+  truth.json          scenario, each frame's time, stress and force, and each
+                      damage feature's truth ("features": band, crack, notch,
+                      spall; its opening and sector, hidden_start_frame,
+                      detectable_frame at "detection" {vsg_px, limit}, and
+                      its own γmax per frame, pointwise and over the VSG)
   loadlog.csv         time_s,force_kN,stroke_mm on the test frame's clock
 
 Units: px for lengths in the image, MPa for stresses (compression positive as

@@ -32,6 +32,8 @@ type FieldSpec struct {
 	SineSweep   *SineSweep     `json:"sine_sweep,omitempty"`
 	Crack       *Crack         `json:"crack,omitempty"`
 	Band        *ShearBand     `json:"band,omitempty"`
+	Notch       *Notch         `json:"notch,omitempty"`
+	KirschPair  *KirschPair    `json:"kirsch_pair,omitempty"`
 	Disc        *BrazilianDisc `json:"brazilian_disc,omitempty"`
 	Drive       Drive          `json:"drive"`
 	StartFrame  int            `json:"start_frame,omitempty"`
@@ -45,6 +47,7 @@ func (f FieldSpec) Kind() string {
 		"translation": f.Translation != nil, "rotation": f.Rotation != nil,
 		"strain": f.Strain != nil, "kirsch": f.Kirsch != nil,
 		"sine_sweep": f.SineSweep != nil, "crack": f.Crack != nil, "band": f.Band != nil,
+		"notch": f.Notch != nil, "kirsch_pair": f.KirschPair != nil,
 		"brazilian_disc": f.Disc != nil,
 	} {
 		if set {
@@ -73,6 +76,10 @@ func (f FieldSpec) scalable() Scalable {
 		return *f.Crack
 	case f.Band != nil:
 		return *f.Band
+	case f.Notch != nil:
+		return *f.Notch
+	case f.KirschPair != nil:
+		return *f.KirschPair
 	case f.Disc != nil:
 		return *f.Disc
 	}
@@ -149,6 +156,10 @@ type Scenario struct {
 	// stay in its ideal pixels (see lens.Model). Its image size may be left
 	// out (zero): it is the scenario's.
 	Lens *lens.Model `json:"lens,omitempty"`
+	// Detection is the VSG and detection limit the truth file's damage
+	// features are stated for (FeatureTruth; default DefaultDetection,
+	// its VSG capped below the image's smaller side).
+	Detection *Detection `json:"detection,omitempty"`
 	// Targets, if set, asks for chessboard photos through the lens for
 	// calibration, written beside the frames (needs Lens).
 	Targets *Targets `json:"targets,omitempty"`
@@ -188,7 +199,7 @@ func (sc *Scenario) Validate() error {
 	}
 	for i, f := range sc.Fields {
 		if f.Kind() == "" {
-			errs = append(errs, fmt.Errorf("fields[%d]: set exactly one of translation, rotation, strain, kirsch, sine_sweep, crack, band, brazilian_disc", i))
+			errs = append(errs, fmt.Errorf("fields[%d]: set exactly one of translation, rotation, strain, kirsch, kirsch_pair, sine_sweep, crack, band, notch, brazilian_disc", i))
 		}
 		switch f.Drive {
 		case DriveLoad, DriveRamp:
@@ -201,6 +212,11 @@ func (sc *Scenario) Validate() error {
 		}
 		if k := f.Kirsch; k != nil && (!(k.Radius > 0) || !(k.E > 0) || k.Nu < 0 || k.Nu >= 0.5) {
 			errs = append(errs, fmt.Errorf("fields[%d]: kirsch needs radius > 0, E > 0 and 0 ≤ ν < 0.5", i))
+		}
+		if p := f.KirschPair; p != nil {
+			if err := p.Validate(); err != nil {
+				errs = append(errs, fmt.Errorf("fields[%d]: kirsch_pair: %w", i, err))
+			}
 		}
 		if d := f.Disc; d != nil && (!(d.Radius > 0) || !(d.Thickness > 0) || !(d.MMPerPx > 0) || !(d.E > 0) || d.Nu < 0 || d.Nu >= 0.5) {
 			errs = append(errs, fmt.Errorf("fields[%d]: brazilian_disc needs radius, thickness, mm_per_px and E > 0 and 0 ≤ ν < 0.5", i))
@@ -237,12 +253,26 @@ func (sc *Scenario) Validate() error {
 			errs = append(errs, fmt.Errorf("targets: %w", err))
 		}
 	}
+	if d := sc.Detection; d != nil && (d.VSG < 2 || d.VSG >= min(sc.Width, sc.Height) || !(d.Limit > 0)) {
+		errs = append(errs, fmt.Errorf("detection: VSG %d px and limit %g, expected 2 px up to less than the image's smaller side and a positive strain", d.VSG, d.Limit))
+	}
 	switch sc.Format {
 	case "", "png", "tif":
 	default:
 		errs = append(errs, fmt.Errorf("format %q, expected png or tif", sc.Format))
 	}
 	return errors.Join(errs...)
+}
+
+// DetectionOrDefault returns the scenario's Detection, or
+// DefaultDetection with its VSG capped below the image's smaller side.
+func (sc *Scenario) DetectionOrDefault() Detection {
+	if sc.Detection != nil {
+		return *sc.Detection
+	}
+	d := DefaultDetection
+	d.VSG = max(2, min(d.VSG, min(sc.Width, sc.Height)-1))
+	return d
 }
 
 // Time returns the camera time of a frame in s.

@@ -39,6 +39,14 @@ type Truth struct {
 	Scenario  Scenario     `json:"scenario"`
 	Frames    []FrameTruth `json:"frames"`
 	LoadLog   string       `json:"load_log"`
+	// Detection and Features are the truth of every damage feature (band,
+	// crack, notch, spalled patch): hidden start, detectable frame at
+	// Detection's VSG and limit, place (opening, sector) and the
+	// feature's own γmax per frame, pointwise and over the VSG (see
+	// FeatureTruth; FirstAbove gives the detectable frame for another
+	// limit).
+	Detection Detection      `json:"detection"`
+	Features  []FeatureTruth `json:"features,omitempty"`
 	// Targets lists the chessboard photos, when the scenario asks for them.
 	Targets []TargetTruth `json:"targets,omitempty"`
 }
@@ -56,7 +64,8 @@ const (
 //
 //	dir/frames/<name>.png       the frames (frame 0 is the reference)
 //	dir/truth/<name>.csv        x,y,u,v,dudx,dudy,dvdx,dvdy,material
-//	dir/truth.json              scenario and per-frame time, stress, force
+//	dir/truth.json              scenario, per-frame time, stress, force, and the
+//	                            damage features' truth (Truth.Features)
 //	dir/loadlog.csv             time_s,force_kN,stroke_mm on the log's clock
 //	dir/targets/target_NN.png   chessboard photos through the lens (Targets)
 //	dir/lens_truth.json         the lens as a lens file, with the targets' poses
@@ -88,7 +97,10 @@ func Write(sc *Scenario, dir string, progress func(done, total int)) (*Truth, er
 	if ext == "" {
 		ext = "png"
 	}
-	truth := &Truth{Generator: Generator, Scenario: *sc, LoadLog: LoadLogCSV}
+	truth := &Truth{Generator: Generator, Scenario: *sc, LoadLog: LoadLogCSV, Detection: sc.DetectionOrDefault()}
+	if truth.Features, err = sc.FeatureTruth(truth.Detection.VSG, truth.Detection.Limit); err != nil {
+		return nil, fmt.Errorf("scenario %q: %w", sc.Name, err)
+	}
 	var reference *subset.Image // unrecorded exposure of frame 0, for Fourier translation
 	for f := 0; f < sc.Frames; f++ {
 		field := sc.FieldAt(f)

@@ -92,6 +92,9 @@ func TestLoadCurve(t *testing.T) {
 	if err := sc.Validate(); err != nil {
 		t.Fatal(err)
 	}
+	if err := DemoTwin().Validate(); err != nil {
+		t.Fatal(err)
+	}
 	p := sc.Load.PeakFrame
 	if s := sc.Stress(p); math.Abs(s-32) > 1e-12 {
 		t.Errorf("peak stress %g, want 32", s)
@@ -107,6 +110,45 @@ func TestLoadCurve(t *testing.T) {
 	for f := sc.Load.StartFrame + 2; f < sc.Frames; f++ {
 		if (f <= p) != (sc.Stress(f) > sc.Stress(f-1)) {
 			t.Errorf("frame %d: stress %g after %g, rising until %d", f, sc.Stress(f), sc.Stress(f-1), p)
+		}
+	}
+}
+
+// The truth file carries the damage features' truth as the API computes
+// it (the same numbers after a JSON round trip), at the scenario's
+// detection.
+func TestWriteFeatureTruth(t *testing.T) {
+	n := Notch{X0: 44, Y0: 32, X1: 60, Y1: 24, X2: 60, Y2: 40, Slip: 0.8, HalfWidth: 2}
+	sc := &Scenario{
+		Name: "n", Width: 64, Height: 64, Frames: 5, FPS: 1,
+		Pattern:   Pattern{Radius: 2, Coverage: 0.5, Seed: 3},
+		Camera:    Camera{Depth: 8, Noise: 1},
+		Openings:  []Opening{Circle(32, 32, 12)},
+		Fields:    []FieldSpec{{Notch: &n, Drive: DriveGrowth, StartFrame: 1, FullFrame: 4}},
+		Detection: &Detection{VSG: 16, Limit: 0.004},
+	}
+	dir := t.TempDir()
+	if _, err := Write(sc, dir, nil); err != nil {
+		t.Fatal(err)
+	}
+	back, err := ReadTruth(filepath.Join(dir, TruthFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, err := sc.FeatureTruth(16, 0.004)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if back.Detection != *sc.Detection || len(back.Features) != 1 {
+		t.Fatalf("truth detection %+v, %d features; want %+v, 1", back.Detection, len(back.Features), *sc.Detection)
+	}
+	got, w := back.Features[0], want[0]
+	if got.Feature != "notch 0" || got.HiddenStart != 2 || got.DetectableFrame != w.DetectableFrame || got.Sector != w.Sector {
+		t.Errorf("file: %s hidden %d detectable %d %s; API: hidden 2 detectable %d %s", got.Feature, got.HiddenStart, got.DetectableFrame, got.Sector, w.DetectableFrame, w.Sector)
+	}
+	for f := range w.VSGGamma {
+		if got.VSGGamma[f] != w.VSGGamma[f] || got.MaxGamma[f] != w.MaxGamma[f] {
+			t.Errorf("frame %d: file γ %g/%g, API %g/%g", f, got.VSGGamma[f], got.MaxGamma[f], w.VSGGamma[f], w.MaxGamma[f])
 		}
 	}
 }

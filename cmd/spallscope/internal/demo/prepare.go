@@ -11,13 +11,14 @@ import (
 	"spallscope/dic/synth"
 )
 
-// Demo is a demo folder made ready to run: its scenarios, the front
-// face's truth and its test config.
+// Demo is a demo folder made ready to run: its scenarios, the faces'
+// truth and its test config.
 type Demo struct {
 	Dir         string
-	Front, Back *synth.Scenario
+	Front, Twin *synth.Scenario
 	Truth       *synth.Truth // the front face's
-	Config      string       // the test config file
+	TwinTruth   *synth.Truth
+	Config      string // the test config file
 	// Notes say what was reused.
 	Notes []string
 }
@@ -27,13 +28,13 @@ type Demo struct {
 // the AE hits, the model file and the test config, and returns the demo.
 // render gives the progress reporter of a face's rendering.
 func Prepare(dir string, render func(face string) func(done, total int)) (*Demo, error) {
-	d := &Demo{Dir: dir, Front: synth.DemoBlock(), Back: synth.DemoBack()}
+	d := &Demo{Dir: dir, Front: synth.DemoBlock(), Twin: synth.DemoTwin()}
 	front := filepath.Join(dir, FrontDir)
 	var err error
 	if d.Truth, err = d.renderFace(d.Front, front, render); err != nil {
 		return nil, err
 	}
-	if _, err := d.renderFace(d.Back, filepath.Join(dir, BackDir), render); err != nil {
+	if d.TwinTruth, err = d.renderFace(d.Twin, filepath.Join(dir, TwinDir), render); err != nil {
 		return nil, err
 	}
 	if err := synth.WriteDemoAE(filepath.Join(front, AEFile), d.Front); err != nil {
@@ -44,7 +45,7 @@ func Prepare(dir string, render func(face string) func(done, total int)) (*Demo,
 	if err := synth.WriteKirschModel(filepath.Join(front, ModelFile), k, d.Front.Specimen.MMPerPx, 48, 1); err != nil {
 		return nil, err
 	}
-	data, err := config.Marshal(Config(d.Front, d.Back))
+	data, err := config.Marshal(Config(d.Front, d.Twin))
 	if err != nil {
 		return nil, err
 	}

@@ -11,11 +11,18 @@ const (
 // solution), held against the front face's measurement.
 const ModelMPa = 8.0
 
+// The faces' names in the test config.
+const (
+	FrontFace = "front"
+	TwinFace  = "twin"
+)
+
 // File and folder names of a demo folder.
 const (
 	ConfigFile = "demo.yaml"
 	FrontDir   = "synth" // the front face's photos, load log, AE hits and model
-	BackDir    = "back"
+	TwinDir    = "twin"  // the twin-opening block's photos
+	TruthCSV   = "feature_truth.csv"
 	RunDir     = "run"
 	AEFile     = "ae_hits.csv"
 	ModelFile  = "model.csv"

@@ -1,0 +1,121 @@
+package demo
+
+import (
+	"bufio"
+	"encoding/csv"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strconv"
+
+	"spallscope/dic/runfolder"
+	"spallscope/dic/synth"
+	"spallscope/strain"
+	"spallscope/strain/strainfile"
+)
+
+// TruthRow is one line of the demo's truth table: a damage feature of a
+// face, where it starts, when it starts (its hidden start) and the first
+// frame at which any method could report it (synth.FeatureTruth).
+type TruthRow struct {
+	Face    string
+	Feature string
+	Kind    string
+	Opening string // the config's name of its opening, "-" for none
+	Sector  string
+	Wall    string // in a pillar, the pillar's wall of that opening
+	// HiddenStart and Detectable are frame indices (Detectable −1:
+	// never), with their frames' names.
+	HiddenStart, Detectable        int
+	HiddenName, DetectableName     string
+	VSG                            int
+	Limit                          float64 // the γmax limit applied
+	LimitFromRun                   bool    // the face run's own limit, not the truth file's nominal one
+	HiddenStress, DetectableStress float64 // nominal stress at those frames, MPa
+}
+
+// TruthTable returns the truth rows of both faces. A feature's detectable
+// frame is taken at its face's own detection limit in γmax — the noise
+// floor × K of the run in faceDir(face), from its onset.json — over the
+// truth's VSG (strain window × step); without that, at the truth file's
+// nominal limit.
+func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
+	var rows []TruthRow
+	for _, f := range []struct {
+		name  string
+		sc    *synth.Scenario
+		truth *synth.Truth
+	}{{FrontFace, d.Front, d.Truth}, {TwinFace, d.Twin, d.TwinTruth}} {
+		if f.truth == nil {
+			continue
+		}
+		limit, fromRun := f.truth.Detection.Limit, false
+		if l, ok := runLimit(faceDir(f.name)); ok {
+			limit, fromRun = l, true
+		}
+		name := func(i int) string {
+			if i < 0 || i >= f.sc.Frames {
+				return "never"
+			}
+			return f.sc.FrameName(i)
+		}
+		stress := func(i int) float64 {
+			if i < 0 {
+				return 0
+			}
+			return f.sc.Stress(i)
+		}
+		for _, ft := range f.truth.Features {
+			det := ft.FirstAbove(limit)
+			rows = append(rows, TruthRow{Face: f.name, Feature: ft.Feature, Kind: ft.Kind, Opening: OpeningName(ft.Opening),
+				Sector: string(ft.Sector), Wall: string(ft.Wall), HiddenStart: ft.HiddenStart, Detectable: det,
+				HiddenName: name(ft.HiddenStart), DetectableName: name(det), VSG: ft.VSG, Limit: limit, LimitFromRun: fromRun,
+				HiddenStress: stress(ft.HiddenStart), DetectableStress: stress(det)})
+		}
+	}
+	return rows
+}
+
+// runLimit reads the γmax detection limit of the run in dir.
+func runLimit(dir string) (float64, bool) {
+	data, err := os.ReadFile(filepath.Join(dir, strainfile.OnsetJSON))
+	if err != nil {
+		return 0, false
+	}
+	var rep struct {
+		Limits []strainfile.DetectionLimit `json:"detection_limits"`
+	}
+	if json.Unmarshal(data, &rep) != nil {
+		return 0, false
+	}
+	for _, l := range rep.Limits {
+		if l.Indicator == strain.MaxShear && l.Strain > 0 {
+			return l.Strain, true
+		}
+	}
+	return 0, false
+}
+
+// WriteTruthTable writes the rows as CSV (atomically): face, feature,
+// kind, opening, sector, wall, hidden_start_frame, hidden_start_name,
+// hidden_start_stress_MPa, detectable_frame (−1: never), detectable_name,
+// detectable_stress_MPa, vsg_px, limit_gamma_max, limit_source (run or
+// nominal).
+func WriteTruthTable(path string, rows []TruthRow) error {
+	return runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
+		cw := csv.NewWriter(w)
+		cw.Write([]string{"face", "feature", "kind", "opening", "sector", "wall", "hidden_start_frame", "hidden_start_name",
+			"hidden_start_stress_MPa", "detectable_frame", "detectable_name", "detectable_stress_MPa", "vsg_px", "limit_gamma_max", "limit_source"})
+		f := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
+		for _, r := range rows {
+			src := "nominal"
+			if r.LimitFromRun {
+				src = "run"
+			}
+			cw.Write([]string{r.Face, r.Feature, r.Kind, r.Opening, r.Sector, r.Wall, strconv.Itoa(r.HiddenStart), r.HiddenName,
+				f(r.HiddenStress), strconv.Itoa(r.Detectable), r.DetectableName, f(r.DetectableStress), strconv.Itoa(r.VSG), f(r.Limit), src})
+		}
+		cw.Flush()
+		return cw.Error()
+	})
+}
