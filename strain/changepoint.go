@@ -167,6 +167,38 @@ type DriftChange struct {
 	// Level and Slope are the drift line's α and β (per MPa).
 	Level, Slope float64
 	stress       []float64
+	prior        Prior
+}
+
+// Prior is the precision (inverse covariance, in units of the signal's
+// noise) of the drift line's α and β before the signal is seen: the
+// baseline's own error is that of a line fitted over the calibration
+// frames, so its precision is the information matrix of that fit, Σ over
+// the calibration frames of (1, σ_k)ᵀ(1, σ_k) (for unit noise; Bayesian
+// linear regression with a Gaussian prior, e.g. Gelman et al. 2013,
+// Bayesian Data Analysis, 3rd ed., §14.8). It keeps the drift from
+// absorbing a real change that grows with the load; zero is no prior.
+type Prior [2][2]float64
+
+// CalibrationPrior is the Prior of a baseline fitted over the frames k
+// with calibration[k], at stress[k].
+func CalibrationPrior(stress []float64, calibration []bool) Prior {
+	var p Prior
+	for k, c := range calibration {
+		if c && k < len(stress) {
+			s := stress[k]
+			p[0][0]++
+			p[0][1] += s
+			p[1][0] += s
+			p[1][1] += s * s
+		}
+	}
+	return p
+}
+
+// penalty is θᵀPθ for the line (α, β).
+func (p Prior) penalty(a, b float64) float64 {
+	return a*(p[0][0]*a+p[0][1]*b) + b*(p[1][0]*a+p[1][1]*b)
 }
 
 // EstimateDriftChange is EstimateChange for a signal whose pre-change
@@ -187,14 +219,14 @@ type DriftChange struct {
 // onset right after calibration; one whose first phase is a line in the
 // stress absorbs it. Without a spread of stresses (stress nil, or no two
 // frames at different stresses) it is EstimateChange.
-func EstimateDriftChange(z, stress []float64, from, to int) (DriftChange, bool) {
+func EstimateDriftChange(z, stress []float64, prior Prior, from, to int) (DriftChange, bool) {
 	if !spreadOut(stress, len(z)) {
 		c, ok := EstimateChange(z, from, to)
 		return DriftChange{ChangePoint: c}, ok
 	}
 	n := len(z)
 	from, to = max(from, 1), min(to, n-1)
-	_, rss0 := fitLine(z, stress, n)
+	_, rss0 := fitLine(z, stress, prior, n)
 	var best DriftChange
 	found := false
 	g := make([]float64, n)
@@ -206,14 +238,14 @@ func EstimateDriftChange(z, stress []float64, from, to int) (DriftChange, bool) 
 					g[k] = model.shape(float64(k - m + 1))
 				}
 			}
-			coef, rss, ok := fitThree(z, stress, g)
+			coef, rss, ok := fitThree(z, stress, g, prior)
 			if !ok || coef[2] <= 0 {
 				continue
 			}
 			stat := (rss0 - rss) / 2
 			if !found || stat > best.LogLik {
 				best = DriftChange{ChangePoint: ChangePoint{Model: model, Onset: m, Size: coef[2], LogLik: stat},
-					Level: coef[0], Slope: coef[1], stress: stress}
+					Level: coef[0], Slope: coef[1], stress: stress, prior: prior}
 				found = true
 			}
 		}
@@ -235,23 +267,26 @@ func spreadOut(stress []float64, n int) bool {
 }
 
 // fitLine fits z_k = α + β·s_k over the first n frames by least squares
-// and returns the coefficients and the residual sum of squares.
-func fitLine(z, s []float64, n int) ([2]float64, float64) {
-	var sw, ss, sss, sz, ssz float64
+// with the prior's penalty and returns the coefficients and the penalised
+// residual sum of squares.
+func fitLine(z, s []float64, prior Prior, n int) ([2]float64, float64) {
+	var sz, ssz float64
+	a := prior
 	for k := range n {
-		sw++
-		ss += s[k]
-		sss += s[k] * s[k]
+		a[0][0]++
+		a[0][1] += s[k]
+		a[1][0] += s[k]
+		a[1][1] += s[k] * s[k]
 		sz += z[k]
 		ssz += s[k] * z[k]
 	}
-	det := sw*sss - ss*ss
+	det := a[0][0]*a[1][1] - a[0][1]*a[1][0]
 	var c [2]float64
 	if det > 0 {
-		c[1] = (sw*ssz - ss*sz) / det
+		c[0] = (a[1][1]*sz - a[0][1]*ssz) / det
+		c[1] = (a[0][0]*ssz - a[1][0]*sz) / det
 	}
-	c[0] = (sz - c[1]*ss) / sw
-	var rss float64
+	rss := prior.penalty(c[0], c[1])
 	for k := range n {
 		r := z[k] - c[0] - c[1]*s[k]
 		rss += r * r
@@ -259,11 +294,17 @@ func fitLine(z, s []float64, n int) ([2]float64, float64) {
 	return c, rss
 }
 
-// fitThree fits z_k = c0 + c1·s_k + c2·g_k by least squares (normal
-// equations, solved by Cramer's rule) and returns the coefficients and
-// the residual sum of squares; false when the design is singular.
-func fitThree(z, s, g []float64) ([3]float64, float64, bool) {
+// fitThree fits z_k = c0 + c1·s_k + c2·g_k by least squares with the
+// prior's penalty on (c0, c1) (normal equations, solved by Cramer's rule)
+// and returns the coefficients and the penalised residual sum of squares;
+// false when the design is singular.
+func fitThree(z, s, g []float64, prior Prior) ([3]float64, float64, bool) {
 	var a [3][3]float64
+	for i := range 2 {
+		for j := range 2 {
+			a[i][j] = prior[i][j]
+		}
+	}
 	var b [3]float64
 	for k := range z {
 		x := [3]float64{1, s[k], g[k]}
@@ -287,7 +328,7 @@ func fitThree(z, s, g []float64) ([3]float64, float64, bool) {
 		}
 		c[col] = det3(m) / det
 	}
-	var rss float64
+	rss := prior.penalty(c[0], c[1])
 	for k := range z {
 		r := z[k] - c[0] - c[1]*s[k] - c[2]*g[k]
 		rss += r * r
