@@ -19,6 +19,11 @@ import (
 // χ²₁/2, whose tail beyond 10 is under 1e-5).
 const MinLogLik = 10
 
+// decorrelatedCell is the reference value of the CUSUM that dates a
+// decorrelation onset: half a lost point (a cell's decorrelation value is
+// 1 when it is lost, see OnsetHistory).
+const decorrelatedCell = 0.5
+
 // Confidence is the confidence of every onset interval.
 const Confidence = 0.95
 
@@ -188,7 +193,9 @@ func (d *Dating) Add(fr Frame) {
 // place of the noisy excess that is its first frame above the limit. So a
 // slow systematic drift below the limit, or a change that only becomes
 // visible later, cannot drag the onset into frames where nothing could be
-// seen. Decorrelation, whose rule is per point, keeps the change point.
+// seen. For decorrelation, whose rule is per point, the reference is
+// decorrelatedCell: the onset is the first frame from which the zone's
+// strongest cell stays lost (or far below the ZNCC limit).
 func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 	lastCalib := 0
 	for k, c := range calibration {
@@ -232,8 +239,12 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 			}
 			if ok {
 				peakCell := d.peakSeries(k, c, stress, n)
+				limit := iv.Limit
+				if o.Indicator == Decorrelation {
+					limit = decorrelatedCell
+				}
 				est := func(c DriftChange, y []float64) int {
-					return detectable(c, y, stress, iv.Limit, trigger)
+					return detectable(c, y, stress, limit, trigger)
 				}
 				at, change = est(c, peakCell), c.Onset
 				// Where the fit's residuals are wider than the
@@ -265,10 +276,10 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 // strain: of the zone's cells, the one whose own fitted change (change c's
 // shape and onset over a line in the stress, see changeAmplitude) is the
 // largest, less the median of the ring around the zone in each frame (nil
-// for decorrelation or without cells). A frame where a cell has no value
+// without cells). A frame where a cell has no value
 // takes the previous frame's.
 func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, n int) []float64 {
-	if d.onsets[k].Indicator == Decorrelation || len(d.cells[k]) == 0 {
+	if len(d.cells[k]) == 0 {
 		return nil
 	}
 	ring := make([]float64, n)
