@@ -161,3 +161,74 @@ func TestChangeOnNoise(t *testing.T) {
 		t.Errorf("%d of 200 noise signals gave a log LR above 8", big)
 	}
 }
+
+// On pure noise (unit Gaussian, 40 frames, the first 8 calibrating a
+// baseline at stresses 0 to 7 MPa, then a ramp to 40 MPa) the best
+// drift-change log likelihood ratio stays below MinLogLik in at least 99 %
+// of 300 draws: a maximum over about 90 onsets and models of ratios that
+// are each χ²₁/2 at most (tail beyond 10 under 1e-5 each; Hinkley 1970
+// for the step), so a noise trigger gives no onset.
+func TestDriftChangeOnNoise(t *testing.T) {
+	rng := rand.New(rand.NewPCG(17, 18))
+	const n = 40
+	stress := make([]float64, n)
+	calib := make([]bool, n)
+	for k := range stress {
+		stress[k] = float64(k)
+		calib[k] = k < 8
+	}
+	prior := CalibrationPrior(stress, calib)
+	big := 0
+	z := make([]float64, n)
+	for range 300 {
+		for k := range z {
+			z[k] = rng.NormFloat64()
+		}
+		if c, ok := EstimateDriftChange(z, stress, prior, 8, n-1); ok && c.LogLik >= MinLogLik {
+			big++
+		}
+	}
+	t.Logf("noise: %d of 300 at or above %d", big, MinLogLik)
+	if big > 3 {
+		t.Errorf("%d of 300 noise signals gave a log LR of at least %d", big, MinLogLik)
+	}
+}
+
+// A kink in a drifting signal: z = 0.05·σ (a drift of the baseline's size)
+// plus a slope of 0.8 per frame from frame 25, unit noise: the drift
+// change point is within 2 frames of 25 in at least 80 % of 100 draws,
+// where the change point without the drift line is pulled early in more
+// than half of them (common
+// practice, no source: the drift line is the first phase of a two-phase
+// regression, Hinkley 1969).
+func TestDriftChangeAbsorbsDrift(t *testing.T) {
+	rng := rand.New(rand.NewPCG(21, 22))
+	const n, onset = 40, 25
+	stress := make([]float64, n)
+	calib := make([]bool, n)
+	for k := range stress {
+		stress[k] = float64(k)
+		calib[k] = k < 8
+	}
+	prior := CalibrationPrior(stress, calib)
+	near, early := 0, 0
+	z := make([]float64, n)
+	for range 100 {
+		for k := range z {
+			z[k] = 0.05*stress[k] + rng.NormFloat64()
+			if k >= onset {
+				z[k] += 0.8 * float64(k-onset+1)
+			}
+		}
+		if c, ok := EstimateDriftChange(z, stress, prior, 8, n-1); ok && c.Onset >= onset-2 && c.Onset <= onset+2 {
+			near++
+		}
+		if c, ok := EstimateChange(z, 8, n-1); ok && c.Onset < onset-2 {
+			early++
+		}
+	}
+	t.Logf("drift change within 2 frames: %d of 100; plain change early: %d of 100", near, early)
+	if near < 80 || early < 50 {
+		t.Errorf("drift change point within 2 frames of %d in %d of 100 draws, want at least 80; plain change point early in %d, want at least 50", onset, near, early)
+	}
+}

@@ -3,12 +3,26 @@ package strain
 import (
 	"hash/fnv"
 	"math"
+	"math/rand/v2"
 	"slices"
 
 	"gonum.org/v1/gonum/stat"
 
 	"spallscope/dic"
 )
+
+// MinLogLik is the least log likelihood ratio of a zone's change for its
+// onset to count: a trigger whose zone history shows no change that noise
+// could not give is noise, and no onset. On pure noise the ratio of the
+// best of the drift-change models stays below 10 in at least 99 % of the
+// draws (TestDriftChangeOnNoise; for one onset and one model the ratio is
+// χ²₁/2, whose tail beyond 10 is under 1e-5).
+const MinLogLik = 10
+
+// decorrelatedCell is the reference value of the CUSUM that dates a
+// decorrelation onset: half a lost point (a cell's decorrelation value is
+// 1 when it is lost, see OnsetHistory).
+const decorrelatedCell = 0.5
 
 // Confidence is the confidence of every onset interval.
 const Confidence = 0.95
@@ -33,6 +47,13 @@ type OnsetInterval struct {
 	StressHi   float64     `json:"stress_hi_MPa"`
 	// LogLik is the change's log likelihood ratio against no change.
 	LogLik float64 `json:"log_likelihood_ratio"`
+	// ChangeFrame is the change point: the estimated first frame of the
+	// zone's signal, at or before the onset, which is the first frame
+	// from there at which the change reaches Limit.
+	ChangeFrame int `json:"change_frame_index"`
+	// Limit is the detection limit the onset was held to (the indicator's
+	// noise floor, strain); 0 for decorrelation.
+	Limit float64 `json:"detection_limit"`
 }
 
 // OnsetHistory is a confirmed zone's indicator frame by frame, up to the
@@ -157,6 +178,24 @@ func (d *Dating) Add(fr Frame) {
 // baseline; an onset whose trigger lies there, or at the reference frame,
 // is dropped: nothing can begin before the rock is known to be elastic.
 // peak is the peak stress for the percent-of-peak figure.
+//
+// The onset is the first frame at which the zone's damage is detectable:
+// its change point (EstimateDriftChange on the zone's normalised signal,
+// over the frames after calibration up to the trigger) says when the
+// signal began, and the onset is the first frame from there at which the
+// fitted change, at the zone's strongest cell, reaches the indicator's
+// detection limit (its noise floor, Finder.Floor). A change in the mean
+// smaller than the limit is no onset however long it lasts: this is the
+// rule of Page's CUSUM with its reference value at the limit (Page 1954,
+// "Continuous inspection schemes", Biometrika 41, 100–115), whose
+// estimate of the change time is the last frame at which the cumulative
+// sum of the excess over the reference was zero; with the fitted change in
+// place of the noisy excess that is its first frame above the limit. So a
+// slow systematic drift below the limit, or a change that only becomes
+// visible later, cannot drag the onset into frames where nothing could be
+// seen. For decorrelation, whose rule is per point, the reference is
+// decorrelatedCell: the onset is the first frame from which the zone's
+// strongest cell stays lost (or far below the ZNCC limit).
 func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 	lastCalib := 0
 	for k, c := range calibration {
@@ -175,19 +214,45 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 			continue
 		}
 		o.TriggerFrame, o.TriggerName = o.Frame, o.Name
+		tf := d.frames[trigger]
+		o.TriggerTime, o.TriggerStress = tf.Time, tf.Stress
 		end := min(len(d.frames)-1, trigger+d.f.cfg.Persistence-1)
-		z := d.signal(k, calibration, end+1)
+		n := end + 1
+		z := d.signal(k, calibration, n)
 		from := lastCalib + 1
-		at := trigger
-		iv := OnsetInterval{Confidence: Confidence, Method: "maximum-likelihood change point, parametric bootstrap", FirstFrame: trigger, LastFrame: trigger}
+		at, change := trigger, trigger
+		iv := OnsetInterval{Confidence: Confidence, Method: "maximum-likelihood change point over an elastic drift, first frame at the detection limit, parametric bootstrap",
+			FirstFrame: trigger, LastFrame: trigger}
+		limit := d.f.floor[o.Indicator]
+		if o.Indicator != Decorrelation && limit > 0 {
+			iv.Limit = limit
+		}
 		if z != nil {
-			if c, ok := EstimateChange(z, from, trigger); ok {
+			stress := make([]float64, n)
+			for f := range n {
+				stress[f] = d.frames[f].Stress
+			}
+			prior := CalibrationPrior(stress, calibration)
+			c, ok := EstimateDriftChange(z, stress, prior, from, trigger)
+			if ok && c.LogLik < MinLogLik {
+				continue // no change noise could not give: a noise trigger
+			}
+			if ok {
+				peakCell := d.peakSeries(k, c, stress, n)
+				limit := iv.Limit
+				if o.Indicator == Decorrelation {
+					limit = decorrelatedCell
+				}
+				est := func(c DriftChange, y []float64) int {
+					return detectable(c, y, stress, limit, trigger)
+				}
+				at, change = est(c, peakCell), c.Onset
 				// Where the fit's residuals are wider than the
-				// normalisation says, the interval takes their width.
+				// normalisation says, the bootstrap takes their width.
 				sigma := math.Max(1, c.ResidualSigma(z))
-				lo, hi := c.Interval(len(z), from, trigger, sigma, Confidence, bootstrapDraws, seedOf(o))
-				at, iv.Model, iv.LogLik = c.Onset, c.Model, c.LogLik
-				iv.FirstFrame, iv.LastFrame = lo, hi
+				lo, hi := bootstrapOnset(c, z, peakCell, stress, from, trigger, sigma, est, seedOf(o))
+				iv.Model, iv.LogLik = c.Model, c.LogLik
+				iv.FirstFrame, iv.LastFrame = min(lo, at), max(hi, at)
 			}
 		}
 		fr := d.frames[at]
@@ -195,15 +260,221 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 		if peak > 0 {
 			o.Percent = 100 * fr.Stress / peak
 		}
+		iv.ChangeFrame = d.frames[change].Index
 		lo, hi := d.frames[iv.FirstFrame], d.frames[iv.LastFrame]
 		iv.FirstFrame, iv.LastFrame, iv.First, iv.Last = lo.Index, hi.Index, lo.Name, hi.Name
 		iv.TimeLo, iv.TimeHi = lo.Time, hi.Time
 		iv.StressLo, iv.StressHi = math.Min(lo.Stress, hi.Stress), math.Max(lo.Stress, hi.Stress)
 		o.Interval = &iv
-		o.History = d.history(k, end+1, z)
+		o.History = d.history(k, n, z)
 		out = append(out, o)
 	}
 	return out
+}
+
+// peakSeries is onset k's strongest cell over the first n frames, in
+// strain: of the zone's cells, the one whose own fitted change (change c's
+// shape and onset over a line in the stress, see changeAmplitude) is the
+// largest, less the median of the ring around the zone in each frame (nil
+// without cells). A frame where a cell has no value
+// takes the previous frame's.
+func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, n int) []float64 {
+	if len(d.cells[k]) == 0 {
+		return nil
+	}
+	ring := make([]float64, n)
+	for f := range n {
+		var r []float64
+		for _, v := range d.around[k][f] {
+			if !math.IsNaN(v) {
+				r = append(r, v)
+			}
+		}
+		if len(r) > 0 {
+			ring[f] = medianOf(r)
+		}
+	}
+	var best []float64
+	bestAmp := math.Inf(-1)
+	y := make([]float64, n)
+	for j := range d.cells[k] {
+		last, seen := 0.0, 0
+		for f := range n {
+			v := d.values[k][f][j]
+			if math.IsNaN(v) {
+				v = last
+			} else {
+				seen++
+			}
+			last = v
+			y[f] = v - ring[f]
+		}
+		if seen < n/2 {
+			continue
+		}
+		if amp, ok := changeAmplitude(c, y, stress); ok && amp > bestAmp {
+			best, bestAmp = slices.Clone(y), amp
+		}
+	}
+	return best
+}
+
+// detectable is the onset of change c: from its change point on, the
+// first frame of the last excursion before the trigger of Page's CUSUM of
+// y's excess over limit, S_k = max(0, S_{k−1} + e_k − limit), where e_k is
+// y (the zone's strongest cell, in strain) less its own drift line (fitted
+// with c's change over it) — the frame after the last k with S_k = 0, the
+// trigger if that is later; the change point itself without y or limit.
+func detectable(c DriftChange, y, stress []float64, limit float64, trigger int) int {
+	if y == nil || !(limit > 0) {
+		return c.Onset
+	}
+	e := cellExcess(c, y, stress)
+	if e == nil {
+		return trigger
+	}
+	lastZero := c.Onset - 1
+	var sum float64
+	for k := c.Onset; k <= trigger; k++ {
+		sum = math.Max(0, sum+e[k]-limit)
+		if sum == 0 {
+			lastZero = k
+		}
+	}
+	return min(lastZero+1, trigger)
+}
+
+// cellExcess is y less its drift line, fitted with c's change shape and
+// onset over it (a constant without a drift); nil when the fit fails.
+func cellExcess(c DriftChange, y, stress []float64) []float64 {
+	g := make([]float64, len(y))
+	for k := c.Onset; k < len(y); k++ {
+		g[k] = c.Model.shape(float64(k - c.Onset + 1))
+	}
+	out := slices.Clone(y)
+	if c.stress == nil {
+		var m float64
+		cnt := 0
+		for k := 0; k < c.Onset; k++ {
+			m += y[k]
+			cnt++
+		}
+		if cnt > 0 {
+			m /= float64(cnt)
+		}
+		for k := range out {
+			out[k] -= m
+		}
+		return out
+	}
+	coef, _, ok := fitThree(y, stress, g, c.prior)
+	if !ok {
+		return nil
+	}
+	for k := range out {
+		out[k] -= coef[0] + coef[1]*stress[k]
+	}
+	return out
+}
+
+// changeAmplitude fits y with c's change shape and onset over a line in
+// the stress (or a constant without a drift) and returns the change's
+// amplitude.
+func changeAmplitude(c DriftChange, y, stress []float64) (float64, bool) {
+	g := make([]float64, len(y))
+	for k := c.Onset; k < len(y); k++ {
+		g[k] = c.Model.shape(float64(k - c.Onset + 1))
+	}
+	s := stress
+	if c.stress == nil {
+		// No drift: a constant and the change (the stress column is
+		// replaced by a frame ramp that the constant cannot explain only
+		// when it is needed; here by zeros and a two-column fit).
+		var sw, sg, sgg, sy, sgy float64
+		for k := range y {
+			sw++
+			sg += g[k]
+			sgg += g[k] * g[k]
+			sy += y[k]
+			sgy += g[k] * y[k]
+		}
+		det := sw*sgg - sg*sg
+		if !(det > 0) {
+			return 0, false
+		}
+		return (sw*sgy - sg*sy) / det, true
+	}
+	coef, _, ok := fitThree(y, s, g, c.prior)
+	return coef[2], ok
+}
+
+// bootstrapOnset is the parametric-bootstrap interval of the onset (Efron
+// and Tibshirani 1993, An Introduction to the Bootstrap, ch. 6):
+// bootstrapDraws signals are drawn from the fitted drift and change plus
+// Gaussian noise (sigma for the normalised signal z, the residual width of
+// the change's fit for the strongest cell y), each is estimated as the
+// signal was (change point, model choice and detection limit), and the
+// interval is their central Confidence share.
+func bootstrapOnset(c DriftChange, z, y, stress []float64, from, to int, sigma float64, est func(DriftChange, []float64) int, seed uint64) (lo, hi int) {
+	rng := rand.New(rand.NewPCG(seed, 0x5e11))
+	n := len(z)
+	mz := c.fitted(n)
+	var my []float64
+	sy := 0.0
+	if y != nil {
+		amp, _ := changeAmplitude(c, y, stress)
+		yc := c
+		yc.Size = amp
+		// The cell's own drift line, refitted with the change's shape.
+		g := make([]float64, n)
+		for k := c.Onset; k < n; k++ {
+			g[k] = c.Model.shape(float64(k - c.Onset + 1))
+		}
+		my = make([]float64, n)
+		if c.stress != nil {
+			coef, rss, _ := fitThree(y, stress, g, c.prior)
+			for k := range my {
+				my[k] = coef[0] + coef[1]*stress[k] + coef[2]*g[k]
+			}
+			sy = math.Sqrt(rss / float64(max(n-4, 1)))
+		} else {
+			var m float64
+			for k := range y {
+				m += y[k] - amp*g[k]
+			}
+			m /= float64(n)
+			var rss float64
+			for k := range my {
+				my[k] = m + amp*g[k]
+				rss += (y[k] - my[k]) * (y[k] - my[k])
+			}
+			sy = math.Sqrt(rss / float64(max(n-3, 1)))
+		}
+	}
+	zs := make([]float64, n)
+	var ys []float64
+	if y != nil {
+		ys = make([]float64, n)
+	}
+	onsets := make([]int, 0, bootstrapDraws)
+	for range bootstrapDraws {
+		for k := range zs {
+			zs[k] = mz[k] + sigma*rng.NormFloat64()
+		}
+		for k := range ys {
+			ys[k] = my[k] + sy*rng.NormFloat64()
+		}
+		if e, ok := EstimateDriftChange(zs, stress, c.prior, from, to); ok {
+			onsets = append(onsets, est(e, ys))
+		} else {
+			onsets = append(onsets, to) // no rise found: the latest it could be
+		}
+	}
+	slices.Sort(onsets)
+	tail := (1 - Confidence) / 2
+	lo = onsets[int(math.Floor(tail*float64(len(onsets))))]
+	hi = onsets[min(len(onsets)-1, int(math.Ceil((1-tail)*float64(len(onsets))))-1)]
+	return lo, hi
 }
 
 // signal returns the normalised history of onset k over the first n
@@ -232,26 +503,6 @@ func (d *Dating) signal(k int, calibration []bool, n int) []float64 {
 		x[f] = meanOf(zone[f])
 		if r := ring[f]; len(r) > 0 {
 			x[f] -= medianOf(r)
-		}
-	}
-	// A frame whose scatter over the whole face has grown since
-	// calibration (systematic errors that grow with the load: the
-	// interpolation bias of larger gradients, a baseline that bends) counts
-	// its signal in units of that larger scatter, so that what the whole
-	// face shares does not read as this zone's onset.
-	spreads := d.f.spreads[d.onsets[k].Indicator]
-	var calibSpread []float64
-	for f, c := range calibration {
-		if c && f < len(spreads) && spreads[f] > 0 {
-			calibSpread = append(calibSpread, spreads[f])
-		}
-	}
-	if len(calibSpread) > 0 {
-		base := medianOf(calibSpread)
-		for f := range n {
-			if f < len(spreads) && spreads[f] > base {
-				x[f] /= spreads[f] / base
-			}
 		}
 	}
 	var calib []float64

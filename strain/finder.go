@@ -49,6 +49,9 @@ type Finder struct {
 	// noise is each strain indicator's noise over the calibration frames
 	// (SetNoise); floor the bar it sets under every frame's threshold.
 	noise, floor map[Indicator]float64
+	// scale is each strain indicator's per-point noise over the
+	// calibration frames relative to the face's (at least 1; nil: 1).
+	scale map[Indicator][]float64
 	// bars is each indicator's threshold per frame, in order, and spreads
 	// the frame's robust spread of the indicator over the points.
 	bars, spreads map[Indicator][]float64
@@ -105,7 +108,7 @@ const MinFloor = 1e-6
 // MinFloor: a frame whose own scatter is smaller (a quiet frame, a
 // round-off field) cannot mark its noise as a zone. Call it before Add.
 func (f *Finder) SetNoise(calib []*Field, stress []float64) {
-	f.noise, f.floor = map[Indicator]float64{}, map[Indicator]float64{}
+	f.noise, f.floor, f.scale = map[Indicator]float64{}, map[Indicator]float64{}, map[Indicator][]float64{}
 	k := f.cfg.Thresholds.Effective().K
 	for _, ind := range f.cfg.Indicators {
 		if ind == Decorrelation {
@@ -128,7 +131,53 @@ func (f *Finder) SetNoise(calib []*Field, stress []float64) {
 			f.noise[ind] = medianOf(spreads)
 		}
 		f.floor[ind] = math.Max(k*f.noise[ind], MinFloor)
+		f.scale[ind] = pointScale(f.cfg.Thresholds, ind, f.baseline, calib, stress)
 	}
+}
+
+// pointScale is each point's noise of indicator ind over the calibration
+// frames (the standard deviation of its values) relative to the median
+// over the points, at least 1: points whose own noise is larger than the
+// face's — next to an opening's wall or the face's edge, where the strain
+// window is one-sided, and where the baseline extrapolates that noise into
+// the loaded frames — need a higher bar, in proportion, to be marked. nil
+// with fewer than three calibration frames.
+func pointScale(t Thresholds, ind Indicator, bl Baseline, calib []*Field, stress []float64) []float64 {
+	if len(calib) < 3 {
+		return nil
+	}
+	n := len(calib[0].Points)
+	sd := make([]float64, n)
+	var all []float64
+	vals := make([]float64, 0, len(calib))
+	for i := range n {
+		vals = vals[:0]
+		for j, sf := range calib {
+			if v, ok := t.value(ind, bl, sf, nil, nil, i, stress[j]); ok {
+				vals = append(vals, v)
+			}
+		}
+		if _, s, ok := calibrationSpread(vals); ok && len(vals) >= 3 {
+			sd[i] = s
+			all = append(all, s)
+		} else {
+			sd[i] = math.NaN()
+		}
+	}
+	if len(all) == 0 {
+		return nil
+	}
+	med := medianOf(all)
+	if !(med > 0) {
+		return nil
+	}
+	for i, s := range sd {
+		sd[i] = 1
+		if s > med {
+			sd[i] = s / med
+		}
+	}
+	return sd
 }
 
 // Noise returns the indicators' noise measured by SetNoise (nil before).
@@ -153,7 +202,7 @@ func (f *Finder) Add(fr Frame) ([]Zone, error) {
 	}
 	var out []Zone
 	for _, ind := range f.cfg.Indicators {
-		marked, value, bar, spread := f.cfg.Thresholds.marks(ind, f.baseline, fr.Strain, fr.Disp, f.ref, fr.Stress, f.floor[ind])
+		marked, value, bar, spread := f.cfg.Thresholds.marks(ind, f.baseline, fr.Strain, fr.Disp, f.ref, fr.Stress, f.floor[ind], f.scale[ind])
 		if f.bars == nil {
 			f.bars, f.spreads = map[Indicator][]float64{}, map[Indicator][]float64{}
 		}

@@ -42,6 +42,10 @@ type Onset struct {
 	// onset before back-dating); the onset is never later.
 	TriggerFrame int    `json:"trigger_frame_index"`
 	TriggerName  string `json:"trigger_frame,omitempty"`
+	// TriggerTime and TriggerStress are the trigger frame's time (s) and
+	// nominal stress (MPa), beside the onset's own Time and Stress.
+	TriggerTime   float64 `json:"trigger_time_s"`
+	TriggerStress float64 `json:"trigger_stress_MPa"`
 	// Interval holds the onset with the stated confidence (nil before
 	// back-dating).
 	Interval *OnsetInterval `json:"interval,omitempty"`
@@ -116,6 +120,14 @@ func (f *Finder) Onsets(peak float64) []Onset {
 		}
 		z := r.zone
 		pl := place{z.Opening, z.Sector, z.Indicator.Class()}
+		if z.Opening < 0 {
+			// One event, one onset: a zone beyond every opening's reach
+			// that adjoins a zone of an opening's sector (a crack from the
+			// crown running past the reach) is that sector's event.
+			if op, sec, ok := f.adjoining(z, f.frames[r.last].Index); ok {
+				pl = place{op, sec, z.Indicator.Class()}
+			}
+		}
 		if r.through {
 			pl = place{firstOf(z.Touches), "through", ThroughGoing}
 		}
@@ -152,6 +164,48 @@ func (f *Finder) Onsets(peak float64) []Onset {
 		return rank(a.Indicator) - rank(b.Indicator)
 	})
 	return out
+}
+
+// adjoining returns the opening and sector of a zone placed at an opening
+// that shares or neighbours (within two grid steps) a cell of z, in any
+// frame up to last; the one with the most such cells.
+func (f *Finder) adjoining(z Zone, last int) (int, Sector, bool) {
+	near := map[int]bool{}
+	g := f.grid
+	for _, c := range z.Cells {
+		cc, cr := c%g.Cols, c/g.Cols
+		for dr := -2; dr <= 2; dr++ {
+			for dc := -2; dc <= 2; dc++ {
+				if j := g.Index(cc+dc, cr+dr); j >= 0 {
+					near[j] = true
+				}
+			}
+		}
+	}
+	type key struct {
+		op  int
+		sec Sector
+	}
+	count := map[key]int{}
+	var best key
+	for _, o := range f.zones {
+		if o.Frame > last || o.Opening < 0 {
+			continue
+		}
+		for _, c := range o.Cells {
+			if near[c] {
+				k := key{o.Opening, o.Sector}
+				count[k]++
+				if count[k] > count[best] {
+					best = k
+				}
+			}
+		}
+	}
+	if count[best] == 0 {
+		return -1, Other, false
+	}
+	return best.op, best.sec, true
 }
 
 func firstOf(xs []int) int {

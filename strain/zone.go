@@ -77,8 +77,11 @@ func (t Thresholds) withDefaults() Thresholds {
 // with too few points, 0 for decorrelation, whose bar is its rule) and the
 // frame's robust spread of the indicator (0 where there is none). floor is the indicator's noise floor
 // (see NoiseFloors): the bar is never below it, so that a frame whose
-// scatter is round-off does not mark round-off.
-func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.Field, stress, floor float64) (marked []bool, value []float64, bar, sigma float64) {
+// scatter is round-off does not mark round-off. scale, if not nil, is each
+// point's own noise relative to the face's (at least 1, see pointScale):
+// a point is marked when its excess over the median passes the bar's
+// excess times its scale.
+func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.Field, stress, floor float64, scale []float64) (marked []bool, value []float64, bar, sigma float64) {
 	t = t.withDefaults()
 	n := len(sf.Points)
 	marked, value = make([]bool, n), make([]float64, n)
@@ -104,9 +107,14 @@ func (t Thresholds) marks(ind Indicator, bl Baseline, sf *Field, disp, ref *dic.
 		return marked, value, math.Inf(1), 0
 	}
 	med, sigma := robustSpread(vals)
-	bar = med + math.Max(math.Max(t.Absolute, floor), t.K*sigma)
+	excess := math.Max(math.Max(t.Absolute, floor), t.K*sigma)
+	bar = med + excess
 	for i := 0; i < n; i++ {
-		marked[i] = have[i] && value[i] > bar
+		e := excess
+		if scale != nil {
+			e *= scale[i]
+		}
+		marked[i] = have[i] && value[i] > med+e
 	}
 	return marked, value, bar, sigma
 }
