@@ -40,8 +40,15 @@ type Tracker struct {
 	prev      *Field          // last field returned
 	prevInc   []subset.Params // last solution against the current reference
 	prevIncOK []bool
-	last      *subset.Image // last frame, a candidate new reference
-	lastIndex int
+	prevZNSSD []float64 // its ZNSSD
+	prevIndex int       // its frame's index
+	// The solution of the frame before prev's against the same reference
+	// (nil if none), for extrapolating each point's motion in time.
+	olderInc   []subset.Params
+	olderIncOK []bool
+	olderIndex int
+	last       *subset.Image // last frame, a candidate new reference
+	lastIndex  int
 }
 
 // NewTracker prepares tracking of the grid over mask (nil: the whole
@@ -242,7 +249,7 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 	}
 	img, bad := fillUnmeasured(img)
 	sp := subset.NewSpline(img, t.s.Interpolation)
-	inc := t.correlateFrame(img, sp, bad, t.prevInc, t.prevIncOK)
+	inc := t.correlateFrame(img, sp, bad, t.startsFor(index))
 	f := t.compose(inc, index, name)
 	if t.s.Reference == IncrementalReference && t.last != nil && t.lastIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {
 		// Correlation has degraded: move the reference to the last frame
@@ -250,14 +257,20 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 		// The points whose subsets reached unmeasured pixels of that frame
 		// were lost there, so none is correlated against them now.
 		t.setReference(t.last, t.lastIndex, t.prev, nil)
-		inc = t.correlateFrame(img, sp, bad, nil, nil)
+		inc = t.correlateFrame(img, sp, bad, nil)
 		f = t.compose(inc, index, name)
 	}
+	// After a reference update prevInc is nil: nothing older against the
+	// new reference.
+	t.olderInc, t.olderIncOK, t.olderIndex = t.prevInc, t.prevIncOK, t.prevIndex
 	t.prevInc = make([]subset.Params, len(inc))
 	t.prevIncOK = make([]bool, len(inc))
+	t.prevZNSSD = make([]float64, len(inc))
 	for i, r := range inc {
 		t.prevInc[i], t.prevIncOK[i] = r.P, r.Status == subset.Converged
+		t.prevZNSSD[i] = 2 * (1 - r.ZNCC)
 	}
+	t.prevIndex = index
 	t.prev = f
 	if t.s.Reference == IncrementalReference {
 		t.last, t.lastIndex = img, index
@@ -267,8 +280,8 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 
 // correlateFrame correlates a frame whose unmeasured pixels (nil: none)
 // were filled, and flags lost the points whose deformed subsets reach them.
-func (t *Tracker) correlateFrame(img *subset.Image, sp *subset.Spline, bad *unmeasured, prev []subset.Params, prevOK []bool) []subset.Result {
-	res := t.correlate(img, sp, prev, prevOK)
+func (t *Tracker) correlateFrame(img *subset.Image, sp *subset.Spline, bad *unmeasured, st *starts) []subset.Result {
+	res := t.correlate(img, sp, st)
 	if bad != nil {
 		bad.flag(res, t.centres, t.s.Subset/2)
 	}
@@ -289,14 +302,18 @@ func (t *Tracker) Resume(f *Field) error {
 	t.prev = f
 	t.prevInc = make([]subset.Params, len(f.Points))
 	t.prevIncOK = make([]bool, len(f.Points))
+	t.prevZNSSD = make([]float64, len(f.Points))
 	for i := range f.Points {
 		t.prevInc[i], t.prevIncOK[i] = f.Points[i].P, f.Points[i].Valid()
+		t.prevZNSSD[i] = 2 * (1 - f.Points[i].ZNCC)
 	}
+	t.prevIndex = f.Index
+	t.olderInc, t.olderIncOK = nil, nil
 	return nil
 }
 
 // correlate runs one frame against the current reference.
-func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, prev []subset.Params, prevOK []bool) []subset.Result {
+func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, st *starts) []subset.Result {
 	n := t.grid.Len()
 	c := &correlation{
 		tr: t, ref: t.refSp, def: sp, refImg: t.ref, image: img, mask: t.refMask,
@@ -312,7 +329,7 @@ func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, prev []subset.
 			c.res[i].Status = t.base.Points[i].Status
 		}
 	}
-	return c.run(prev, prevOK)
+	return c.run(st)
 }
 
 // compose turns solutions against the current reference into the field
@@ -367,7 +384,8 @@ func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *su
 	n := t.grid.Len()
 	t.centres = make([][2]int, n)
 	t.frac = make([][2]float64, n)
-	t.prevInc, t.prevIncOK = nil, nil
+	t.prevInc, t.prevIncOK, t.prevZNSSD = nil, nil, nil
+	t.olderInc, t.olderIncOK = nil, nil
 	for i := 0; i < n; i++ {
 		x, y := t.grid.Pos(i)
 		t.centres[i] = [2]int{x, y}

@@ -356,12 +356,84 @@ func (s *Solver) gather(mask []uint8, stride int) int {
 // Converged, Iterate returns its status with P = guess. Iterate panics if
 // Prepare was never called.
 func (s *Solver) Iterate(def *Spline, guess Params) Result {
+	return s.iterate(def, guess, nil, 0)
+}
+
+// IterateEither is Iterate from the better of two first guesses: guess is
+// sampled first and kept when its ZNSSD is at most accept; otherwise alt
+// is sampled too, and the iterations go on from whichever of the two has
+// the lower ZNSSD, its sampling serving as their first iteration. A run
+// passes the point's own solution extrapolated in time as guess and its
+// last solution as alt, with accept a little above the ZNSSD it had
+// there: along a steady ramp the extrapolation is kept after one
+// sampling, and where the motion changes (a hold, an unloading) the
+// second sampling finds the better start. The rejected sampling counts in
+// Result.Iterations, which is thus the number of samplings of the
+// deformed subset.
+func (s *Solver) IterateEither(def *Spline, guess, alt Params, accept float64) Result {
+	return s.iterate(def, guess, &alt, accept)
+}
+
+// deformedSums are the sums over one sampling of the deformed subset g
+// (offset by the reference mean f̄) that an IC-GN update needs: Σg, Σg²,
+// Σ(f - f̄)·g and Σ J·g.
+type deformedSums struct {
+	sg, sgg, sfg float64
+	sJg          [12]float64
+}
+
+// sample warps the subset by p, samples def there (taking the values
+// shared with s.prior when shared) and sets d to the sums. It reports
+// false, sampling nothing, when the warped subset leaves the image.
+func (s *Solver) sample(def *Spline, p *Params, shared bool, d *deformedSums) bool {
+	maxX, maxY := float64(def.width-1), float64(def.height-1)
+	var inside bool
+	if s.cfg.Order == Affine {
+		inside = s.affineWarp(p, maxX, maxY)
+	} else {
+		inside = s.quadraticWarp(p, maxX, maxY)
+	}
+	if !inside {
+		return false
+	}
+	n := s.n
+	if shared {
+		s.sampleShared(def)
+	} else {
+		def.values(s.xs[:n], s.ys[:n], s.gs[:n])
+	}
+	s.sampledAt, s.sampled = *p, true
+	*d = deformedSums{}
+	if s.cfg.Order == Affine {
+		d.sg, d.sgg, d.sfg = s.affineSums(&d.sJg)
+	} else {
+		d.sg, d.sgg, d.sfg = s.quadraticSums(&d.sJg)
+	}
+	return true
+}
+
+// criterion returns the ZNSSD of a sampling and the norm ‖g - ḡ‖ of the
+// deformed subset; ok is false for a flat deformed subset.
+func (s *Solver) criterion(d *deformedSums) (znssd, gNorm float64, ok bool) {
+	gm := d.sg / float64(s.n)
+	gvar := d.sgg - d.sg*gm
+	if !(gvar > 0) {
+		return 0, 0, false
+	}
+	gNorm = math.Sqrt(gvar)
+	return 2 - 2*d.sfg/(s.fNorm*gNorm), gNorm, true
+}
+
+func (s *Solver) iterate(def *Spline, guess Params, alt *Params, accept float64) Result {
 	if s.ref == nil {
 		panic("subset: Iterate before Prepare")
 	}
 	if s.cfg.Order == Affine {
 		for i := 6; i < 12; i++ {
 			guess[i] = 0
+			if alt != nil {
+				alt[i] = 0
+			}
 		}
 	}
 	res := Result{P: guess, Status: s.status}
@@ -369,62 +441,57 @@ func (s *Solver) Iterate(def *Spline, guess Params) Result {
 	if s.status != Converged {
 		return res
 	}
-	np, n := s.np, s.n
-	affine := s.cfg.Order == Affine
-	maxX, maxY := float64(def.width-1), float64(def.height-1)
+	np := s.np
 	drift := float64(s.cfg.Radius)
 	p := guess
 	res.Status = Diverged
-	if !p.IsFinite() {
-		return res
-	}
+	extra := 0 // a rejected first guess's sampling
+	var d deformedSums
 	for it := 1; it <= s.cfg.MaxIterations; it++ {
 		// Warp the subset, sample the deformed image there and accumulate
 		// the sums that give its mean, its norm, the ZNSSD and the
 		// right-hand side Σ J·[(f - f̄) - (‖f - f̄‖/‖g - ḡ‖)(g - ḡ)]. Gray
 		// levels are offset by the reference mean to keep the sums well
 		// conditioned.
-		var inside bool
-		if affine {
-			inside = s.affineWarp(&p, maxX, maxY)
-		} else {
-			inside = s.quadraticWarp(&p, maxX, maxY)
+		inside := p.IsFinite() && s.sample(def, &p, it == 1 && s.prior != nil, &d)
+		var znssd, gNorm float64
+		flat := false
+		if inside {
+			znssd, gNorm, inside = s.criterion(&d)
+			flat = !inside
+		}
+		if it == 1 && alt != nil && !(inside && znssd <= accept) && alt.IsFinite() {
+			var da deformedSums
+			q := *alt
+			if s.sample(def, &q, false, &da) {
+				extra = 1
+				if za, gna, ok := s.criterion(&da); ok && (!inside || za < znssd) {
+					p, guess, res.P = q, q, q
+					d, znssd, gNorm, inside, flat = da, za, gna, true, false
+				}
+			}
 		}
 		if !inside {
-			res.Status = OutOfImage
+			if flat {
+				return res // a flat deformed subset
+			}
+			if p.IsFinite() {
+				res.Status = OutOfImage
+			}
 			return res
 		}
-		if it == 1 && s.prior != nil {
-			s.sampleShared(def)
-		} else {
-			def.values(s.xs[:n], s.ys[:n], s.gs[:n])
-		}
-		s.sampledAt, s.sampled = p, true
-		var sg, sgg, sfg float64
-		var sJg [12]float64
-		if affine {
-			sg, sgg, sfg = s.affineSums(&sJg)
-		} else {
-			sg, sgg, sfg = s.quadraticSums(&sJg)
-		}
-		gm := sg / float64(n)
-		gvar := sgg - sg*gm
-		if !(gvar > 0) {
-			return res // a flat deformed subset
-		}
-		gNorm := math.Sqrt(gvar)
-		znssd := 2 - 2*sfg/(s.fNorm*gNorm)
+		gm := d.sg / float64(s.n)
 		res.ZNCC = ZNCCFromZNSSD(znssd)
 		ratio := s.fNorm / gNorm
 		var dp Params
 		var b [12]float64
 		for a := 0; a < np; a++ {
-			b[a] = -(s.sumJf[a] - ratio*(sJg[a]-gm*s.sumJ[a]))
+			b[a] = -(s.sumJf[a] - ratio*(d.sJg[a]-gm*s.sumJ[a]))
 		}
 		choleskySolve(&s.chol, np, &b)
 		copy(dp[:np], b[:np])
 		next, err := p.ComposeInverse(dp, s.cfg.Order)
-		res.Iterations = it
+		res.Iterations = it + extra
 		if err != nil || !next.IsFinite() {
 			return res
 		}

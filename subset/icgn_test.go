@@ -411,3 +411,48 @@ func BenchmarkSolve(b *testing.B) {
 		}
 	}
 }
+
+// IterateEither keeps its first guess when that one matches within accept
+// and then equals Iterate from it bit for bit; when the first guess is far
+// off (4 px: no overlap of the speckle periods it would need) it goes on
+// from the second, equals Iterate from that one but for the rejected
+// sampling counted in Iterations, and recovers the imposed translation
+// (known answer) within 0.005 px, the product requirement.
+func TestIterateEither(t *testing.T) {
+	pat := testPattern(29)
+	ref := NewSpline(pat.render(testSize, testSize, nil), Bicubic)
+	const u, v = 0.45, -0.3
+	def := NewSpline(pat.render(testSize, testSize, func(x, y float64) (float64, float64) { return x - u, y - v }), Bicubic)
+	s := NewSolver(Config{Radius: 10})
+	if st := s.Prepare(ref, nil, 64, 64); st != Converged {
+		t.Fatalf("Prepare: %v", st)
+	}
+	near, far := Translation(0.4, -0.25), Translation(u+7, v-6)
+	fromNear := s.Iterate(def, near)
+	fromFar := s.Iterate(def, far)
+	if fromNear.Status != Converged || math.Abs(fromNear.P[PU]-u) > 0.005 || math.Abs(fromNear.P[PV]-v) > 0.005 {
+		t.Fatalf("from the near guess: %v %v", fromNear.Status, fromNear.P)
+	}
+	if fromFar.Status == Converged && math.Abs(fromFar.P[PU]-u) < 0.005 && math.Abs(fromFar.P[PV]-v) < 0.005 {
+		t.Fatalf("the far guess converges on its own (%v): the case does not test the second guess", fromFar.P)
+	}
+	// Either way round with accept = +Inf: the first guess is kept.
+	if got := s.IterateEither(def, near, far, math.Inf(1)); got != fromNear {
+		t.Errorf("near first, accepted: %+v, want %+v", got, fromNear)
+	}
+	// accept = −1 samples both: the near one wins whichever comes first.
+	want := fromNear
+	want.Iterations++
+	for _, pair := range [][2]Params{{near, far}, {far, near}} {
+		if got := s.IterateEither(def, pair[0], pair[1], -1); got != want {
+			t.Errorf("first %v, second %v: %+v, want %+v", pair[0][:2], pair[1][:2], got, want)
+		}
+	}
+	// A first guess outside the image falls back on the second.
+	if got := s.IterateEither(def, Translation(200, 0), near, 0); got != want {
+		t.Errorf("first guess outside the image: %+v, want %+v", got, want)
+	}
+	if n := testing.AllocsPerRun(20, func() { s.SolveEither(ref, def, nil, 64, 64, far, near, 0, nil, nil, nil) }); n != 0 {
+		t.Errorf("%g allocations per SolveEither, want 0", n)
+	}
+}

@@ -47,6 +47,17 @@ func (s *Samples) Guess(x, y int) Params {
 // with prior's subset, and leaves in keep (when not nil) the values it
 // sampled at its last iterate. The result equals Solve's to rounding.
 func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Params, c *Prepared, prior, keep *Samples) Result {
+	return s.solveShared(ref, def, mask, x, y, guess, nil, 0, c, prior, keep)
+}
+
+// SolveEither is SolveShared iterated from the better of two first
+// guesses, guess (which prior's samples serve) and alt, the second sampled
+// only when guess's ZNSSD exceeds accept (see IterateEither).
+func (s *Solver) SolveEither(ref, def *Spline, mask []uint8, x, y int, guess, alt Params, accept float64, c *Prepared, prior, keep *Samples) Result {
+	return s.solveShared(ref, def, mask, x, y, guess, &alt, accept, c, prior, keep)
+}
+
+func (s *Solver) solveShared(ref, def *Spline, mask []uint8, x, y int, guess Params, alt *Params, accept float64, c *Prepared, prior, keep *Samples) Result {
 	s.PrepareWith(ref, mask, x, y, c)
 	s.prior = nil
 	if keep != nil {
@@ -58,7 +69,7 @@ func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Par
 			s.prior, s.priorDX, s.priorDY = prior, dx, dy
 		}
 	}
-	res := s.Iterate(def, guess)
+	res := s.iterate(def, guess, alt, accept)
 	if keep != nil && s.sampled && s.square && s.cfg.Order == Affine && len(keep.G) == s.n {
 		keep.X, keep.Y, keep.P = x, y, s.sampledAt
 		copy(keep.G, s.gs[:s.n])
