@@ -11,6 +11,7 @@ const (
 	DefaultTolerance        = 1e-3
 	DefaultMinValidFraction = 0.75
 	DefaultMaxZNSSD         = 1.0
+	DefaultNoiseTolerance   = 4
 )
 
 // Config sets up a Solver. Zero fields take the documented defaults.
@@ -36,6 +37,17 @@ type Config struct {
 	// exceeds it is Lost (default 1.0, that is ZNCC below 0.5; common
 	// practice, no source). A negative value disables the gate.
 	MaxZNSSD float64
+	// NoiseTolerance widens the convergence threshold on noisy images
+	// (default 4; negative: off): the iteration also stops when an update
+	// moves every corner by less than NoiseTolerance times the subset's
+	// predicted displacement precision σ (see Solver.precision), which
+	// the noise of the images, not the solver, limits. A Gauss–Newton step
+	// from that close lands within a small fraction of the step of the
+	// optimum, so stopping there changes the answer by far less than σ;
+	// without it a noisy subset spends an extra sampling of the deformed
+	// image confirming an update already below its noise. On noise-free
+	// images σ is tiny and Tolerance rules.
+	NoiseTolerance float64
 }
 
 // withDefaults returns c with zero fields replaced by their defaults.
@@ -51,6 +63,9 @@ func (c Config) withDefaults() Config {
 	}
 	if c.MaxZNSSD == 0 {
 		c.MaxZNSSD = DefaultMaxZNSSD
+	}
+	if c.NoiseTolerance == 0 {
+		c.NoiseTolerance = DefaultNoiseTolerance
 	}
 	return c
 }
@@ -72,6 +87,8 @@ func (c Config) Validate() error {
 		return fmt.Errorf("subset: min SSSIG %g, want at least 0", c.MinSSSIG)
 	case math.IsNaN(c.MaxZNSSD):
 		return fmt.Errorf("subset: max ZNSSD is NaN")
+	case math.IsNaN(c.NoiseTolerance) || math.IsInf(c.NoiseTolerance, 0):
+		return fmt.Errorf("subset: noise tolerance %g, want finite", c.NoiseTolerance)
 	}
 	return nil
 }
@@ -126,6 +143,7 @@ type Solver struct {
 	sumJf  [12]float64  // Σ J·(f - f̄)
 	chol   [144]float64 // Cholesky factor of the Hessian, leading np×np
 	scale  [12]float64  // parameter scales for the rank test
+	invUV  float64      // (H⁻¹)_uu + (H⁻¹)_vv, see precision
 
 	// Scratch: the reference window (side² values and gradients), the
 	// stencil columns of centres, and the warped positions and deformed
@@ -243,7 +261,30 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	if !choleskyFactor(&s.chol, s.np, &s.scale) {
 		return LowTexture
 	}
+	s.setInvUV()
 	return Converged
+}
+
+// setInvUV sets invUV from the Cholesky factor of the Hessian: the
+// displacement entries of the diagonal of H⁻¹, by two solves.
+func (s *Solver) setInvUV() {
+	var eu, ev [12]float64
+	eu[PU], ev[PV] = 1, 1
+	choleskySolve(&s.chol, s.np, &eu)
+	choleskySolve(&s.chol, s.np, &ev)
+	s.invUV = eu[PU] + ev[PV]
+}
+
+// precision returns the predicted precision (RMS length of the error
+// vector) of the subset's displacement at a sampling of the given ZNSSD:
+// the least-squares covariance σ_e²·H⁻¹ of the Gauss–Newton estimate with
+// σ_e² = ‖f - f̄‖²·ZNSSD/n the residual variance per pixel, which holds
+// the noise of both images (Pan et al. 2008, "Study on subset size
+// selection in digital image correlation for speckle patterns", Optics
+// Express 16(10):7037–7048: with σ_e² = 2σ² and a diagonal H this is
+// PredictedNoise per component).
+func (s *Solver) precision(znssd float64) float64 {
+	return math.Sqrt(max(znssd, 0) * s.fNorm * s.fNorm / float64(s.n) * s.invUV)
 }
 
 // sum4 returns Σ v. Four partial sums break the chain of dependent
@@ -503,7 +544,7 @@ func (s *Solver) iterate(def *Spline, guess Params, alt *Params, accept float64)
 		if math.Abs(p[PU]-guess[PU]) > drift || math.Abs(p[PV]-guess[PV]) > drift {
 			return res
 		}
-		if dp.cornerMotion(float64(s.cfg.Radius)) < s.cfg.Tolerance {
+		if stop := dp.cornerMotion(float64(s.cfg.Radius)); stop < s.cfg.Tolerance || stop < s.cfg.NoiseTolerance*s.precision(znssd) {
 			if s.cfg.MaxZNSSD >= 0 && znssd > s.cfg.MaxZNSSD {
 				res.Status = Lost
 			} else {
