@@ -47,7 +47,8 @@ type Tracker struct {
 	olderInc   []subset.Params
 	olderIncOK []bool
 	olderIndex int
-	last       *subset.Image // last frame, a candidate new reference
+	last       *subset.Image  // last frame, a candidate new reference
+	cur        *subset.Spline // the frame being tracked, reloaded frame after frame
 	lastIndex  int
 }
 
@@ -248,7 +249,12 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 		return nil, fmt.Errorf("frame %d (%s): size %dx%d, expected %dx%d like the reference", index, name, img.Width, img.Height, t.origin.Width, t.origin.Height)
 	}
 	img, bad := fillUnmeasured(img)
-	sp := subset.NewSpline(img, t.s.Interpolation)
+	if t.cur == nil {
+		t.cur = subset.NewSpline(img, t.s.Interpolation)
+	} else {
+		t.cur.Reload(img)
+	}
+	sp := t.cur
 	inc := t.correlateFrame(img, sp, bad, t.startsFor(index))
 	f := t.compose(inc, index, name)
 	if t.s.Reference == IncrementalReference && t.last != nil && t.lastIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {

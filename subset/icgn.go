@@ -24,7 +24,8 @@ type Config struct {
 	// MaxIterations bounds the Gauss–Newton iterations (default 50).
 	MaxIterations int
 	// Tolerance is the convergence threshold in pixels (default 1e-3): the
-	// iteration stops when an update moves every subset corner by less.
+	// iteration stops when an update moves every subset corner by less
+	// (or by less than NoiseTolerance allows).
 	Tolerance float64
 	// MinValidFraction is the smallest fraction of subset pixels that must
 	// lie inside the mask (default 0.75); below it the status is Masked.

@@ -25,15 +25,35 @@ type SequenceSpec struct {
 	// tracker's tuning was done on the main variant only, so its accuracy
 	// here is an honest check against over-fitting.
 	HeldOut bool
+	// OnDemand renders each frame when it is asked for instead of keeping
+	// them all, so that memory holds the reference and one frame, as in a
+	// run that reads its photos one at a time (for 20 MP frames).
+	OnDemand bool
 }
 
-// Sequence is a rendered SequenceSpec: the reference, the frames after it
-// and the exact field of each.
+// Sequence is a SequenceSpec: the reference, the frames after it and the
+// exact field of each.
 type Sequence struct {
 	Spec   SequenceSpec
 	Ref    *subset.Image
-	Frames []*subset.Image
 	Fields []synth.Field
+	frames []*subset.Image // nil with Spec.OnDemand
+	scene  synth.Scene
+	cam    synth.Camera
+}
+
+// Frame returns frame k (1 … Frames−1) and its exact field.
+func (q *Sequence) Frame(k int) (*subset.Image, synth.Field, error) {
+	if k < 1 || k > len(q.Fields) {
+		return nil, nil, fmt.Errorf("sequence: no frame %d (1…%d)", k, len(q.Fields))
+	}
+	if q.frames != nil {
+		return q.frames[k-1], q.Fields[k-1], nil
+	}
+	sc := q.scene
+	sc.Field = q.Fields[k-1]
+	img, err := synth.Render(sc, q.cam, q.Spec.Width, q.Spec.Height, k)
+	return img, q.Fields[k-1], err
 }
 
 // NewSequence renders spec. The main variant strains to exx = 3000 µε,
@@ -63,8 +83,8 @@ func NewSequence(spec SequenceSpec) (*Sequence, error) {
 	}
 	cam := synth.Camera{Depth: 8, Noise: spec.Noise, Seed: seed}
 	cx, cy := float64(spec.Width)/2, float64(spec.Height)/2
-	seq := &Sequence{Spec: spec}
-	if seq.Ref, err = synth.Render(synth.Scene{Speckles: sp}, cam, spec.Width, spec.Height, 0); err != nil {
+	seq := &Sequence{Spec: spec, scene: synth.Scene{Speckles: sp}, cam: cam}
+	if seq.Ref, err = synth.Render(seq.scene, cam, spec.Width, spec.Height, 0); err != nil {
 		return nil, err
 	}
 	for k := 1; k < spec.Frames; k++ {
@@ -74,11 +94,18 @@ func NewSequence(spec SequenceSpec) (*Sequence, error) {
 			synth.Rotation{Cx: cx, Cy: cy, AngleDeg: rot * float64(k)},
 			synth.Translation{U: du * s, V: dv * s},
 		}
-		img, err := synth.Render(synth.Scene{Speckles: sp, Field: f}, cam, spec.Width, spec.Height, k)
-		if err != nil {
-			return nil, err
+		seq.Fields = append(seq.Fields, f)
+	}
+	if !spec.OnDemand {
+		frames := make([]*subset.Image, 0, spec.Frames-1)
+		for k := 1; k < spec.Frames; k++ {
+			img, _, err := seq.Frame(k)
+			if err != nil {
+				return nil, err
+			}
+			frames = append(frames, img)
 		}
-		seq.Frames, seq.Fields = append(seq.Frames, img), append(seq.Fields, f)
+		seq.frames = frames
 	}
 	return seq, nil
 }
@@ -109,7 +136,8 @@ type SequenceRow struct {
 	// run (below 1: faster).
 	VsLK float64
 	// PeakRSS is the process's peak resident memory in bytes while the
-	// row was measured (Linux; 0 where unknown).
+	// row was measured (Linux; 0 where unknown): the tracker, Lucas–Kanade
+	// and the frames the sequence holds (all of them unless OnDemand).
 	PeakRSS int64
 }
 
@@ -126,14 +154,18 @@ func TrackSequence(seq *Sequence, sub, step int) (SequenceRow, error) {
 	}
 	var secs, lkSecs, iters, sq, lkSq float64
 	var n, lkN, frames int
-	for k, img := range seq.Frames {
+	for k := 1; k < seq.Spec.Frames; k++ {
+		img, field, err := seq.Frame(k)
+		if err != nil {
+			return row, err
+		}
 		t0 := time.Now()
-		f, err := tr.Track(img, k+1, fmt.Sprintf("frame %d", k+1))
+		f, err := tr.Track(img, k, fmt.Sprintf("frame %d", k))
 		dt := time.Since(t0).Seconds()
 		if err != nil {
 			return row, err
 		}
-		if k == 0 {
+		if k == 1 {
 			continue
 		}
 		frames++
@@ -146,7 +178,7 @@ func TrackSequence(seq *Sequence, sub, step int) (SequenceRow, error) {
 				continue
 			}
 			u, v := p.U()
-			m := seq.Fields[k].At(float64(p.X), float64(p.Y))
+			m := field.At(float64(p.X), float64(p.Y))
 			iters += float64(p.Iterations)
 			sq += (u-m.U)*(u-m.U) + (v-m.V)*(v-m.V)
 			pts, truth = append(pts, [2]int{p.X, p.Y}), append(truth, m)

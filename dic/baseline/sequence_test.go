@@ -2,6 +2,7 @@ package baseline
 
 import (
 	"math"
+	"slices"
 	"testing"
 )
 
@@ -19,8 +20,23 @@ func TestSequenceTruth(t *testing.T) {
 		if held {
 			du, dv = -0.4, 0.5
 		}
-		if len(seq.Frames) != 2 || len(seq.Fields) != 2 || seq.Ref.Width != 96 || seq.Ref.Height != 64 {
-			t.Fatalf("held out %v: %d frames, %d fields, reference %dx%d", held, len(seq.Frames), len(seq.Fields), seq.Ref.Width, seq.Ref.Height)
+		if len(seq.Fields) != 2 || seq.Ref.Width != 96 || seq.Ref.Height != 64 {
+			t.Fatalf("held out %v: %d fields, reference %dx%d", held, len(seq.Fields), seq.Ref.Width, seq.Ref.Height)
+		}
+		// A frame rendered on demand is the frame kept.
+		demand := seq.Spec
+		demand.OnDemand = true
+		lazy, err := NewSequence(demand)
+		if err != nil {
+			t.Fatal(err)
+		}
+		kept, _, err1 := seq.Frame(2)
+		made, _, err2 := lazy.Frame(2)
+		if err1 != nil || err2 != nil || !slices.Equal(kept.Pix, made.Pix) {
+			t.Errorf("held out %v: frame 2 on demand differs from the kept one (%v, %v)", held, err1, err2)
+		}
+		if _, _, err := seq.Frame(3); err == nil {
+			t.Errorf("frame 3 of 3 frames (0…2) given")
 		}
 		for k, f := range seq.Fields {
 			s := float64(k+1) / 2
