@@ -152,6 +152,10 @@ type Solver struct {
 	winV, winX, winY []float64
 	colV, colD       []float64
 	xs, ys, gs       []float64
+	// The affine warp of the current iteration: where each run's first
+	// pixel lands, and the step along the runs (see affineWarp).
+	ox, oy []float64
+	ax, ay float64
 
 	// Shared samples of the current SolveShared (nil otherwise), and the
 	// shape the last Iterate sampled at.
@@ -188,7 +192,8 @@ func NewSolver(cfg Config) *Solver {
 		np:  np,
 		// A row of side pixels holds at most (side+1)/2 runs.
 		runs: make([]run, 0, side*((side+1)/2)),
-		dx:   next(area), dy: next(area),
+		ox:   make([]float64, side*((side+1)/2)), oy: make([]float64, side*((side+1)/2)),
+		dx: next(area), dy: next(area),
 		fc: next(area), gx: next(area), gy: next(area),
 		winV: next(area), winX: next(area), winY: next(area),
 		xs: next(area), ys: next(area), gs: next(area),
@@ -438,11 +443,15 @@ func (s *Solver) sample(def *Spline, p *Params, shared bool, d *deformedSums) bo
 	if !inside {
 		return false
 	}
-	n := s.n
-	if shared {
+	switch {
+	case shared:
 		s.sampleShared(def)
-	} else {
-		def.values(s.xs[:n], s.ys[:n], s.gs[:n])
+	case s.cfg.Order == Affine:
+		for k, rn := range s.runs {
+			def.lineValues(s.ox[k], s.oy[k], s.ax, s.ay, 0, s.gs[rn.k0:rn.k0+rn.n])
+		}
+	default:
+		def.values(s.xs[:s.n], s.ys[:s.n], s.gs[:s.n])
 	}
 	s.sampledAt, s.sampled = *p, true
 	*d = deformedSums{}

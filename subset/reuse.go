@@ -79,7 +79,8 @@ func (s *Solver) solveShared(ref, def *Spline, mask []uint8, x, y int, guess Par
 	return res
 }
 
-// sampleShared sets gs to the deformed values at xs, ys (already warped),
+// sampleShared sets gs to the deformed values of the full square subset
+// under the affine warp already set (affineWarp: row j is run j),
 // copying those of the pixels shared with s.prior's subset and
 // interpolating the rest. Pixel (i, j) of this subset (offsets from its
 // centre) is pixel (i - dx, j - dy) of the prior's, where (dx, dy) is the
@@ -92,18 +93,19 @@ func (s *Solver) sampleShared(def *Spline) {
 	for j := -r; j <= r; j++ {
 		k0 := (j + r) * side
 		pj := j - dy
+		ox, oy := s.ox[j+r], s.oy[j+r]
 		if pj < -r || pj > r || c0 > c1 {
-			def.values(s.xs[k0:k0+side], s.ys[k0:k0+side], s.gs[k0:k0+side])
+			def.lineValues(ox, oy, s.ax, s.ay, 0, s.gs[k0:k0+side])
 			continue
 		}
 		a, b := k0+c0+r, k0+c1+r+1 // the shared span of this row
 		if a > k0 {
-			def.values(s.xs[k0:a], s.ys[k0:a], s.gs[k0:a])
+			def.lineValues(ox, oy, s.ax, s.ay, 0, s.gs[k0:a])
 		}
 		pk := (pj+r)*side + c0 - dx + r
 		copy(s.gs[a:b], s.prior.G[pk:pk+b-a])
 		if b < k0+side {
-			def.values(s.xs[b:k0+side], s.ys[b:k0+side], s.gs[b:k0+side])
+			def.lineValues(ox, oy, s.ax, s.ay, b-k0, s.gs[b:k0+side])
 		}
 	}
 }
