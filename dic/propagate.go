@@ -222,7 +222,7 @@ func (c *correlation) propagate() {
 				j := job{I: q, X: qx, Y: qy, Full: c.full(q), Keep: c.keepFor(q)}
 				if st := c.st; st != nil && st.ok[q] {
 					jump := c.jump[c.tr.comp[q]]
-					j.Either, j.Alt, j.Accept = true, st.guess[q], st.accept(q)
+					j.Either, j.Alt, j.Accept = true, st.guess[q], acceptBelow(c.res[p].ZNCC)
 					j.Alt[subset.PU] += jump[0]
 					j.Alt[subset.PV] += jump[1]
 				}

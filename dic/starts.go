@@ -3,15 +3,17 @@ package dic
 import "spallscope/subset"
 
 // Acceptance of a point's first guess from its neighbour: it is kept after
-// one sampling when its ZNSSD is at most acceptFactor times the point's
-// ZNSSD in the frame before plus acceptFloor, else the point's own motion
-// from the frames before is sampled too and the better of the two is
-// iterated from (see subset.Solver.IterateEither). A sound neighbour's
-// shape carried over is within the noise of the answer, and its ZNSSD
-// within the frame to frame spread of the noise floor; a neighbour across
-// a crack, or one that was solved wrong, gives several times that. Chosen
-// on the noisy strain ramp (BenchmarkSequence), not on its held-out
-// variant.
+// one sampling when its ZNSSD is at most acceptFactor times the
+// neighbour's own final ZNSSD in this frame plus acceptFloor, else the
+// point's own motion from the frames before is sampled too and the better
+// of the two is iterated from (see subset.Solver.IterateEither). A sound
+// neighbour's shape carried over is within the noise of the answer, and
+// its ZNSSD near the noise floor the neighbour itself reached (the
+// subsets overlap); a neighbour across a crack, or a shape that does not
+// carry over, gives several times that. The threshold uses this frame
+// only, so that a resumed run, which reads the last frame's ZNCC rounded
+// from its file, makes the same choices. Chosen on the noisy strain ramp
+// (BenchmarkSequence), not on its held-out variant.
 const (
 	acceptFactor = 2
 	acceptFloor  = 1e-4
@@ -24,13 +26,14 @@ type starts struct {
 	// frame before that is known too; ok says whether there is one.
 	guess []subset.Params
 	ok    []bool
-	// znssd is the point's ZNSSD in the last frame.
-	znssd []float64
 }
 
-// accept returns the ZNSSD up to which point i keeps its neighbour's
-// guess without sampling its own.
-func (st *starts) accept(i int) float64 { return acceptFactor*st.znssd[i] + acceptFloor }
+// acceptBelow returns the ZNSSD up to which a point keeps the guess from
+// a neighbour that converged with the given ZNCC, without sampling its
+// own.
+func acceptBelow(neighbourZNCC float64) float64 {
+	return acceptFactor*2*(1-neighbourZNCC) + acceptFloor
+}
 
 // startsFor returns the first guesses for frame index, or nil when no
 // frame has been tracked against the current reference. Motion is
@@ -42,7 +45,7 @@ func (t *Tracker) startsFor(index int) *starts {
 	if t.prevInc == nil {
 		return nil
 	}
-	st := &starts{guess: t.prevInc, ok: t.prevIncOK, znssd: t.prevZNSSD}
+	st := &starts{guess: t.prevInc, ok: t.prevIncOK}
 	if t.olderInc == nil || t.prevIndex == t.olderIndex {
 		return st
 	}

@@ -2,6 +2,7 @@ package dic_test
 
 import (
 	"math"
+	"slices"
 	"testing"
 
 	"spallscope/dic"
@@ -15,7 +16,9 @@ import (
 // that frame alone finds it, to within twice IC-GN's stopping tolerance
 // (2e-3 px), and within 0.02 px RMS of the exact field (synthetic truth;
 // measured 0.006–0.007 px, the noise of 17 px subsets at σ = 1.5). The
-// results must not depend on the worker count, in every frame.
+// results must not depend on the worker count, in every frame; and a
+// tracker resumed after two frames (their ZNCC rounded to the 6 decimals
+// of a field file) must give the frame after them bit for bit.
 func TestTrackSequenceStarts(t *testing.T) {
 	const w = 180
 	at := func(s float64) synth.Field {
@@ -43,6 +46,7 @@ func TestTrackSequenceStarts(t *testing.T) {
 	if errA != nil || errB != nil {
 		t.Fatal(errA, errB)
 	}
+	var kept []*dic.Field
 	for k, level := range ramp {
 		img, err := synth.Render(synth.Scene{Speckles: sp, Field: at(level)}, cam, w, w, k+1)
 		if err != nil {
@@ -53,6 +57,30 @@ func TestTrackSequenceStarts(t *testing.T) {
 		if errA != nil || errB != nil {
 			t.Fatal(errA, errB)
 		}
+		if k >= 2 {
+			r, err := dic.NewTracker(ref, 0, nil, one)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if err := r.Resume(kept[k-2], kept[k-1]); err != nil {
+				t.Fatal(err)
+			}
+			fr, err := r.Track(img, k+1, "frame")
+			if err != nil {
+				t.Fatal(err)
+			}
+			for i := range fr.Points {
+				if fr.Points[i] != fa.Points[i] {
+					t.Fatalf("frame %d, point %d differs after a resume: %+v vs %+v", k+1, i, fr.Points[i], fa.Points[i])
+				}
+			}
+		}
+		c := *fa
+		c.Points = slices.Clone(fa.Points)
+		for i := range c.Points {
+			c.Points[i].ZNCC = math.Round(c.Points[i].ZNCC*1e6) / 1e6
+		}
+		kept = append(kept, &c)
 		alone := track(t, ref, img, nil, s)
 		var sq, worst float64
 		n := 0

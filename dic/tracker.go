@@ -40,8 +40,7 @@ type Tracker struct {
 	prev      *Field          // last field returned
 	prevInc   []subset.Params // last solution against the current reference
 	prevIncOK []bool
-	prevZNSSD []float64 // its ZNSSD
-	prevIndex int       // its frame's index
+	prevIndex int // its frame's index
 	// The solution of the frame before prev's against the same reference
 	// (nil if none), for extrapolating each point's motion in time.
 	olderInc   []subset.Params
@@ -271,10 +270,8 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 	t.olderInc, t.olderIncOK, t.olderIndex = t.prevInc, t.prevIncOK, t.prevIndex
 	t.prevInc = make([]subset.Params, len(inc))
 	t.prevIncOK = make([]bool, len(inc))
-	t.prevZNSSD = make([]float64, len(inc))
 	for i, r := range inc {
 		t.prevInc[i], t.prevIncOK[i] = r.P, r.Status == subset.Converged
-		t.prevZNSSD[i] = 2 * (1 - r.ZNCC)
 	}
 	t.prevIndex = index
 	t.prev = f
@@ -294,27 +291,43 @@ func (t *Tracker) correlateFrame(img *subset.Image, sp *subset.Spline, bad *unme
 	return res
 }
 
-// Resume continues tracking after frame f (read back from its file) as
-// if Track had just returned it: the next frame starts from f's solution.
-// Only the fixed reference can resume this way; an incremental run holds
-// its current reference image, so it is tracked again from the start.
-func (t *Tracker) Resume(f *Field) error {
+// Resume continues tracking after the given frames (read back from their
+// files, oldest first; the last is the frame just tracked) as if Track had
+// just returned them: the next frame starts from the last one's solution
+// and, when the frame before it is given too, extrapolates each point's
+// motion from the two as Track does, so a resumed run makes the choices of
+// an uninterrupted one. Only the fixed reference can resume this way; an
+// incremental run holds its current reference image, so it is tracked
+// again from the start.
+func (t *Tracker) Resume(fields ...*Field) error {
 	if t.s.Reference != FixedReference {
 		return fmt.Errorf("resume: the %s reference strategy cannot resume mid-sequence", t.s.Reference)
 	}
-	if f.Grid != t.grid {
-		return fmt.Errorf("resume: frame %s is on another grid (%+v, expected %+v)", f.Name, f.Grid, t.grid)
+	if len(fields) == 0 {
+		return fmt.Errorf("resume: no frame to resume after")
 	}
+	for _, f := range fields {
+		if f.Grid != t.grid {
+			return fmt.Errorf("resume: frame %s is on another grid (%+v, expected %+v)", f.Name, f.Grid, t.grid)
+		}
+	}
+	solution := func(f *Field) ([]subset.Params, []bool) {
+		p, ok := make([]subset.Params, len(f.Points)), make([]bool, len(f.Points))
+		for i := range f.Points {
+			p[i], ok[i] = f.Points[i].P, f.Points[i].Valid()
+		}
+		return p, ok
+	}
+	f := fields[len(fields)-1]
 	t.prev = f
-	t.prevInc = make([]subset.Params, len(f.Points))
-	t.prevIncOK = make([]bool, len(f.Points))
-	t.prevZNSSD = make([]float64, len(f.Points))
-	for i := range f.Points {
-		t.prevInc[i], t.prevIncOK[i] = f.Points[i].P, f.Points[i].Valid()
-		t.prevZNSSD[i] = 2 * (1 - f.Points[i].ZNCC)
-	}
+	t.prevInc, t.prevIncOK = solution(f)
 	t.prevIndex = f.Index
 	t.olderInc, t.olderIncOK = nil, nil
+	if len(fields) > 1 {
+		o := fields[len(fields)-2]
+		t.olderInc, t.olderIncOK = solution(o)
+		t.olderIndex = o.Index
+	}
 	return nil
 }
 
@@ -390,7 +403,7 @@ func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *su
 	n := t.grid.Len()
 	t.centres = make([][2]int, n)
 	t.frac = make([][2]float64, n)
-	t.prevInc, t.prevIncOK, t.prevZNSSD = nil, nil, nil
+	t.prevInc, t.prevIncOK = nil, nil
 	t.olderInc, t.olderIncOK = nil, nil
 	for i := 0; i < n; i++ {
 		x, y := t.grid.Pos(i)
