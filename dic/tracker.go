@@ -48,7 +48,13 @@ type Tracker struct {
 	olderIndex int
 	last       *subset.Image  // last frame, a candidate new reference
 	cur        *subset.Spline // the frame being tracked, reloaded frame after frame
-	lastIndex  int
+	// spare are sample buffers for propagation kept from frame to frame:
+	// a frame holds up to one per point of its propagation queue, 3.5 kB
+	// each for 21 px subsets, which would otherwise be left to the
+	// collector each frame.
+	spare       []*subset.Samples
+	samplesMade int // buffers made, at most maxSamples
+	lastIndex   int
 }
 
 // NewTracker prepares tracking of the grid over mask (nil: the whole
@@ -337,6 +343,7 @@ func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, st *starts) []
 	c := &correlation{
 		tr: t, ref: t.refSp, def: sp, refImg: t.ref, image: img, mask: t.refMask,
 		centres: t.centres, state: make([]uint8, n), res: make([]subset.Result, n),
+		spare: t.spare,
 	}
 	for i := range c.state {
 		switch {
@@ -348,7 +355,9 @@ func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, st *starts) []
 			c.res[i].Status = t.base.Points[i].Status
 		}
 	}
-	return c.run(st)
+	res := c.run(st)
+	t.spare = c.reclaim()
+	return res
 }
 
 // compose turns solutions against the current reference into the field
