@@ -20,6 +20,19 @@ type job struct {
 	// for the pixels the two subsets share (Guess must be Prior.Guess);
 	// Keep, when not nil, receives the values this solve samples last.
 	Prior, Keep *subset.Samples
+	// Either, when set, makes Alt a second first guess, sampled when
+	// Guess's ZNSSD exceeds Accept (see subset.Solver.IterateEither).
+	Either bool
+	Alt    subset.Params
+	Accept float64
+}
+
+// solveWith solves the job with s.
+func (j job) solveWith(s *subset.Solver, ref, def *subset.Spline, mask []uint8, prepared []subset.Prepared) subset.Result {
+	if j.Either {
+		return s.SolveEither(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, j.Alt, j.Accept, preparedAt(prepared, j.I), j.Prior, j.Keep)
+	}
+	return s.SolveShared(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I), j.Prior, j.Keep)
 }
 
 // maskFor returns the mask a job's solve needs: none for a full subset.
@@ -59,7 +72,7 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 	}
 	if len(jobs) < 8 || len(p.solvers) == 1 {
 		for _, j := range jobs {
-			out[j.I] = p.solvers[0].SolveShared(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I), j.Prior, j.Keep)
+			out[j.I] = j.solveWith(p.solvers[0], ref, def, mask, prepared)
 		}
 		return
 	}
@@ -75,7 +88,7 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 					return
 				}
 				j := jobs[k]
-				out[j.I] = s.SolveShared(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I), j.Prior, j.Keep)
+				out[j.I] = j.solveWith(s, ref, def, mask, prepared)
 			}
 		}(s)
 	}

@@ -41,10 +41,24 @@ type correlation struct {
 	samples []*subset.Samples
 	spare   []*subset.Samples
 	popped  []int
+	// st are the points' own first guesses (nil: none) and jump[k] the
+	// seed's jump from its own in part k.
+	st   *starts
+	jump [][2]float64
 }
 
+// maxSamples bounds the sample buffers a tracker holds. The propagation
+// queue of a 20 MP frame at a 10 px step holds some 65,000 points (a third
+// of the grid; measured), each with its samples, 230 MB for 21 px subsets
+// and 500 MB for 31 px; past the bound a point is solved without sharing
+// its samples with its neighbours (their first iteration interpolates all
+// of its pixels), which costs time, not accuracy. Whether a buffer is
+// free depends only on how many points of the frame hold one, so the
+// results stay independent of the worker count and of a resume.
+const maxSamples = 1 << 14
+
 // keepFor returns a buffer for job i's last samples when its subset is a
-// full square of the Affine order, else nil.
+// full square of the Affine order and one is free, else nil.
 func (c *correlation) keepFor(i int) *subset.Samples {
 	if !c.full(i) || c.tr.s.Order != subset.Affine {
 		return nil
@@ -54,7 +68,23 @@ func (c *correlation) keepFor(i int) *subset.Samples {
 		c.spare = c.spare[:n-1]
 		return s
 	}
+	if c.tr.samplesMade >= maxSamples {
+		return nil
+	}
+	c.tr.samplesMade++
 	return subset.NewSamples(c.tr.s.Subset / 2)
+}
+
+// reclaim returns every sample buffer of the correlation, spare or still
+// held, for the next frame's.
+func (c *correlation) reclaim() []*subset.Samples {
+	for i, s := range c.samples {
+		if s != nil {
+			c.spare = append(c.spare, s)
+			c.samples[i] = nil
+		}
+	}
+	return c.spare
 }
 
 // release returns point i's samples, if any, to the spare buffers.
@@ -68,27 +98,18 @@ func (c *correlation) release(i int) {
 	}
 }
 
-// run correlates every trackable point: seeds by integer search, then a
-// parallel pass from the previous frame's solutions (prev, shifted by the
-// seeds' jump), then reliability-guided propagation (Pan 2009) over the
-// rest, reseeding unreached parts. prev may be nil.
-func (c *correlation) run(prev []subset.Params, prevOK []bool) []subset.Result {
+// run correlates every trackable point: seeds by integer search around
+// their first guesses from the frames before (st; nil: none), then
+// reliability-guided propagation (Pan 2009) over the rest, reseeding
+// unreached parts. Each propagated point starts from its neighbour's
+// shape and, where that does not match well, from its own motion in the
+// frames before shifted by its part's seed jump (see starts).
+func (c *correlation) run(st *starts) []subset.Result {
 	t := c.tr
+	c.st = st
+	c.jump = make([][2]float64, len(t.seeds))
 	for comp, cands := range t.seeds {
-		offset, ok := c.seed(cands, prev, prevOK)
-		if !ok || prev == nil {
-			continue
-		}
-		c.jobs = c.jobs[:0]
-		for i, k := range t.comp {
-			if k == comp && c.state[i] == pending && prevOK[i] {
-				g := prev[i]
-				g[subset.PU] += offset[0]
-				g[subset.PV] += offset[1]
-				c.jobs = append(c.jobs, job{I: i, X: c.centres[i][0], Y: c.centres[i][1], Guess: g, Full: c.full(i)})
-			}
-		}
-		c.solveJobs()
+		c.jump[comp], _ = c.seed(cands, st)
 	}
 	c.propagate()
 	for tries := 0; tries < maxReseeds; tries++ {
@@ -104,7 +125,7 @@ func (c *correlation) run(prev []subset.Params, prevOK []bool) []subset.Result {
 		if len(cands) == 0 {
 			break
 		}
-		if _, ok := c.seed(cands, prev, prevOK); !ok {
+		if _, ok := c.seed(cands, st); !ok {
 			for _, i := range cands {
 				c.state[i] = failed
 			}
@@ -144,17 +165,17 @@ func (c *correlation) flagResiduals() {
 }
 
 // seed tries the candidates in order until one gives a reliable match by
-// integer search around its previous solution and IC-GN refinement. It
-// returns the jump of the seed from its previous solution.
-func (c *correlation) seed(cands []int, prev []subset.Params, prevOK []bool) ([2]float64, bool) {
+// integer search around its first guess from the frames before and IC-GN
+// refinement. It returns the jump of the seed from that guess.
+func (c *correlation) seed(cands []int, st *starts) ([2]float64, bool) {
 	t := c.tr
 	for _, i := range cands {
 		if c.state[i] != pending {
 			continue
 		}
 		var g subset.Params
-		if prev != nil && prevOK[i] {
-			g = prev[i]
+		if st != nil && st.ok[i] {
+			g = st.guess[i]
 		}
 		x, y := c.centres[i][0], c.centres[i][1]
 		m, err := SearchInteger(c.refImg, c.image, x, y, t.s.Subset/2,
@@ -225,6 +246,12 @@ func (c *correlation) propagate() {
 				c.state[q] = failed // claimed for this batch; solveJobs files it
 				qx, qy := c.centres[q][0], c.centres[q][1]
 				j := job{I: q, X: qx, Y: qy, Full: c.full(q), Keep: c.keepFor(q)}
+				if st := c.st; st != nil && st.ok[q] {
+					jump := c.jump[c.tr.comp[q]]
+					j.Either, j.Alt, j.Accept = true, st.guess[q], acceptBelow(c.res[p].ZNCC)
+					j.Alt[subset.PU] += jump[0]
+					j.Alt[subset.PV] += jump[1]
+				}
 				if prior.OK() {
 					// Start from the shape p was last sampled at (within
 					// the stopping tolerance of its final one), so that q

@@ -40,8 +40,21 @@ type Tracker struct {
 	prev      *Field          // last field returned
 	prevInc   []subset.Params // last solution against the current reference
 	prevIncOK []bool
-	last      *subset.Image // last frame, a candidate new reference
-	lastIndex int
+	prevIndex int // its frame's index
+	// The solution of the frame before prev's against the same reference
+	// (nil if none), for extrapolating each point's motion in time.
+	olderInc   []subset.Params
+	olderIncOK []bool
+	olderIndex int
+	last       *subset.Image  // last frame, a candidate new reference
+	cur        *subset.Spline // the frame being tracked, reloaded frame after frame
+	// spare are sample buffers for propagation kept from frame to frame:
+	// a frame holds up to one per point of its propagation queue, 3.5 kB
+	// each for 21 px subsets, which would otherwise be left to the
+	// collector each frame.
+	spare       []*subset.Samples
+	samplesMade int // buffers made, at most maxSamples
+	lastIndex   int
 }
 
 // NewTracker prepares tracking of the grid over mask (nil: the whole
@@ -241,8 +254,13 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 		return nil, fmt.Errorf("frame %d (%s): size %dx%d, expected %dx%d like the reference", index, name, img.Width, img.Height, t.origin.Width, t.origin.Height)
 	}
 	img, bad := fillUnmeasured(img)
-	sp := subset.NewSpline(img, t.s.Interpolation)
-	inc := t.correlateFrame(img, sp, bad, t.prevInc, t.prevIncOK)
+	if t.cur == nil {
+		t.cur = subset.NewSpline(img, t.s.Interpolation)
+	} else {
+		t.cur.Reload(img)
+	}
+	sp := t.cur
+	inc := t.correlateFrame(img, sp, bad, t.startsFor(index))
 	f := t.compose(inc, index, name)
 	if t.s.Reference == IncrementalReference && t.last != nil && t.lastIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {
 		// Correlation has degraded: move the reference to the last frame
@@ -250,14 +268,18 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 		// The points whose subsets reached unmeasured pixels of that frame
 		// were lost there, so none is correlated against them now.
 		t.setReference(t.last, t.lastIndex, t.prev, nil)
-		inc = t.correlateFrame(img, sp, bad, nil, nil)
+		inc = t.correlateFrame(img, sp, bad, nil)
 		f = t.compose(inc, index, name)
 	}
+	// After a reference update prevInc is nil: nothing older against the
+	// new reference.
+	t.olderInc, t.olderIncOK, t.olderIndex = t.prevInc, t.prevIncOK, t.prevIndex
 	t.prevInc = make([]subset.Params, len(inc))
 	t.prevIncOK = make([]bool, len(inc))
 	for i, r := range inc {
 		t.prevInc[i], t.prevIncOK[i] = r.P, r.Status == subset.Converged
 	}
+	t.prevIndex = index
 	t.prev = f
 	if t.s.Reference == IncrementalReference {
 		t.last, t.lastIndex = img, index
@@ -267,40 +289,61 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 
 // correlateFrame correlates a frame whose unmeasured pixels (nil: none)
 // were filled, and flags lost the points whose deformed subsets reach them.
-func (t *Tracker) correlateFrame(img *subset.Image, sp *subset.Spline, bad *unmeasured, prev []subset.Params, prevOK []bool) []subset.Result {
-	res := t.correlate(img, sp, prev, prevOK)
+func (t *Tracker) correlateFrame(img *subset.Image, sp *subset.Spline, bad *unmeasured, st *starts) []subset.Result {
+	res := t.correlate(img, sp, st)
 	if bad != nil {
 		bad.flag(res, t.centres, t.s.Subset/2)
 	}
 	return res
 }
 
-// Resume continues tracking after frame f (read back from its file) as
-// if Track had just returned it: the next frame starts from f's solution.
-// Only the fixed reference can resume this way; an incremental run holds
-// its current reference image, so it is tracked again from the start.
-func (t *Tracker) Resume(f *Field) error {
+// Resume continues tracking after the given frames (read back from their
+// files, oldest first; the last is the frame just tracked) as if Track had
+// just returned them: the next frame starts from the last one's solution
+// and, when the frame before it is given too, extrapolates each point's
+// motion from the two as Track does, so a resumed run makes the choices of
+// an uninterrupted one. Only the fixed reference can resume this way; an
+// incremental run holds its current reference image, so it is tracked
+// again from the start.
+func (t *Tracker) Resume(fields ...*Field) error {
 	if t.s.Reference != FixedReference {
 		return fmt.Errorf("resume: the %s reference strategy cannot resume mid-sequence", t.s.Reference)
 	}
-	if f.Grid != t.grid {
-		return fmt.Errorf("resume: frame %s is on another grid (%+v, expected %+v)", f.Name, f.Grid, t.grid)
+	if len(fields) == 0 {
+		return fmt.Errorf("resume: no frame to resume after")
 	}
+	for _, f := range fields {
+		if f.Grid != t.grid {
+			return fmt.Errorf("resume: frame %s is on another grid (%+v, expected %+v)", f.Name, f.Grid, t.grid)
+		}
+	}
+	solution := func(f *Field) ([]subset.Params, []bool) {
+		p, ok := make([]subset.Params, len(f.Points)), make([]bool, len(f.Points))
+		for i := range f.Points {
+			p[i], ok[i] = f.Points[i].P, f.Points[i].Valid()
+		}
+		return p, ok
+	}
+	f := fields[len(fields)-1]
 	t.prev = f
-	t.prevInc = make([]subset.Params, len(f.Points))
-	t.prevIncOK = make([]bool, len(f.Points))
-	for i := range f.Points {
-		t.prevInc[i], t.prevIncOK[i] = f.Points[i].P, f.Points[i].Valid()
+	t.prevInc, t.prevIncOK = solution(f)
+	t.prevIndex = f.Index
+	t.olderInc, t.olderIncOK = nil, nil
+	if len(fields) > 1 {
+		o := fields[len(fields)-2]
+		t.olderInc, t.olderIncOK = solution(o)
+		t.olderIndex = o.Index
 	}
 	return nil
 }
 
 // correlate runs one frame against the current reference.
-func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, prev []subset.Params, prevOK []bool) []subset.Result {
+func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, st *starts) []subset.Result {
 	n := t.grid.Len()
 	c := &correlation{
 		tr: t, ref: t.refSp, def: sp, refImg: t.ref, image: img, mask: t.refMask,
 		centres: t.centres, state: make([]uint8, n), res: make([]subset.Result, n),
+		spare: t.spare,
 	}
 	for i := range c.state {
 		switch {
@@ -312,7 +355,9 @@ func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, prev []subset.
 			c.res[i].Status = t.base.Points[i].Status
 		}
 	}
-	return c.run(prev, prevOK)
+	res := c.run(st)
+	t.spare = c.reclaim()
+	return res
 }
 
 // compose turns solutions against the current reference into the field
@@ -368,6 +413,7 @@ func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *su
 	t.centres = make([][2]int, n)
 	t.frac = make([][2]float64, n)
 	t.prevInc, t.prevIncOK = nil, nil
+	t.olderInc, t.olderIncOK = nil, nil
 	for i := 0; i < n; i++ {
 		x, y := t.grid.Pos(i)
 		t.centres[i] = [2]int{x, y}

@@ -1,28 +1,39 @@
 #!/usr/bin/env bash
 # Memory and speed of a long run: renders a synthetic sequence of N frames
-# of 1000×1000 px (a slow rigid drift with uniform strain), runs the whole
-# job on it with `spallscope run`, and prints the peak resident memory and
-# the frame rate of tracking. Usage: scripts/bench-memory.sh [N] [STEP]
+# of SIZE px (default 1000x1000; 5472x3648 for a 20 MP camera) under a
+# uniform strain, runs the whole job on it with `spallscope run`, and
+# prints the peak resident memory and the frame rate of tracking.
+# Usage: [SIZE=WxH] [SUBSET=21] [BIN=path] scripts/bench-memory.sh [N] [STEP]
+# BIN runs another build (an older one, say) on the same frames.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 n=${1:-300}
 step=${2:-5}
-work=${WORK:-out/bench-memory}
+size=${SIZE:-1000x1000}
+subset=${SUBSET:-21}
+case "$size" in
+  *[!0-9x]*|x*|*x|*x*x*|"") echo "SIZE=$size: want WIDTHxHEIGHT in px" >&2; exit 2 ;;
+esac
+case "$subset" in
+  *[!0-9]*|"") echo "SUBSET=$subset: want a subset size in px" >&2; exit 2 ;;
+esac
+work=${WORK:-out/bench-memory-$size}
 mkdir -p "$work"
 go build -o bin/spallscope ./cmd/spallscope
+bin=${BIN:-./bin/spallscope}
 if [ ! -f "$work/synth/truth.json" ]; then
-  ./bin/spallscope synth --field strain --exx 0.002 --eyy -0.001 --size 1000x1000 \
+  ./bin/spallscope synth --field strain --exx 0.002 --eyy -0.001 --size "$size" \
     --frames "$n" --oversample 1 --noise 1 --out "$work/synth" >/dev/null
 fi
 cat > "$work/test.yaml" <<YAML
 name: memory
 images: synth/frames
 times: {fps: 1}
-correlation: {subset: 21, step: $step}
+correlation: {subset: $subset, step: $step}
 strain: {window: 7}
 YAML
 rm -rf "$work/run"
-/usr/bin/time -v ./bin/spallscope run "$work/test.yaml" --out "$work/run" 2> "$work/time.txt" >/dev/null
+/usr/bin/time -v "$bin" run "$work/test.yaml" --out "$work/run" 2> "$work/time.txt" >/dev/null
 grep -E "Maximum resident set size|Elapsed" "$work/time.txt"
 python3 - "$work/run/run.json" <<'PY'
 import json, sys

@@ -80,18 +80,33 @@ func NewSpline(img *Image, kind Interpolation) *Spline {
 	if img.Width < 1 || img.Height < 1 {
 		panic(fmt.Sprintf("subset: NewSpline of empty %dx%d image", img.Width, img.Height))
 	}
-	if len(img.Pix) != img.Width*img.Height {
-		panic(fmt.Sprintf("subset: NewSpline: %dx%d image has %d pixels", img.Width, img.Height, len(img.Pix)))
-	}
-	poles := splinePoles(kind)
 	w, h := img.Width, img.Height
-	sp := &Spline{
-		kind:   kind,
-		width:  w,
-		height: h,
-		stride: w + 2*splinePad,
-	}
+	sp := &Spline{kind: kind, width: w, height: h, stride: w + 2*splinePad}
 	sp.coef = make([]float64, sp.stride*(h+2*splinePad))
+	sp.fit(img)
+	return sp
+}
+
+// Reload makes sp the interpolant of img, an image of sp's size, in
+// sp's own storage: a tracker reloads one Spline frame after frame rather
+// than leaving a new one of 8 bytes per pixel to the garbage collector
+// each frame. Readers of sp must be done with it. Reload panics if img's
+// size differs from sp's or its Pix slice does not match its size.
+func (sp *Spline) Reload(img *Image) {
+	if img.Width != sp.width || img.Height != sp.height {
+		panic(fmt.Sprintf("subset: Reload of a %dx%d spline with a %dx%d image", sp.width, sp.height, img.Width, img.Height))
+	}
+	sp.fit(img)
+}
+
+// fit computes the coefficients of img, of sp's size, into sp.coef; every
+// coefficient, padding included, is written.
+func (sp *Spline) fit(img *Image) {
+	if len(img.Pix) != img.Width*img.Height {
+		panic(fmt.Sprintf("subset: spline of a %dx%d image of %d pixels", img.Width, img.Height, len(img.Pix)))
+	}
+	poles := splinePoles(sp.kind)
+	w, h := sp.width, sp.height
 
 	// The filters along an axis have a combined gain Π(1-z)(1-1/z), applied
 	// once up front for both axes; an axis of one pixel is not filtered.
@@ -144,7 +159,6 @@ func NewSpline(img *Image, kind Interpolation) *Spline {
 		}
 	})
 	sp.fillPadding()
-	return sp
 }
 
 // splinePoles returns the poles of the direct B-spline filter of the given

@@ -3,6 +3,7 @@ package subset
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/dsp/fourier"
@@ -400,4 +401,25 @@ func BenchmarkValueGrad(b *testing.B) {
 			}
 		})
 	}
+}
+
+// A spline reloaded with another image is that image's spline to the last
+// bit (the coefficients, padding included, are all rewritten), for both
+// kernels; a reload with an image of another size panics.
+func TestSplineReload(t *testing.T) {
+	a, b := testPattern(51).render(40, 30, nil), testPattern(52).render(40, 30, nil)
+	for _, kind := range []Interpolation{Bicubic, Biquintic} {
+		sp := NewSpline(a, kind)
+		sp.Reload(b)
+		want := NewSpline(b, kind)
+		if !slices.Equal(sp.coef, want.coef) {
+			t.Errorf("%v: reloaded coefficients differ from a new spline's", kind)
+		}
+	}
+	defer func() {
+		if recover() == nil {
+			t.Errorf("Reload with a 40x31 image into a 40x30 spline did not panic")
+		}
+	}()
+	NewSpline(a, Bicubic).Reload(testPattern(53).render(40, 31, nil))
 }

@@ -11,6 +11,7 @@ const (
 	DefaultTolerance        = 1e-3
 	DefaultMinValidFraction = 0.75
 	DefaultMaxZNSSD         = 1.0
+	DefaultNoiseTolerance   = 4
 )
 
 // Config sets up a Solver. Zero fields take the documented defaults.
@@ -23,7 +24,8 @@ type Config struct {
 	// MaxIterations bounds the Gauss–Newton iterations (default 50).
 	MaxIterations int
 	// Tolerance is the convergence threshold in pixels (default 1e-3): the
-	// iteration stops when an update moves every subset corner by less.
+	// iteration stops when an update moves every subset corner by less
+	// (or by less than NoiseTolerance allows).
 	Tolerance float64
 	// MinValidFraction is the smallest fraction of subset pixels that must
 	// lie inside the mask (default 0.75); below it the status is Masked.
@@ -36,6 +38,17 @@ type Config struct {
 	// exceeds it is Lost (default 1.0, that is ZNCC below 0.5; common
 	// practice, no source). A negative value disables the gate.
 	MaxZNSSD float64
+	// NoiseTolerance widens the convergence threshold on noisy images
+	// (default 4; negative: off): the iteration also stops when an update
+	// moves every corner by less than NoiseTolerance times the subset's
+	// predicted displacement precision σ (see Solver.precision), which
+	// the noise of the images, not the solver, limits. A Gauss–Newton step
+	// from that close lands within a small fraction of the step of the
+	// optimum, so stopping there changes the answer by far less than σ;
+	// without it a noisy subset spends an extra sampling of the deformed
+	// image confirming an update already below its noise. On noise-free
+	// images σ is tiny and Tolerance rules.
+	NoiseTolerance float64
 }
 
 // withDefaults returns c with zero fields replaced by their defaults.
@@ -51,6 +64,9 @@ func (c Config) withDefaults() Config {
 	}
 	if c.MaxZNSSD == 0 {
 		c.MaxZNSSD = DefaultMaxZNSSD
+	}
+	if c.NoiseTolerance == 0 {
+		c.NoiseTolerance = DefaultNoiseTolerance
 	}
 	return c
 }
@@ -72,6 +88,8 @@ func (c Config) Validate() error {
 		return fmt.Errorf("subset: min SSSIG %g, want at least 0", c.MinSSSIG)
 	case math.IsNaN(c.MaxZNSSD):
 		return fmt.Errorf("subset: max ZNSSD is NaN")
+	case math.IsNaN(c.NoiseTolerance) || math.IsInf(c.NoiseTolerance, 0):
+		return fmt.Errorf("subset: noise tolerance %g, want finite", c.NoiseTolerance)
 	}
 	return nil
 }
@@ -126,6 +144,7 @@ type Solver struct {
 	sumJf  [12]float64  // Σ J·(f - f̄)
 	chol   [144]float64 // Cholesky factor of the Hessian, leading np×np
 	scale  [12]float64  // parameter scales for the rank test
+	invUV  float64      // (H⁻¹)_uu + (H⁻¹)_vv, see precision
 
 	// Scratch: the reference window (side² values and gradients), the
 	// stencil columns of centres, and the warped positions and deformed
@@ -133,6 +152,10 @@ type Solver struct {
 	winV, winX, winY []float64
 	colV, colD       []float64
 	xs, ys, gs       []float64
+	// The affine warp of the current iteration: where each run's first
+	// pixel lands, and the step along the runs (see affineWarp).
+	ox, oy []float64
+	ax, ay float64
 
 	// Shared samples of the current SolveShared (nil otherwise), and the
 	// shape the last Iterate sampled at.
@@ -169,7 +192,8 @@ func NewSolver(cfg Config) *Solver {
 		np:  np,
 		// A row of side pixels holds at most (side+1)/2 runs.
 		runs: make([]run, 0, side*((side+1)/2)),
-		dx:   next(area), dy: next(area),
+		ox:   make([]float64, side*((side+1)/2)), oy: make([]float64, side*((side+1)/2)),
+		dx: next(area), dy: next(area),
 		fc: next(area), gx: next(area), gy: next(area),
 		winV: next(area), winX: next(area), winY: next(area),
 		xs: next(area), ys: next(area), gs: next(area),
@@ -243,7 +267,30 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	if !choleskyFactor(&s.chol, s.np, &s.scale) {
 		return LowTexture
 	}
+	s.setInvUV()
 	return Converged
+}
+
+// setInvUV sets invUV from the Cholesky factor of the Hessian: the
+// displacement entries of the diagonal of H⁻¹, by two solves.
+func (s *Solver) setInvUV() {
+	var eu, ev [12]float64
+	eu[PU], ev[PV] = 1, 1
+	choleskySolve(&s.chol, s.np, &eu)
+	choleskySolve(&s.chol, s.np, &ev)
+	s.invUV = eu[PU] + ev[PV]
+}
+
+// precision returns the predicted precision (RMS length of the error
+// vector) of the subset's displacement at a sampling of the given ZNSSD:
+// the least-squares covariance σ_e²·H⁻¹ of the Gauss–Newton estimate with
+// σ_e² = ‖f - f̄‖²·ZNSSD/n the residual variance per pixel, which holds
+// the noise of both images (Pan et al. 2008, "Study on subset size
+// selection in digital image correlation for speckle patterns", Optics
+// Express 16(10):7037–7048: with σ_e² = 2σ² and a diagonal H this is
+// PredictedNoise per component).
+func (s *Solver) precision(znssd float64) float64 {
+	return math.Sqrt(max(znssd, 0) * s.fNorm * s.fNorm / float64(s.n) * s.invUV)
 }
 
 // sum4 returns Σ v. Four partial sums break the chain of dependent
@@ -356,12 +403,88 @@ func (s *Solver) gather(mask []uint8, stride int) int {
 // Converged, Iterate returns its status with P = guess. Iterate panics if
 // Prepare was never called.
 func (s *Solver) Iterate(def *Spline, guess Params) Result {
+	return s.iterate(def, guess, nil, 0)
+}
+
+// IterateEither is Iterate from the better of two first guesses: guess is
+// sampled first and kept when its ZNSSD is at most accept; otherwise alt
+// is sampled too, and the iterations go on from whichever of the two has
+// the lower ZNSSD, its sampling serving as their first iteration. A run
+// passes the point's own solution extrapolated in time as guess and its
+// last solution as alt, with accept a little above the ZNSSD it had
+// there: along a steady ramp the extrapolation is kept after one
+// sampling, and where the motion changes (a hold, an unloading) the
+// second sampling finds the better start. The rejected sampling counts in
+// Result.Iterations, which is thus the number of samplings of the
+// deformed subset.
+func (s *Solver) IterateEither(def *Spline, guess, alt Params, accept float64) Result {
+	return s.iterate(def, guess, &alt, accept)
+}
+
+// deformedSums are the sums over one sampling of the deformed subset g
+// (offset by the reference mean f̄) that an IC-GN update needs: Σg, Σg²,
+// Σ(f - f̄)·g and Σ J·g.
+type deformedSums struct {
+	sg, sgg, sfg float64
+	sJg          [12]float64
+}
+
+// sample warps the subset by p, samples def there (taking the values
+// shared with s.prior when shared) and sets d to the sums. It reports
+// false, sampling nothing, when the warped subset leaves the image.
+func (s *Solver) sample(def *Spline, p *Params, shared bool, d *deformedSums) bool {
+	maxX, maxY := float64(def.width-1), float64(def.height-1)
+	var inside bool
+	if s.cfg.Order == Affine {
+		inside = s.affineWarp(p, maxX, maxY)
+	} else {
+		inside = s.quadraticWarp(p, maxX, maxY)
+	}
+	if !inside {
+		return false
+	}
+	switch {
+	case shared:
+		s.sampleShared(def)
+	case s.cfg.Order == Affine:
+		for k, rn := range s.runs {
+			def.lineValues(s.ox[k], s.oy[k], s.ax, s.ay, 0, s.gs[rn.k0:rn.k0+rn.n])
+		}
+	default:
+		def.values(s.xs[:s.n], s.ys[:s.n], s.gs[:s.n])
+	}
+	s.sampledAt, s.sampled = *p, true
+	*d = deformedSums{}
+	if s.cfg.Order == Affine {
+		d.sg, d.sgg, d.sfg = s.affineSums(&d.sJg)
+	} else {
+		d.sg, d.sgg, d.sfg = s.quadraticSums(&d.sJg)
+	}
+	return true
+}
+
+// criterion returns the ZNSSD of a sampling and the norm ‖g - ḡ‖ of the
+// deformed subset; ok is false for a flat deformed subset.
+func (s *Solver) criterion(d *deformedSums) (znssd, gNorm float64, ok bool) {
+	gm := d.sg / float64(s.n)
+	gvar := d.sgg - d.sg*gm
+	if !(gvar > 0) {
+		return 0, 0, false
+	}
+	gNorm = math.Sqrt(gvar)
+	return 2 - 2*d.sfg/(s.fNorm*gNorm), gNorm, true
+}
+
+func (s *Solver) iterate(def *Spline, guess Params, alt *Params, accept float64) Result {
 	if s.ref == nil {
 		panic("subset: Iterate before Prepare")
 	}
 	if s.cfg.Order == Affine {
 		for i := 6; i < 12; i++ {
 			guess[i] = 0
+			if alt != nil {
+				alt[i] = 0
+			}
 		}
 	}
 	res := Result{P: guess, Status: s.status}
@@ -369,62 +492,57 @@ func (s *Solver) Iterate(def *Spline, guess Params) Result {
 	if s.status != Converged {
 		return res
 	}
-	np, n := s.np, s.n
-	affine := s.cfg.Order == Affine
-	maxX, maxY := float64(def.width-1), float64(def.height-1)
+	np := s.np
 	drift := float64(s.cfg.Radius)
 	p := guess
 	res.Status = Diverged
-	if !p.IsFinite() {
-		return res
-	}
+	extra := 0 // a rejected first guess's sampling
+	var d deformedSums
 	for it := 1; it <= s.cfg.MaxIterations; it++ {
 		// Warp the subset, sample the deformed image there and accumulate
 		// the sums that give its mean, its norm, the ZNSSD and the
 		// right-hand side Σ J·[(f - f̄) - (‖f - f̄‖/‖g - ḡ‖)(g - ḡ)]. Gray
 		// levels are offset by the reference mean to keep the sums well
 		// conditioned.
-		var inside bool
-		if affine {
-			inside = s.affineWarp(&p, maxX, maxY)
-		} else {
-			inside = s.quadraticWarp(&p, maxX, maxY)
+		inside := p.IsFinite() && s.sample(def, &p, it == 1 && s.prior != nil, &d)
+		var znssd, gNorm float64
+		flat := false
+		if inside {
+			znssd, gNorm, inside = s.criterion(&d)
+			flat = !inside
+		}
+		if it == 1 && alt != nil && !(inside && znssd <= accept) && alt.IsFinite() {
+			var da deformedSums
+			q := *alt
+			if s.sample(def, &q, false, &da) {
+				extra = 1
+				if za, gna, ok := s.criterion(&da); ok && (!inside || za < znssd) {
+					p, guess, res.P = q, q, q
+					d, znssd, gNorm, inside, flat = da, za, gna, true, false
+				}
+			}
 		}
 		if !inside {
-			res.Status = OutOfImage
+			if flat {
+				return res // a flat deformed subset
+			}
+			if p.IsFinite() {
+				res.Status = OutOfImage
+			}
 			return res
 		}
-		if it == 1 && s.prior != nil {
-			s.sampleShared(def)
-		} else {
-			def.values(s.xs[:n], s.ys[:n], s.gs[:n])
-		}
-		s.sampledAt, s.sampled = p, true
-		var sg, sgg, sfg float64
-		var sJg [12]float64
-		if affine {
-			sg, sgg, sfg = s.affineSums(&sJg)
-		} else {
-			sg, sgg, sfg = s.quadraticSums(&sJg)
-		}
-		gm := sg / float64(n)
-		gvar := sgg - sg*gm
-		if !(gvar > 0) {
-			return res // a flat deformed subset
-		}
-		gNorm := math.Sqrt(gvar)
-		znssd := 2 - 2*sfg/(s.fNorm*gNorm)
+		gm := d.sg / float64(s.n)
 		res.ZNCC = ZNCCFromZNSSD(znssd)
 		ratio := s.fNorm / gNorm
 		var dp Params
 		var b [12]float64
 		for a := 0; a < np; a++ {
-			b[a] = -(s.sumJf[a] - ratio*(sJg[a]-gm*s.sumJ[a]))
+			b[a] = -(s.sumJf[a] - ratio*(d.sJg[a]-gm*s.sumJ[a]))
 		}
 		choleskySolve(&s.chol, np, &b)
 		copy(dp[:np], b[:np])
 		next, err := p.ComposeInverse(dp, s.cfg.Order)
-		res.Iterations = it
+		res.Iterations = it + extra
 		if err != nil || !next.IsFinite() {
 			return res
 		}
@@ -436,7 +554,7 @@ func (s *Solver) Iterate(def *Spline, guess Params) Result {
 		if math.Abs(p[PU]-guess[PU]) > drift || math.Abs(p[PV]-guess[PV]) > drift {
 			return res
 		}
-		if dp.cornerMotion(float64(s.cfg.Radius)) < s.cfg.Tolerance {
+		if stop := dp.cornerMotion(float64(s.cfg.Radius)); stop < s.cfg.Tolerance || stop < s.cfg.NoiseTolerance*s.precision(znssd) {
 			if s.cfg.MaxZNSSD >= 0 && znssd > s.cfg.MaxZNSSD {
 				res.Status = Lost
 			} else {

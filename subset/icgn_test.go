@@ -380,6 +380,7 @@ func TestConfigValidate(t *testing.T) {
 		{Radius: 0}, {Radius: 5, Order: 7}, {Radius: 5, MaxIterations: -1},
 		{Radius: 5, Tolerance: math.NaN()}, {Radius: 5, MinValidFraction: 1.5},
 		{Radius: 5, MinSSSIG: -1}, {Radius: 5, MaxZNSSD: math.NaN()},
+		{Radius: 5, NoiseTolerance: math.NaN()}, {Radius: 5, NoiseTolerance: math.Inf(1)},
 	}
 	for _, c := range bad {
 		if err := c.Validate(); err == nil {
@@ -387,8 +388,8 @@ func TestConfigValidate(t *testing.T) {
 		}
 	}
 	got := NewSolver(Config{Radius: 5}).Config()
-	if got.MaxIterations != 50 || got.Tolerance != 1e-3 || got.MinValidFraction != 0.75 || got.MaxZNSSD != 1 {
-		t.Errorf("defaults %+v, want 50 iterations, 1e-3 px, 0.75, 1", got)
+	if got.MaxIterations != 50 || got.Tolerance != 1e-3 || got.MinValidFraction != 0.75 || got.MaxZNSSD != 1 || got.NoiseTolerance != 4 {
+		t.Errorf("defaults %+v, want 50 iterations, 1e-3 px, 0.75, 1, 4", got)
 	}
 }
 
@@ -409,5 +410,104 @@ func BenchmarkSolve(b *testing.B) {
 				b.ReportMetric(float64(iters)/float64(b.N), "iters/op")
 			})
 		}
+	}
+}
+
+// IterateEither keeps its first guess when that one matches within accept
+// and then equals Iterate from it bit for bit; when the first guess is far
+// off (4 px: no overlap of the speckle periods it would need) it goes on
+// from the second, equals Iterate from that one but for the rejected
+// sampling counted in Iterations, and recovers the imposed translation
+// (known answer) within 0.005 px, the product requirement.
+func TestIterateEither(t *testing.T) {
+	pat := testPattern(29)
+	ref := NewSpline(pat.render(testSize, testSize, nil), Bicubic)
+	const u, v = 0.45, -0.3
+	def := NewSpline(pat.render(testSize, testSize, func(x, y float64) (float64, float64) { return x - u, y - v }), Bicubic)
+	s := NewSolver(Config{Radius: 10})
+	if st := s.Prepare(ref, nil, 64, 64); st != Converged {
+		t.Fatalf("Prepare: %v", st)
+	}
+	near, far := Translation(0.4, -0.25), Translation(u+7, v-6)
+	fromNear := s.Iterate(def, near)
+	fromFar := s.Iterate(def, far)
+	if fromNear.Status != Converged || math.Abs(fromNear.P[PU]-u) > 0.005 || math.Abs(fromNear.P[PV]-v) > 0.005 {
+		t.Fatalf("from the near guess: %v %v", fromNear.Status, fromNear.P)
+	}
+	if fromFar.Status == Converged && math.Abs(fromFar.P[PU]-u) < 0.005 && math.Abs(fromFar.P[PV]-v) < 0.005 {
+		t.Fatalf("the far guess converges on its own (%v): the case does not test the second guess", fromFar.P)
+	}
+	// Either way round with accept = +Inf: the first guess is kept.
+	if got := s.IterateEither(def, near, far, math.Inf(1)); got != fromNear {
+		t.Errorf("near first, accepted: %+v, want %+v", got, fromNear)
+	}
+	// accept = −1 samples both: the near one wins whichever comes first.
+	want := fromNear
+	want.Iterations++
+	for _, pair := range [][2]Params{{near, far}, {far, near}} {
+		if got := s.IterateEither(def, pair[0], pair[1], -1); got != want {
+			t.Errorf("first %v, second %v: %+v, want %+v", pair[0][:2], pair[1][:2], got, want)
+		}
+	}
+	// A first guess outside the image falls back on the second.
+	if got := s.IterateEither(def, Translation(200, 0), near, 0); got != want {
+		t.Errorf("first guess outside the image: %+v, want %+v", got, want)
+	}
+	if n := testing.AllocsPerRun(20, func() { s.SolveEither(ref, def, nil, 64, 64, far, near, 0, nil, nil, nil) }); n != 0 {
+		t.Errorf("%g allocations per SolveEither, want 0", n)
+	}
+}
+
+// NoiseTolerance stops a noisy subset once its update is below a few times
+// its predicted precision. On noisy images (σ = 2 gray levels in both, a
+// subpixel translation, started 0.03 px off as from a neighbour's shape)
+// the answers must stay within a tenth of the predicted noise of those of
+// the strict 1e-3 px rule (RMS over 144 subsets; a tenth adds half a
+// per cent to the error), with fewer samplings; and the precision the
+// solver predicts from its residual must agree with √2·σ/√SSSIG per
+// component (Pan et al. 2008, as in TestSolveNoise) within 30 % RMS,
+// lower rather than higher because the interpolation smooths the
+// deformed image's noise at subpixel positions.
+func TestNoiseTolerance(t *testing.T) {
+	const r, sigma, spacing, grid = 10, 2.0, 2*10 + 1, 12
+	const u, v = 0.3, -0.45
+	size := grid*spacing + 2*r + 8
+	pat := newWavePattern(rand.New(rand.NewPCG(31, 31)), 24, 6, 20, 40)
+	clean := pat.render(size, size, nil)
+	rng := rand.New(rand.NewPCG(32, 32))
+	ref := NewSpline(addNoise(clean, rng, sigma), Bicubic)
+	def := NewSpline(addNoise(pat.render(size, size, func(x, y float64) (float64, float64) { return x - u, y - v }), rng, sigma), Bicubic)
+	cleanSpline := NewSpline(clean, Bicubic)
+	loose, strict := NewSolver(Config{Radius: r}), NewSolver(Config{Radius: r, NoiseTolerance: -1})
+	var diff2, pred2, ratio2 float64
+	var itLoose, itStrict, n int
+	for j := range grid {
+		for i := range grid {
+			x, y := r+4+i*spacing, r+4+j*spacing
+			guess := Translation(u+0.03, v-0.02)
+			a := loose.Solve(ref, def, nil, x, y, guess)
+			b := strict.Solve(ref, def, nil, x, y, guess)
+			if a.Status != Converged || b.Status != Converged {
+				t.Fatalf("subset at (%d, %d): status %v and %v", x, y, a.Status, b.Status)
+			}
+			sx, sy := SSSIGXY(cleanSpline, x, y, r)
+			pu, pv := PredictedNoise(sigma, sx), PredictedNoise(sigma, sy)
+			diff2 += (a.P[PU]-b.P[PU])*(a.P[PU]-b.P[PU]) + (a.P[PV]-b.P[PV])*(a.P[PV]-b.P[PV])
+			pred2 += pu*pu + pv*pv
+			q := strict.precision(2*(1-b.ZNCC)) / math.Sqrt(pu*pu+pv*pv)
+			ratio2 += q * q
+			itLoose += a.Iterations
+			itStrict += b.Iterations
+			n++
+		}
+	}
+	diff, ratio := math.Sqrt(diff2/pred2), math.Sqrt(ratio2/float64(n))
+	t.Logf("difference to the strict rule / predicted noise = %.4f; samplings %.2f against %.2f; predicted precision / Pan's = %.3f",
+		diff, float64(itLoose)/float64(n), float64(itStrict)/float64(n), ratio)
+	if diff > 0.1 || itLoose >= itStrict {
+		t.Errorf("difference %.4f of the predicted noise (limit 0.1), %d samplings against %d strict (want fewer)", diff, itLoose, itStrict)
+	}
+	if ratio < 0.7 || ratio > 1.3 {
+		t.Errorf("predicted precision / Pan's = %.3f, want 1 ± 0.3", ratio)
 	}
 }

@@ -3,28 +3,26 @@ package subset
 // The warp step of an IC-GN iteration: where the subset's valid pixels
 // land in the deformed image under the current shape parameters.
 
-// affineWarp sets xs and ys to the positions in the deformed image of the
-// subset's valid pixels under the affine warp p and reports whether all
-// of them lie in [0, maxX] × [0, maxY]. Along a run the position advances
-// by the constant step (1 + ux, vx) per pixel; being affine, hence
-// monotone, in the pixel index, its extremes are those of the run's ends.
+// affineWarp sets ox and oy to the positions in the deformed image of the
+// first pixel of each run under the affine warp p, and (ax, ay) to the
+// step from one pixel of a run to the next, and reports whether all the
+// subset's valid pixels lie in [0, maxX] × [0, maxY]. Pixel i of a run
+// lands at (ox + i·ax, oy + i·ay) (lineValues forms the positions on the
+// fly); being affine, hence monotone, in i, its extremes are those of the
+// run's ends.
 func (s *Solver) affineWarp(p *Params, maxX, maxY float64) bool {
 	ax, ay := 1+p[PUx], p[PVx]
-	for _, rn := range s.runs {
+	s.ax, s.ay = ax, ay
+	ox, oy := s.ox[:len(s.runs)], s.oy[:len(s.runs)]
+	for k, rn := range s.runs {
 		x0 := s.cx + rn.dx0 + p[PU] + p[PUx]*rn.dx0 + p[PUy]*rn.dy
 		y0 := s.cy + rn.dy + p[PV] + p[PVx]*rn.dx0 + p[PVy]*rn.dy
-		xs := s.xs[rn.k0 : rn.k0+rn.n]
-		ys := s.ys[rn.k0 : rn.k0+rn.n]
-		ys = ys[:len(xs)]
-		for i := range xs {
-			t := float64(i)
-			xs[i] = x0 + t*ax
-			ys[i] = y0 + t*ay
-		}
-		xa, xb, ya, yb := xs[0], xs[len(xs)-1], ys[0], ys[len(ys)-1]
-		if !(xa >= 0 && xa <= maxX && xb >= 0 && xb <= maxX && ya >= 0 && ya <= maxY && yb >= 0 && yb <= maxY) {
+		t := float64(rn.n - 1)
+		x1, y1 := x0+t*ax, y0+t*ay
+		if !(x0 >= 0 && x0 <= maxX && x1 >= 0 && x1 <= maxX && y0 >= 0 && y0 <= maxY && y1 >= 0 && y1 <= maxY) {
 			return false
 		}
+		ox[k], oy[k] = x0, y0
 	}
 	return true
 }

@@ -66,6 +66,7 @@ func (s *Solver) restore(c *Prepared) {
 	for a := 0; a < np; a++ {
 		k += copy(s.chol[12*a:12*a+a+1], v[k:k+a+1])
 	}
+	s.setInvUV()
 }
 
 // PrepareWith is Prepare with the reference side of the subset taken from

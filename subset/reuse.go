@@ -47,6 +47,17 @@ func (s *Samples) Guess(x, y int) Params {
 // with prior's subset, and leaves in keep (when not nil) the values it
 // sampled at its last iterate. The result equals Solve's to rounding.
 func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Params, c *Prepared, prior, keep *Samples) Result {
+	return s.solveShared(ref, def, mask, x, y, guess, nil, 0, c, prior, keep)
+}
+
+// SolveEither is SolveShared iterated from the better of two first
+// guesses, guess (which prior's samples serve) and alt, the second sampled
+// only when guess's ZNSSD exceeds accept (see IterateEither).
+func (s *Solver) SolveEither(ref, def *Spline, mask []uint8, x, y int, guess, alt Params, accept float64, c *Prepared, prior, keep *Samples) Result {
+	return s.solveShared(ref, def, mask, x, y, guess, &alt, accept, c, prior, keep)
+}
+
+func (s *Solver) solveShared(ref, def *Spline, mask []uint8, x, y int, guess Params, alt *Params, accept float64, c *Prepared, prior, keep *Samples) Result {
 	s.PrepareWith(ref, mask, x, y, c)
 	s.prior = nil
 	if keep != nil {
@@ -58,7 +69,7 @@ func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Par
 			s.prior, s.priorDX, s.priorDY = prior, dx, dy
 		}
 	}
-	res := s.Iterate(def, guess)
+	res := s.iterate(def, guess, alt, accept)
 	if keep != nil && s.sampled && s.square && s.cfg.Order == Affine && len(keep.G) == s.n {
 		keep.X, keep.Y, keep.P = x, y, s.sampledAt
 		copy(keep.G, s.gs[:s.n])
@@ -68,7 +79,8 @@ func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Par
 	return res
 }
 
-// sampleShared sets gs to the deformed values at xs, ys (already warped),
+// sampleShared sets gs to the deformed values of the full square subset
+// under the affine warp already set (affineWarp: row j is run j),
 // copying those of the pixels shared with s.prior's subset and
 // interpolating the rest. Pixel (i, j) of this subset (offsets from its
 // centre) is pixel (i - dx, j - dy) of the prior's, where (dx, dy) is the
@@ -81,18 +93,19 @@ func (s *Solver) sampleShared(def *Spline) {
 	for j := -r; j <= r; j++ {
 		k0 := (j + r) * side
 		pj := j - dy
+		ox, oy := s.ox[j+r], s.oy[j+r]
 		if pj < -r || pj > r || c0 > c1 {
-			def.values(s.xs[k0:k0+side], s.ys[k0:k0+side], s.gs[k0:k0+side])
+			def.lineValues(ox, oy, s.ax, s.ay, 0, s.gs[k0:k0+side])
 			continue
 		}
 		a, b := k0+c0+r, k0+c1+r+1 // the shared span of this row
 		if a > k0 {
-			def.values(s.xs[k0:a], s.ys[k0:a], s.gs[k0:a])
+			def.lineValues(ox, oy, s.ax, s.ay, 0, s.gs[k0:a])
 		}
 		pk := (pj+r)*side + c0 - dx + r
 		copy(s.gs[a:b], s.prior.G[pk:pk+b-a])
 		if b < k0+side {
-			def.values(s.xs[b:k0+side], s.ys[b:k0+side], s.gs[b:k0+side])
+			def.lineValues(ox, oy, s.ax, s.ay, b-k0, s.gs[b:k0+side])
 		}
 	}
 }

@@ -144,15 +144,25 @@ func (tp *trackInputs) resume(dir string, tracker *dic.Tracker, from, to int) in
 	if next == from {
 		return from
 	}
-	src := runfolder.FieldPath(dir, tp.in.Seq.Name(next-1))
-	if tp.lens != nil || tp.plate != nil { // the tracker resumes from its own, photo-pixel field
-		src = runfolder.PhotoFieldPath(dir, tp.in.Seq.Name(next-1))
+	// The last field and, when there is one, the field before it: the
+	// tracker extrapolates each point's motion from the two.
+	var fs []*dic.Field
+	for k := max(from, next-2); k < next; k++ {
+		src := runfolder.FieldPath(dir, tp.in.Seq.Name(k))
+		if tp.lens != nil || tp.plate != nil { // the tracker resumes from its own, photo-pixel fields
+			src = runfolder.PhotoFieldPath(dir, tp.in.Seq.Name(k))
+		}
+		f, err := runfolder.ReadField(src)
+		if err != nil {
+			if k == next-1 {
+				return from
+			}
+			continue // without the one before: the last alone
+		}
+		f.Index = k // a field file does not hold its frame's index
+		fs = append(fs, f)
 	}
-	f, err := runfolder.ReadField(src)
-	if err == nil {
-		err = tracker.Resume(f) // leaves the tracker as it was on error
-	}
-	if err != nil {
+	if err := tracker.Resume(fs...); err != nil { // leaves the tracker as it was on error
 		return from
 	}
 	return next
