@@ -75,7 +75,13 @@ load: {file: synth/loadlog.csv, area_mm2: 480, clock_offset_s: 2}
 // base config's lines replaced by edit) beside the photos and reads it.
 func bandTest(t *testing.T, name, body string) *config.Test {
 	t.Helper()
-	dir := bandPhotos(t)
+	return writeTest(t, bandPhotos(t), name, body)
+}
+
+// writeTest writes a test config named name with body into dir and reads
+// it back as the job would.
+func writeTest(t *testing.T, dir, name, body string) *config.Test {
+	t.Helper()
 	path := filepath.Join(dir, name+".yaml")
 	if err := os.WriteFile(path, []byte(body), 0o644); err != nil {
 		t.Fatal(err)

@@ -77,15 +77,8 @@ func writeLensPhotos() (string, error) {
 // corner regions (the outer eighth of the width and height), in strain.
 func strainErrors(t *testing.T, dir, name, extra string) (all, corners float64, valid int) {
 	t.Helper()
-	path := filepath.Join(dir, name+".yaml")
 	body := "name: " + name + "\nimages: synth/frames\ncorrelation: {subset: 25, step: 8, interpolation: quintic}\nstrain: {window: 15}\n" + extra
-	if err := os.WriteFile(path, []byte(body), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	tc, err := config.Read(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	tc := writeTest(t, dir, name, body)
 	out := filepath.Join(dir, "run-"+name)
 	if _, err := Track(context.Background(), tc, out, tool, nil); err != nil {
 		t.Fatal(err)

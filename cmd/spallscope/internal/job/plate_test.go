@@ -52,14 +52,7 @@ zones: {calibrate_below: 0.4}
 load: {file: synth/loadlog.csv, area_mm2: 900}
 outputs: {overlays: false}
 ` + extra
-	path := filepath.Join(dir, name+".yaml")
-	if err := os.WriteFile(path, []byte(body), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	tc, err := config.Read(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	tc := writeTest(t, dir, name, body)
 	out := filepath.Join(dir, "run-"+name)
 	if _, err := Run(context.Background(), tc, out, tool, nil); err != nil {
 		t.Fatal(err)

@@ -10,7 +10,6 @@ import (
 	"slices"
 	"testing"
 
-	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/dic/lens"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
@@ -74,14 +73,7 @@ zones: {calibrate_below: 0.35}
 load: {file: %[1]s/loadlog.csv, area_mm2: 480, clock_offset_s: 2}
 outputs: {overlays: false, report: false}
 `, name) + extra
-	path := filepath.Join(dir, name+".yaml")
-	if err := os.WriteFile(path, []byte(body), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	tc, err := config.Read(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	tc := writeTest(t, dir, name, body)
 	out := filepath.Join(dir, "run-"+name)
 	sum, err := Run(context.Background(), tc, out, tool, nil)
 	if err != nil {
