@@ -211,7 +211,7 @@ func (d *Dating) Add(fr Frame) {
 // reached the limit. A young feature reaches the limit between the two;
 // measured on the seed tests (strain/onsetseed_test.go) the estimate
 // itself lags that frame by 0 to 3 frames, which an interval of the
-// estimate's noise alone held in 0–18 of 20 seeds.
+// estimate's noise alone held in 0–20 of 20 seeds (0–8 for the notch and the crack).
 func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 	lastCalib := 0
 	for k, c := range calibration {
