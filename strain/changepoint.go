@@ -22,8 +22,17 @@ const (
 	CurveChange ChangeModel = "curve"
 )
 
+// CubicChange is a growth that starts slower still: z_k = c·(k − onset + 1)³ — a
+// feature whose length and slip both grow from zero. It widens the
+// plausible onsets of EarliestPlausibleOnset only; the estimate keeps the
+// three shapes above.
+const CubicChange ChangeModel = "cubic"
+
 // changeModels are the shapes EstimateChange tries.
 var changeModels = []ChangeModel{StepChange, SlopeChange, CurveChange}
+
+// plausibleModels are the shapes EarliestPlausibleOnset takes.
+var plausibleModels = []ChangeModel{StepChange, SlopeChange, CurveChange, CubicChange}
 
 // ChangePoint is the maximum-likelihood estimate of when a signal began:
 // the first frame of the change (Onset, a position in the signal), its
@@ -103,6 +112,8 @@ func (m ChangeModel) shape(j float64) float64 {
 		return j
 	case CurveChange:
 		return j * j
+	case CubicChange:
+		return j * j * j
 	}
 	return 1
 }
@@ -251,6 +262,55 @@ func EstimateDriftChange(z, stress []float64, prior Prior, from, to int) (DriftC
 		}
 	}
 	return best, found
+}
+
+// EarliestPlausibleOnset is the lower end of the likelihood-ratio
+// confidence set of the onset of EstimateDriftChange: the earliest onset m
+// in [from, to], of any of the change shapes, whose log likelihood ratio
+// is within drop of the best's (drop = χ²₁ quantile / 2, 1.92 for 95 %),
+// with a cubic growth (CubicChange) among the shapes.
+// Inverting the likelihood-ratio test gives a confidence set for a change
+// point (Siegmund 1988, "Confidence sets in change-point problems", Int.
+// Stat. Rev. 56, 31–48; from memory); taken over the shapes it also holds
+// the shapes' disagreement, which a bootstrap at one fitted shape does
+// not. best is the estimate; without a spread of stresses the drift line
+// is left out, as there.
+func EarliestPlausibleOnset(z, stress []float64, prior Prior, from, to int, best DriftChange, drop float64) int {
+	n := len(z)
+	out := best.Onset
+	drift := spreadOut(stress, n)
+	from, to = max(from, 1), min(to, n-1)
+	var rss0 float64
+	if drift {
+		_, rss0 = fitLine(z, stress, prior, n)
+	}
+	g := make([]float64, n)
+	for _, model := range plausibleModels {
+		for m := from; m < out && m <= to; m++ {
+			if !drift {
+				if model == CubicChange {
+					break // scanChange has the three shapes
+				}
+				if c, ok := scanChange(z, m, m, model); ok && c.LogLik >= best.LogLik-drop {
+					out = m
+					break
+				}
+				continue
+			}
+			for k := range g {
+				g[k] = 0
+				if k >= m {
+					g[k] = model.shape(float64(k - m + 1))
+				}
+			}
+			coef, rss, ok := fitThree(z, stress, g, prior)
+			if ok && coef[2] > 0 && (rss0-rss)/2 >= best.LogLik-drop {
+				out = m
+				break
+			}
+		}
+	}
+	return out
 }
 
 // spreadOut reports whether the first n stresses hold two that differ.

@@ -232,3 +232,28 @@ func TestDriftChangeAbsorbsDrift(t *testing.T) {
 		t.Errorf("drift change point within 2 frames of %d in %d of 100 draws, want at least 80; plain change point early in %d, want at least 50", onset, near, early)
 	}
 }
+
+// The likelihood-ratio set of a step's onset, worked by hand: a noise-free
+// step of 3 at position 20 of 40 (unit noise, no drift) has the log
+// likelihood ratio (Σ_{k≥m} z_k)²/(2(40 − m)) (Hinkley 1970), 3600/40 = 90
+// at m = 20, 3600/42 = 85.71 at 19 and 3600/44 = 81.82 at 18; the slope
+// and curve shapes fit it less well from any earlier onset. A drop of
+// 1.92 (95 %) keeps only 20; a drop of 5 takes 19, not 18.
+func TestEarliestPlausibleOnsetWorkedStep(t *testing.T) {
+	z := make([]float64, 40)
+	for k := 20; k < 40; k++ {
+		z[k] = 3
+	}
+	best, ok := EstimateDriftChange(z, nil, Prior{}, 1, 39)
+	if !ok || best.Onset != 20 || best.Model != StepChange || math.Abs(best.LogLik-90) > 1e-9 {
+		t.Fatalf("estimate %+v, want a step at 20 with log LR 90", best)
+	}
+	for _, c := range []struct {
+		drop float64
+		want int
+	}{{1.92, 20}, {5, 19}} {
+		if got := EarliestPlausibleOnset(z, nil, Prior{}, 1, 39, best, c.drop); got != c.want {
+			t.Errorf("drop %g: earliest plausible onset %d, want %d (worked by hand)", c.drop, got, c.want)
+		}
+	}
+}

@@ -1,6 +1,7 @@
 package strain
 
 import (
+	"maps"
 	"slices"
 )
 
@@ -101,9 +102,11 @@ func (f *Finder) Onsets(peak float64) []Onset {
 			runs[k][z.ID] = &run{first: at, last: at, zone: z, through: through}
 		}
 	}
-	for _, m := range runs {
-		for _, r := range m {
-			done = append(done, *r)
+	// The open runs in a fixed order (indicator, then zone ID), so that
+	// ties between zones at one place go the same way in every run.
+	for _, k := range slices.Sorted(maps.Keys(runs)) {
+		for _, id := range slices.Sorted(maps.Keys(runs[k])) {
+			done = append(done, *runs[k][id])
 		}
 	}
 	type place struct {

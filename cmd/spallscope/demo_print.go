@@ -41,7 +41,7 @@ func printFaces(cmd *cobra.Command, run string) {
 // read beside the onsets.
 func printTruth(cmd *cobra.Command, rows []demo.TruthRow, path string) {
 	o := cmd.OutOrStdout()
-	fmt.Fprintf(o, "  truth of the damage features (the earliest frame any method could report each: its own γmax over the VSG above the face's detection limit), in %s:\n", path)
+	fmt.Fprintf(o, "  truth of the damage features (the earliest frame each face's run could report each: its own γmax over the run's VSG, centred on its grid points, above the face's detection limit), in %s:\n", path)
 	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
 	fmt.Fprintln(w, "    face\tfeature\topening\tsector\twall\thidden_start\tdetectable\tstress_MPa\tlimit_µε\tVSG_px")
 	for _, r := range rows {

@@ -1,10 +1,12 @@
 package synth
 
 // DemoDetection is the detection the demo faces' truth files state: the
-// demo's strain window of 7 points at its 8 px step (56 px, the extent the
-// strain stage differentiates over) and a nominal limit of 1000 µε in
-// γmax. The demo itself applies each face's own limit from its run.
-var DemoDetection = Detection{VSG: 56, Limit: 1e-3}
+// VSG of the demo's strain window of 7 points at its 8 px step over 21 px
+// subsets, (7 − 1)·8 + 21 = 69 px — the strain stage's definition
+// (strain.Window.VSG, which this package cannot import; the demo's test
+// holds the two equal) — and a nominal limit of 1000 µε in γmax. The demo
+// itself applies each face's own limit, VSG and grid from its run.
+var DemoDetection = Detection{VSG: 69, Limit: 1e-3}
 
 // DemoBlock is the built-in demo test's front face, invented for
 // spallscope: a 100 mm square, 50 mm thick block of a mortar-like rock

@@ -53,8 +53,14 @@ var DefaultDetection = Detection{VSG: 72, Limit: 1e-3}
 // crack's jump out.
 //
 // DetectableFrame is the first frame whose VSGGamma exceeds Limit (−1:
-// never): the earliest frame any method with that VSG and limit could
-// report. A spalled patch has no displacement of its own: it shows as
+// never). Two placements of the windows (Placement): at every pixel
+// (Scenario.FeatureTruth), the most favourable grid, so the detectable
+// frame is the earliest any method with that VSG and limit could report;
+// or centred on the points of one measurement grid
+// (Scenario.FeatureTruthOnGrid), which is the earliest a run that
+// measures strain only at those points could report — a young feature
+// between two grid points reaches the limit later there. Score a run
+// against its own grid's truth; the every-pixel truth bounds any grid. A spalled patch has no displacement of its own: it shows as
 // fresh, uncorrelated texture from its frame, which is its hidden start
 // and its detectable frame; its gamma curves are empty.
 type FeatureTruth struct {
@@ -81,6 +87,8 @@ type FeatureTruth struct {
 	DetectableFrame int     `json:"detectable_frame"`
 	VSG             int     `json:"vsg_px"`
 	Limit           float64 `json:"limit"`
+	// Grid is the placement of the windows: nil at every pixel.
+	Grid *Placement `json:"window_grid,omitempty"`
 	// PeakX, PeakY is the centre of the window of largest γmax at the
 	// detectable frame (the feature's position there; 0 when never).
 	PeakX    float64   `json:"peak_x_px"`
@@ -104,12 +112,37 @@ func (ft FeatureTruth) FirstAbove(limit float64) int {
 	return -1
 }
 
+// Placement is a measurement grid the truth's windows are centred on:
+// points at X0 + i·Step, Y0 + j·Step px (dic.Grid's lattice). A window of
+// side VSG centred on a point (x, y) spans [x − ⌊VSG/2⌋, x − ⌊VSG/2⌋ + VSG]
+// (half a pixel right of and below the point for an odd VSG, since its
+// corners lie on the pixel lattice).
+type Placement struct {
+	X0   int `json:"x0_px"`
+	Y0   int `json:"y0_px"`
+	Step int `json:"step_px"`
+}
+
 // FeatureTruth returns the truth of every damage feature of the scenario
 // (band, crack and notch fields in order, then spalled patches) for a VSG
-// of vsg px and a detection limit in γmax (see the type). It samples each
-// feature's field at every pixel of every frame whose magnitude changed,
-// features in parallel.
+// of vsg px and a detection limit in γmax, with windows at every pixel
+// (see the type). It samples each feature's field at every pixel of every
+// frame whose magnitude changed, features in parallel.
 func (sc *Scenario) FeatureTruth(vsg int, limit float64) ([]FeatureTruth, error) {
+	return sc.featureTruth(vsg, limit, nil)
+}
+
+// FeatureTruthOnGrid is FeatureTruth with the windows centred on the
+// points of grid only: the truth a run measuring on that grid is scored
+// against (see the type).
+func (sc *Scenario) FeatureTruthOnGrid(vsg int, limit float64, grid Placement) ([]FeatureTruth, error) {
+	if grid.Step < 1 {
+		return nil, fmt.Errorf("feature truth: grid step %d px, expected at least 1 px", grid.Step)
+	}
+	return sc.featureTruth(vsg, limit, &grid)
+}
+
+func (sc *Scenario) featureTruth(vsg int, limit float64, grid *Placement) ([]FeatureTruth, error) {
 	if vsg < 2 || vsg >= sc.Width || vsg >= sc.Height {
 		return nil, fmt.Errorf("feature truth: VSG %d px, expected 2 px up to less than the %dx%d image", vsg, sc.Width, sc.Height)
 	}
@@ -127,7 +160,7 @@ func (sc *Scenario) FeatureTruth(vsg int, limit float64) ([]FeatureTruth, error)
 			continue
 		}
 		ft := FeatureTruth{Feature: fmt.Sprintf("%s %d", kind, i), Kind: kind, Field: i, Spall: -1, X: x, Y: y,
-			HiddenStart: -1, DetectableFrame: -1, VSG: vsg, Limit: limit}
+			HiddenStart: -1, DetectableFrame: -1, VSG: vsg, Limit: limit, Grid: grid}
 		for fr := 0; fr < sc.Frames; fr++ {
 			if sc.Factor(i, fr) > 0 {
 				ft.HiddenStart = fr
@@ -138,7 +171,7 @@ func (sc *Scenario) FeatureTruth(vsg int, limit float64) ([]FeatureTruth, error)
 	}
 	for i, s := range sc.Spalls {
 		out = append(out, FeatureTruth{Feature: fmt.Sprintf("%s %d", FeatureSpall, i), Kind: FeatureSpall, Field: -1, Spall: i,
-			X: s.Region.Cx, Y: s.Region.Cy, HiddenStart: s.Frame, DetectableFrame: s.Frame, VSG: vsg, Limit: limit})
+			X: s.Region.Cx, Y: s.Region.Cy, HiddenStart: s.Frame, DetectableFrame: s.Frame, VSG: vsg, Limit: limit, Grid: grid})
 	}
 	var rock []bool // the pixel lattice's rock (outside the openings), for the fields
 	if len(out) > len(sc.Spalls) {
@@ -222,7 +255,7 @@ func (sc *Scenario) featureCurves(ft *FeatureTruth, rock []bool) {
 			ft.MaxGamma[f], ft.VSGGamma[f], peakX[f], peakY[f] = ft.MaxGamma[f-1], ft.VSGGamma[f-1], peakX[f-1], peakY[f-1]
 		default:
 			ft.MaxGamma[f] = w.sample(spec.scalable().Scaled(g))
-			ft.VSGGamma[f], peakX[f], peakY[f] = w.maxMean(ft.VSG)
+			ft.VSGGamma[f], peakX[f], peakY[f] = w.maxMean(ft.VSG, ft.Grid)
 		}
 		prev = g
 	}
@@ -298,11 +331,18 @@ func (m *windowMeans) box(t []float64, x0, y0, x1, y1 int) float64 {
 
 // maxMean returns the largest γmax of the mean gradient over the windows
 // [x0, x0+vsg] × [y0, y0+vsg] inside the image with at least half of
-// their links on rock, and that window's centre.
-func (m *windowMeans) maxMean(vsg int) (best, cx, cy float64) {
+// their links on rock, and that window's centre: every such window, or
+// with a grid those centred on its points (see Placement).
+func (m *windowMeans) maxMean(vsg int, grid *Placement) (best, cx, cy float64) {
 	full := float64(vsg * (vsg + 1)) // links of each direction in a window
-	for y0 := 0; y0+vsg < m.h; y0++ {
-		for x0 := 0; x0+vsg < m.w; x0++ {
+	ox, oy, step := 0, 0, 1
+	if grid != nil {
+		// The first window origins at or after 0 of the grid's points.
+		step = grid.Step
+		ox, oy = ((grid.X0-vsg/2)%step+step)%step, ((grid.Y0-vsg/2)%step+step)%step
+	}
+	for y0 := oy; y0+vsg < m.h; y0 += step {
+		for x0 := ox; x0+vsg < m.w; x0 += step {
 			x1, y1 := x0+vsg, y0+vsg
 			// Horizontal links start at x0..x1−1 on rows y0..y1; vertical
 			// ones at columns x0..x1 on rows y0..y1−1.

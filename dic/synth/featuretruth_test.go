@@ -72,6 +72,50 @@ func TestFeatureTruthWorkedBand(t *testing.T) {
 	}
 }
 
+// Worked example (by hand, as above) of the truth on a measurement grid:
+// the same band, V = 40 px, windows centred on the points of a grid at
+// 0, 40, 80 px (step 40). The windows inside the image are centred at
+// y = 40 and 80: [20, 60] and [60, 100], each ending on the band's centre
+// line, so the mean of ∂u/∂y is (u(60) − u(20))/40 = (S/2)·tanh(10)/40 =
+// 0.025·g, half the best-placed window's. With the limit 0.0115 that is
+// first exceeded at g = 0.5 → frame 20 (0.0125), five frames after the
+// every-pixel truth's frame 15.
+func TestFeatureTruthOnGridWorkedBand(t *testing.T) {
+	b := straightBand(2, 2)
+	sc := flatScenario(FieldSpec{Band: &b, Drive: DriveGrowth, StartFrame: 10, FullFrame: 30})
+	truth, err := sc.FeatureTruthOnGrid(40, 0.0115, Placement{X0: 0, Y0: 0, Step: 40})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ft := truth[0]
+	if ft.DetectableFrame != 20 || ft.Grid == nil || ft.Grid.Step != 40 {
+		t.Errorf("detectable %d (grid %v), want frame 20 on the step-40 grid", ft.DetectableFrame, ft.Grid)
+	}
+	for _, c := range []struct {
+		frame int
+		vsg   float64
+	}{{15, 0.00625}, {20, 0.0125}, {30, 0.025}} {
+		if got := ft.VSGGamma[c.frame]; math.Abs(got-c.vsg) > 1e-6 {
+			t.Errorf("frame %d: VSG γmax on the grid %.7f, want %.7f (worked by hand)", c.frame, got, c.vsg)
+		}
+	}
+	// A step of 1 px is every pixel.
+	every, err := sc.FeatureTruth(40, 0.0115)
+	if err != nil {
+		t.Fatal(err)
+	}
+	one, err := sc.FeatureTruthOnGrid(40, 0.0115, Placement{Step: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if one[0].DetectableFrame != every[0].DetectableFrame || math.Abs(one[0].VSGGamma[30]-every[0].VSGGamma[30]) > 1e-12 {
+		t.Errorf("step-1 grid: detectable %d, γ %g; every pixel %d, %g", one[0].DetectableFrame, one[0].VSGGamma[30], every[0].DetectableFrame, every[0].VSGGamma[30])
+	}
+	if _, err := sc.FeatureTruthOnGrid(40, 0.0115, Placement{Step: 0}); err == nil {
+		t.Error("grid step 0 accepted")
+	}
+}
+
 // Worked example: a displacement jump w across a window of side V
 // averages to a mean gradient of w/V (the end-value difference over the
 // length, as above, with the jump between the ends). An opening crack

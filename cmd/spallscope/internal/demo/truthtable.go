@@ -16,7 +16,7 @@ import (
 
 // TruthRow is one line of the demo's truth table: a damage feature of a
 // face, where it starts, when it starts (its hidden start) and the first
-// frame at which any method could report it (synth.FeatureTruth).
+// frame at which the face's run could report it (synth.FeatureTruth).
 type TruthRow struct {
 	Face    string
 	Feature string
@@ -30,15 +30,18 @@ type TruthRow struct {
 	HiddenName, DetectableName     string
 	VSG                            int
 	Limit                          float64 // the γmax limit applied
-	LimitFromRun                   bool    // the face run's own limit, not the truth file's nominal one
+	LimitFromRun                   bool    // the face run's own limit, VSG and grid, not the truth file's nominal ones
 	HiddenStress, DetectableStress float64 // nominal stress at those frames, MPa
 }
 
-// TruthTable returns the truth rows of both faces. A feature's detectable
-// frame is taken at its face's own detection limit in γmax — the noise
-// floor × K of the run in faceDir(face), from its onset.json — over the
-// truth's VSG (strain window × step); without that, at the truth file's
-// nominal limit.
+// TruthTable returns the truth rows of both faces. With a face's run in
+// faceDir(face), a feature's detectable frame is that of the run's own
+// measurement: its γmax detection limit and VSG (the strain stage's,
+// (window − 1) × step + subset, from onset.json's detection limits) over
+// windows centred on the run's grid points (run.json's track grid;
+// synth.FeatureTruthOnGrid), recomputed from the scenario. Without a run,
+// it is the truth file's: its nominal limit and VSG, windows at every
+// pixel.
 func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 	var rows []TruthRow
 	for _, f := range []struct {
@@ -49,9 +52,11 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 		if f.truth == nil {
 			continue
 		}
-		limit, fromRun := f.truth.Detection.Limit, false
-		if l, ok := runLimit(faceDir(f.name)); ok {
-			limit, fromRun = l, true
+		features, limit, fromRun := f.truth.Features, f.truth.Detection.Limit, false
+		if run, ok := runMeasurement(faceDir(f.name)); ok {
+			if fs, err := f.sc.FeatureTruthOnGrid(run.vsg, run.limit, run.grid); err == nil {
+				features, limit, fromRun = fs, run.limit, true
+			}
 		}
 		name := func(i int) string {
 			if i < 0 || i >= f.sc.Frames {
@@ -65,7 +70,7 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 			}
 			return f.sc.Stress(i)
 		}
-		for _, ft := range f.truth.Features {
+		for _, ft := range features {
 			det := ft.FirstAbove(limit)
 			rows = append(rows, TruthRow{Face: f.name, Feature: ft.Feature, Kind: ft.Kind, Opening: OpeningName(ft.Opening),
 				Sector: string(ft.Sector), Wall: string(ft.Wall), HiddenStart: ft.HiddenStart, Detectable: det,
@@ -76,24 +81,37 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 	return rows
 }
 
-// runLimit reads the γmax detection limit of the run in dir.
-func runLimit(dir string) (float64, bool) {
+// measurement is what a run measured strain with: its γmax detection
+// limit, its VSG and its grid.
+type measurement struct {
+	limit float64
+	vsg   int
+	grid  synth.Placement
+}
+
+// runMeasurement reads the γmax detection limit and VSG of the run in dir
+// (onset.json) and its grid (run.json's track section).
+func runMeasurement(dir string) (measurement, bool) {
 	data, err := os.ReadFile(filepath.Join(dir, strainfile.OnsetJSON))
 	if err != nil {
-		return 0, false
+		return measurement{}, false
 	}
 	var rep struct {
 		Limits []strainfile.DetectionLimit `json:"detection_limits"`
 	}
 	if json.Unmarshal(data, &rep) != nil {
-		return 0, false
+		return measurement{}, false
+	}
+	var track runfolder.TrackRecord
+	if runfolder.Section(dir, "track", &track) != nil || track.Grid.Step < 1 {
+		return measurement{}, false
 	}
 	for _, l := range rep.Limits {
-		if l.Indicator == strain.MaxShear && l.Strain > 0 {
-			return l.Strain, true
+		if l.Indicator == strain.MaxShear && l.Strain > 0 && l.VSG >= 2 {
+			return measurement{limit: l.Strain, vsg: l.VSG, grid: synth.Placement{X0: track.Grid.X0, Y0: track.Grid.Y0, Step: track.Grid.Step}}, true
 		}
 	}
-	return 0, false
+	return measurement{}, false
 }
 
 // WriteTruthTable writes the rows as CSV (atomically): face, feature,

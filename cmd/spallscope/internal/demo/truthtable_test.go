@@ -6,39 +6,57 @@ import (
 	"path/filepath"
 	"testing"
 
+	"spallscope/dic"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
 	"spallscope/strain"
 	"spallscope/strain/strainfile"
 )
 
-// The truth table applies a face run's own γmax limit to the truth's VSG
-// curve. Worked by hand (as in synth's worked band): a straight band of
-// slip 2 px and half-width 2 px growing linearly from frame 10 (zero) to
-// frame 30 averages to γmax = 2·tanh(10)/40 ≈ 0.05·g over a 40 px VSG at
-// growth g = (f − 10)/20; the run's limit 0.0115 is first exceeded at
-// frame 15 (0.0125), the nominal 0.026 at frame 21 (0.0275).
+// The truth table applies a face run's own γmax limit, VSG and grid.
+// Worked by hand (as in synth's worked band): a straight band of slip 2 px
+// and half-width 2 px growing linearly from frame 10 (zero) to frame 30
+// averages to γmax = 2·tanh(10)/40 ≈ 0.05·g over a 40 px VSG centred on it
+// at growth g = (f − 10)/20; the run's limit 0.0115 is first exceeded at
+// frame 15 (0.0125) on a 1 px grid. The truth file's nominal 30 px VSG
+// averages 2·tanh(7.5)/30 ≈ 0.0667·g, above its nominal limit 0.026 from
+// frame 18 (0.0267; frame 17: 0.0233). On a 40 px grid from 0 the windows end on the band's centre
+// line and average half of that (synth's worked grid example): 0.0115 at
+// frame 20.
 func TestTruthTableTakesTheRunsLimit(t *testing.T) {
 	b := synth.ShearBand{X0: -1000, Y0: 60, X1: 1e8, Y1: 60, Slip: 2, HalfWidth: 2, Decay: 1e9}
 	sc := &synth.Scenario{Name: "tt", Width: 120, Height: 120, Frames: 31, FPS: 1,
 		Pattern: synth.Pattern{Radius: 2, Coverage: 0.5, Seed: 1},
 		Fields:  []synth.FieldSpec{{Band: &b, Drive: synth.DriveGrowth, StartFrame: 10, FullFrame: 30}}}
-	features, err := sc.FeatureTruth(40, 0.026)
+	features, err := sc.FeatureTruth(30, 0.026)
 	if err != nil {
 		t.Fatal(err)
 	}
-	d := &Demo{Front: sc, Truth: &synth.Truth{Detection: synth.Detection{VSG: 40, Limit: 0.026}, Features: features}}
-	dir := t.TempDir()
-	rep := map[string]any{"detection_limits": []strainfile.DetectionLimit{{Indicator: strain.MaxPrincipal, Strain: 0.001}, {Indicator: strain.MaxShear, Strain: 0.0115}}}
-	if err := runfolder.WriteJSON(filepath.Join(dir, strainfile.OnsetJSON), rep); err != nil {
-		t.Fatal(err)
+	// The truth file's nominal VSG (30 px) differs from the run's (40 px):
+	// the run's is the one applied.
+	d := &Demo{Front: sc, Truth: &synth.Truth{Detection: synth.Detection{VSG: 30, Limit: 0.026}, Features: features}}
+	run := func(step int) string {
+		dir := t.TempDir()
+		rep := map[string]any{"detection_limits": []strainfile.DetectionLimit{{Indicator: strain.MaxPrincipal, Strain: 0.001, VSG: 40}, {Indicator: strain.MaxShear, Strain: 0.0115, VSG: 40}}}
+		if err := runfolder.WriteJSON(filepath.Join(dir, strainfile.OnsetJSON), rep); err != nil {
+			t.Fatal(err)
+		}
+		if err := runfolder.SetSection(dir, "track", runfolder.TrackRecord{Grid: dic.Grid{X0: 0, Y0: 0, Step: step, Cols: 120 / step, Rows: 120 / step}}); err != nil {
+			t.Fatal(err)
+		}
+		return dir
 	}
-	rows := d.TruthTable(func(string) string { return dir })
-	if len(rows) != 1 || rows[0].Detectable != 15 || !rows[0].LimitFromRun || rows[0].HiddenStart != 11 || rows[0].DetectableName != "tt_0015" {
-		t.Fatalf("rows %+v, want one, detectable at frame 15 (tt_0015) from the run's limit, hidden start 11", rows)
+	for _, c := range []struct{ step, want int }{{1, 15}, {40, 20}} {
+		dir := run(c.step)
+		rows := d.TruthTable(func(string) string { return dir })
+		if len(rows) != 1 || rows[0].Detectable != c.want || !rows[0].LimitFromRun || rows[0].VSG != 40 || rows[0].HiddenStart != 11 {
+			t.Fatalf("grid step %d: rows %+v, want one, detectable at frame %d from the run's limit and 40 px VSG, hidden start 11", c.step, rows, c.want)
+		}
 	}
-	if rows = d.TruthTable(func(string) string { return t.TempDir() }); rows[0].Detectable != 21 || rows[0].LimitFromRun {
-		t.Errorf("without a run: detectable %d (from run %v), want 21 at the nominal limit", rows[0].Detectable, rows[0].LimitFromRun)
+	dir := run(1)
+	rows := d.TruthTable(func(string) string { return t.TempDir() })
+	if rows[0].Detectable != 18 || rows[0].LimitFromRun || rows[0].VSG != 30 {
+		t.Errorf("without a run: detectable %d (from run %v, VSG %d), want 18 at the nominal limit over the truth file's 30 px", rows[0].Detectable, rows[0].LimitFromRun, rows[0].VSG)
 	}
 	path := filepath.Join(dir, TruthCSV)
 	if err := WriteTruthTable(path, rows); err != nil {
@@ -50,7 +68,18 @@ func TestTruthTableTakesTheRunsLimit(t *testing.T) {
 	}
 	defer f.Close()
 	recs, err := csv.NewReader(f).ReadAll()
-	if err != nil || len(recs) != 2 || recs[0][9] != "detectable_frame" || recs[1][9] != "21" || recs[1][14] != "nominal" {
+	if err != nil || len(recs) != 2 || recs[0][9] != "detectable_frame" || recs[1][9] != "18" || recs[1][14] != "nominal" {
 		t.Errorf("csv %v %v", recs, err)
+	}
+}
+
+// The demo's truth files state the VSG the strain stage gives the demo's
+// own settings, (window − 1) × step + subset (strain.Window.VSG): one
+// definition, the strain stage's.
+func TestDemoDetectionIsTheStrainStagesVSG(t *testing.T) {
+	cfg := Config(synth.DemoBlock(), synth.DemoTwin())
+	want := strain.Window{Size: cfg.Strain.Window}.VSG(cfg.Correlation.Step, cfg.Correlation.Subset)
+	if synth.DemoDetection.VSG != want {
+		t.Errorf("synth.DemoDetection.VSG %d px, want the strain stage's %d px", synth.DemoDetection.VSG, want)
 	}
 }
