@@ -47,7 +47,7 @@ func Status(p *Plan, out string) ([]UnitState, error) {
 		var err error
 		if u.Part == nil {
 			var o job.Outcome
-			o, err = job.ReadOutcome(out, u.Config)
+			o, err = job.ReadOutcome(out, u.Test)
 			ok, msg = o.OK, o.Error
 		} else {
 			var r job.PartRecord

@@ -207,14 +207,11 @@ func WriteOutcome(out string, r Result) error {
 	return runfolder.WriteJSON(filepath.Join(dir, outcomeFile), Outcome{Config: r.Config, OK: r.Err == "", Error: r.Err})
 }
 
-// ReadOutcome reads a test's outcome; fs.ErrNotExist when it has none yet.
-func ReadOutcome(out, configPath string) (Outcome, error) {
+// ReadOutcome reads the outcome of the test whose run folder under out is
+// named test (config.TestName); fs.ErrNotExist when it has none yet.
+func ReadOutcome(out, test string) (Outcome, error) {
 	var o Outcome
-	name, err := config.TestName(configPath)
-	if err != nil {
-		return o, err
-	}
-	err = readJSON(filepath.Join(out, name, outcomeFile), &o)
+	err := readJSON(filepath.Join(out, test, outcomeFile), &o)
 	return o, err
 }
 
