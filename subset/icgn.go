@@ -47,7 +47,9 @@ type Config struct {
 	// optimum, so stopping there changes the answer by far less than σ;
 	// without it a noisy subset spends an extra sampling of the deformed
 	// image confirming an update already below its noise. On noise-free
-	// images σ is tiny and Tolerance rules.
+	// images σ is tiny and Tolerance rules. The rule and its default are
+	// our own, no published source; TestNoiseTolerance measures what they
+	// cost in accuracy.
 	NoiseTolerance float64
 }
 
@@ -287,8 +289,10 @@ func (s *Solver) setInvUV() {
 // σ_e² = ‖f - f̄‖²·ZNSSD/n the residual variance per pixel, which holds
 // the noise of both images (Pan et al. 2008, "Study on subset size
 // selection in digital image correlation for speckle patterns", Optics
-// Express 16(10):7037–7048: with σ_e² = 2σ² and a diagonal H this is
-// PredictedNoise per component).
+// Express 16(10):7037–7048, citation from memory: with σ_e² = 2σ² and a
+// diagonal H this is PredictedNoise per component; the full covariance
+// σ_e²·H⁻¹ is the textbook least-squares result, common practice, no
+// source).
 func (s *Solver) precision(znssd float64) float64 {
 	return math.Sqrt(max(znssd, 0) * s.fNorm * s.fNorm / float64(s.n) * s.invUV)
 }
