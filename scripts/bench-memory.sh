@@ -13,6 +13,8 @@ size=${SIZE:-1000x1000}
 subset=${SUBSET:-21}
 case "$size" in
   *[!0-9x]*|x*|*x|*x*x*|"") echo "SIZE=$size: want WIDTHxHEIGHT in px" >&2; exit 2 ;;
+  *x*) ;;
+  *) echo "SIZE=$size: want WIDTHxHEIGHT in px" >&2; exit 2 ;;
 esac
 case "$n" in
   *[!0-9]*|"") echo "N=$n: want a number of frames" >&2; exit 2 ;;
