@@ -479,6 +479,24 @@ func (s *Solver) criterion(d *deformedSums) (znssd, gNorm float64, ok bool) {
 	return 2 - 2*d.sfg/(s.fNorm*gNorm), gNorm, true
 }
 
+// look samples the deformed subset at p (see sample) and returns the sums,
+// the ZNSSD and ‖g - ḡ‖ with status Converged; or OutOfImage when the
+// warped subset leaves the image, or Diverged when p is not finite or the
+// deformed subset is flat.
+func (s *Solver) look(def *Spline, p *Params, shared bool) (d deformedSums, znssd, gNorm float64, st Status) {
+	if !p.IsFinite() {
+		return d, 0, 0, Diverged
+	}
+	if !s.sample(def, p, shared, &d) {
+		return d, 0, 0, OutOfImage
+	}
+	znssd, gNorm, ok := s.criterion(&d)
+	if !ok {
+		return d, 0, 0, Diverged
+	}
+	return d, znssd, gNorm, Converged
+}
+
 func (s *Solver) iterate(def *Spline, guess Params, alt *Params, accept float64) Result {
 	if s.ref == nil {
 		panic("subset: Iterate before Prepare")
@@ -501,38 +519,26 @@ func (s *Solver) iterate(def *Spline, guess Params, alt *Params, accept float64)
 	p := guess
 	res.Status = Diverged
 	extra := 0 // a rejected first guess's sampling
-	var d deformedSums
 	for it := 1; it <= s.cfg.MaxIterations; it++ {
 		// Warp the subset, sample the deformed image there and accumulate
 		// the sums that give its mean, its norm, the ZNSSD and the
 		// right-hand side Σ J·[(f - f̄) - (‖f - f̄‖/‖g - ḡ‖)(g - ḡ)]. Gray
 		// levels are offset by the reference mean to keep the sums well
 		// conditioned.
-		inside := p.IsFinite() && s.sample(def, &p, it == 1 && s.prior != nil, &d)
-		var znssd, gNorm float64
-		flat := false
-		if inside {
-			znssd, gNorm, inside = s.criterion(&d)
-			flat = !inside
-		}
-		if it == 1 && alt != nil && !(inside && znssd <= accept) && alt.IsFinite() {
-			var da deformedSums
+		d, znssd, gNorm, st := s.look(def, &p, it == 1 && s.prior != nil)
+		if it == 1 && alt != nil && !(st == Converged && znssd <= accept) && alt.IsFinite() {
 			q := *alt
-			if s.sample(def, &q, false, &da) {
-				extra = 1
-				if za, gna, ok := s.criterion(&da); ok && (!inside || za < znssd) {
-					p, guess, res.P = q, q, q
-					d, znssd, gNorm, inside, flat = da, za, gna, true, false
-				}
+			da, za, gna, sa := s.look(def, &q, false)
+			if sa != OutOfImage {
+				extra = 1 // sampled, even if flat
+			}
+			if sa == Converged && (st != Converged || za < znssd) {
+				p, guess, res.P = q, q, q
+				d, znssd, gNorm, st = da, za, gna, Converged
 			}
 		}
-		if !inside {
-			if flat {
-				return res // a flat deformed subset
-			}
-			if p.IsFinite() {
-				res.Status = OutOfImage
-			}
+		if st != Converged {
+			res.Status = st
 			return res
 		}
 		gm := d.sg / float64(s.n)
