@@ -46,7 +46,7 @@ type Tracker struct {
 	olderInc   []subset.Params
 	olderIncOK []bool
 	olderIndex int
-	last       *subset.Image  // last frame, a candidate new reference
+	last       *subset.Image  // last frame (prevIndex), a candidate new reference
 	cur        *subset.Spline // the frame being tracked, reloaded frame after frame
 	// spare are sample buffers for propagation kept from frame to frame:
 	// a frame holds up to one per point of its propagation queue, 3.5 kB
@@ -54,7 +54,6 @@ type Tracker struct {
 	// collector each frame.
 	spare       []*subset.Samples
 	samplesMade int // buffers made, at most maxSamples
-	lastIndex   int
 }
 
 // NewTracker prepares tracking of the grid over mask (nil: the whole
@@ -262,12 +261,12 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 	sp := t.cur
 	inc := t.correlateFrame(img, sp, bad, t.startsFor(index))
 	f := t.compose(inc, index, name)
-	if t.s.Reference == IncrementalReference && t.last != nil && t.lastIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {
+	if t.s.Reference == IncrementalReference && t.last != nil && t.prevIndex != t.refIndex && !(f.MedianZNCC() >= t.s.UpdateBelow) {
 		// Correlation has degraded: move the reference to the last frame
 		// and correlate this one again against it.
 		// The points whose subsets reached unmeasured pixels of that frame
 		// were lost there, so none is correlated against them now.
-		t.setReference(t.last, t.lastIndex, t.prev, nil)
+		t.setReference(t.last, t.prevIndex, t.prev, nil)
 		inc = t.correlateFrame(img, sp, bad, nil)
 		f = t.compose(inc, index, name)
 	}
@@ -282,7 +281,7 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 	t.prevIndex = index
 	t.prev = f
 	if t.s.Reference == IncrementalReference {
-		t.last, t.lastIndex = img, index
+		t.last = img
 	}
 	return f, nil
 }

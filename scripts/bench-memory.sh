@@ -13,11 +13,20 @@ size=${SIZE:-1000x1000}
 subset=${SUBSET:-21}
 case "$size" in
   *[!0-9x]*|x*|*x|*x*x*|"") echo "SIZE=$size: want WIDTHxHEIGHT in px" >&2; exit 2 ;;
+  *x*) ;;
+  *) echo "SIZE=$size: want WIDTHxHEIGHT in px" >&2; exit 2 ;;
+esac
+case "$n" in
+  *[!0-9]*|"") echo "N=$n: want a number of frames" >&2; exit 2 ;;
+esac
+case "$step" in
+  *[!0-9]*|"") echo "STEP=$step: want a grid step in px" >&2; exit 2 ;;
 esac
 case "$subset" in
   *[!0-9]*|"") echo "SUBSET=$subset: want a subset size in px" >&2; exit 2 ;;
 esac
-work=${WORK:-out/bench-memory-$size}
+# The frames are rendered once per size and count and kept for the next run.
+work=${WORK:-out/bench-memory-$size-$n}
 mkdir -p "$work"
 go build -o bin/spallscope ./cmd/spallscope
 bin=${BIN:-./bin/spallscope}

@@ -104,56 +104,23 @@ func (sp *Spline) values(xs, ys, out []float64) {
 	sp.cubicValues(xs, ys, out)
 }
 
-// cubicValues is values for the cubic kernel. The weights are those of
-// cubicWeights written as β³(t) = 2/3 - t² + t³/2 for the two inner taps,
-// which saves two cubes.
+// cubicValues is values for the cubic kernel.
 func (sp *Spline) cubicValues(xs, ys, out []float64) {
-	const sixth, twoThirds = 1.0 / 6, 2.0 / 3
-	s := sp.stride
-	c := sp.coef
+	s, c := sp.stride, sp.coef
 	origin := (splinePad-1)*s + splinePad - 1
 	xs, ys = xs[:len(out)], ys[:len(out)]
 	for k := range out {
-		x, y := xs[k], ys[k]
-		ix, iy := int(x), int(y)
-		tx, ty := x-float64(ix), y-float64(iy)
-		ux, uy := 1-tx, 1-ty
-		tx2, ux2, ty2, uy2 := tx*tx, ux*ux, ty*ty, uy*uy
-		x0, x3 := sixth*ux2*ux, sixth*tx2*tx
-		y0, y3 := sixth*uy2*uy, sixth*ty2*ty
-		x1, x2 := twoThirds-tx2+3*x3, twoThirds-ux2+3*x0
-		y1, y2 := twoThirds-ty2+3*y3, twoThirds-uy2+3*y0
-		base := origin + iy*s + ix
-		r0 := (*[4]float64)(c[base:])
-		r1 := (*[4]float64)(c[base+s:])
-		r2 := (*[4]float64)(c[base+2*s:])
-		r3 := (*[4]float64)(c[base+3*s:])
-		// Pairwise sums shorten the chain of dependent additions.
-		c0 := (x0*r0[0] + x1*r0[1]) + (x2*r0[2] + x3*r0[3])
-		c1 := (x0*r1[0] + x1*r1[1]) + (x2*r1[2] + x3*r1[3])
-		c2 := (x0*r2[0] + x1*r2[1]) + (x2*r2[2] + x3*r2[3])
-		c3 := (x0*r3[0] + x1*r3[1]) + (x2*r3[2] + x3*r3[3])
-		out[k] = (y0*c0 + y1*c1) + (y2*c2 + y3*c3)
+		out[k] = cubicAt(c, s, origin, xs[k], ys[k])
 	}
 }
 
 // quinticValues is values for the quintic kernel.
 func (sp *Spline) quinticValues(xs, ys, out []float64) {
-	s := sp.stride
-	c := sp.coef
+	s, c := sp.stride, sp.coef
 	origin := (splinePad-2)*s + splinePad - 2
 	xs, ys = xs[:len(out)], ys[:len(out)]
 	for k := range out {
-		x, y := xs[k], ys[k]
-		ix, iy := int(x), int(y)
-		x0, x1, x2, x3, x4, x5 := quinticWeights(x - float64(ix))
-		y0, y1, y2, y3, y4, y5 := quinticWeights(y - float64(iy))
-		base := origin + iy*s + ix
-		row := func(j int) float64 {
-			r := (*[6]float64)(c[base+j*s:])
-			return (x0*r[0] + x1*r[1]) + (x2*r[2] + x3*r[3]) + (x4*r[4] + x5*r[5])
-		}
-		out[k] = (y0*row(0) + y1*row(1)) + (y2*row(2) + y3*row(3)) + (y4*row(4) + y5*row(5))
+		out[k] = quinticAt(c, s, origin, xs[k], ys[k])
 	}
 }
 
@@ -164,57 +131,64 @@ func (sp *Spline) quinticValues(xs, ys, out []float64) {
 // bit, without the positions going through memory. Every position must
 // lie in [0, W-1] × [0, H-1], as for values.
 func (sp *Spline) lineValues(x0, y0, ax, ay float64, i0 int, out []float64) {
+	s, c := sp.stride, sp.coef
 	if sp.kind == Biquintic {
-		sp.quinticLine(x0, y0, ax, ay, i0, out)
+		origin := (splinePad-2)*s + splinePad - 2
+		for k := range out {
+			t := float64(i0 + k)
+			out[k] = quinticAt(c, s, origin, x0+t*ax, y0+t*ay)
+		}
 		return
 	}
-	const sixth, twoThirds = 1.0 / 6, 2.0 / 3
-	s := sp.stride
-	c := sp.coef
 	origin := (splinePad-1)*s + splinePad - 1
 	for k := range out {
 		t := float64(i0 + k)
-		x, y := x0+t*ax, y0+t*ay
-		ix, iy := int(x), int(y)
-		tx, ty := x-float64(ix), y-float64(iy)
-		ux, uy := 1-tx, 1-ty
-		tx2, ux2, ty2, uy2 := tx*tx, ux*ux, ty*ty, uy*uy
-		w0, w3 := sixth*ux2*ux, sixth*tx2*tx
-		v0, v3 := sixth*uy2*uy, sixth*ty2*ty
-		w1, w2 := twoThirds-tx2+3*w3, twoThirds-ux2+3*w0
-		v1, v2 := twoThirds-ty2+3*v3, twoThirds-uy2+3*v0
-		base := origin + iy*s + ix
-		// One bounds check for the 4×4 window (its last row's end), then
-		// the rows by constant offsets from its start.
-		win := c[base : base+3*s+4]
-		r0 := (*[4]float64)(win)
-		r1 := (*[4]float64)(win[s:])
-		r2 := (*[4]float64)(win[2*s:])
-		r3 := (*[4]float64)(win[3*s:])
-		c0 := (w0*r0[0] + w1*r0[1]) + (w2*r0[2] + w3*r0[3])
-		c1 := (w0*r1[0] + w1*r1[1]) + (w2*r1[2] + w3*r1[3])
-		c2 := (w0*r2[0] + w1*r2[1]) + (w2*r2[2] + w3*r2[3])
-		c3 := (w0*r3[0] + w1*r3[1]) + (w2*r3[2] + w3*r3[3])
-		out[k] = (v0*c0 + v1*c1) + (v2*c2 + v3*c3)
+		out[k] = cubicAt(c, s, origin, x0+t*ax, y0+t*ay)
 	}
 }
 
-// quinticLine is lineValues for the quintic kernel.
-func (sp *Spline) quinticLine(x0, y0, ax, ay float64, i0 int, out []float64) {
-	s := sp.stride
-	c := sp.coef
-	origin := (splinePad-2)*s + splinePad - 2
-	for k := range out {
-		t := float64(i0 + k)
-		x, y := x0+t*ax, y0+t*ay
-		ix, iy := int(x), int(y)
-		x0w, x1w, x2w, x3w, x4w, x5w := quinticWeights(x - float64(ix))
-		y0w, y1w, y2w, y3w, y4w, y5w := quinticWeights(y - float64(iy))
-		base := origin + iy*s + ix
-		row := func(j int) float64 {
-			r := (*[6]float64)(c[base+j*s:])
-			return (x0w*r[0] + x1w*r[1]) + (x2w*r[2] + x3w*r[3]) + (x4w*r[4] + x5w*r[5])
-		}
-		out[k] = (y0w*row(0) + y1w*row(1)) + (y2w*row(2) + y3w*row(3)) + (y4w*row(4) + y5w*row(5))
+// cubicAt returns the cubic interpolant of the coefficients c (row stride
+// s, origin the index of the coefficient up and left of pixel (0, 0)) at
+// (x, y), inside the image. The weights are those of cubicWeights written
+// as β³(t) = 2/3 - t² + t³/2 for the two inner taps, which saves two
+// cubes; pairwise sums shorten the chain of dependent additions. It is
+// the one cubic kernel of values and lineValues, so the two agree bit for
+// bit.
+func cubicAt(c []float64, s, origin int, x, y float64) float64 {
+	const sixth, twoThirds = 1.0 / 6, 2.0 / 3
+	ix, iy := int(x), int(y)
+	tx, ty := x-float64(ix), y-float64(iy)
+	ux, uy := 1-tx, 1-ty
+	tx2, ux2, ty2, uy2 := tx*tx, ux*ux, ty*ty, uy*uy
+	w0, w3 := sixth*ux2*ux, sixth*tx2*tx
+	v0, v3 := sixth*uy2*uy, sixth*ty2*ty
+	w1, w2 := twoThirds-tx2+3*w3, twoThirds-ux2+3*w0
+	v1, v2 := twoThirds-ty2+3*v3, twoThirds-uy2+3*v0
+	base := origin + iy*s + ix
+	// One bounds check for the 4×4 window (its last row's end), then the
+	// rows by constant offsets from its start.
+	win := c[base : base+3*s+4]
+	r0 := (*[4]float64)(win)
+	r1 := (*[4]float64)(win[s:])
+	r2 := (*[4]float64)(win[2*s:])
+	r3 := (*[4]float64)(win[3*s:])
+	c0 := (w0*r0[0] + w1*r0[1]) + (w2*r0[2] + w3*r0[3])
+	c1 := (w0*r1[0] + w1*r1[1]) + (w2*r1[2] + w3*r1[3])
+	c2 := (w0*r2[0] + w1*r2[1]) + (w2*r2[2] + w3*r2[3])
+	c3 := (w0*r3[0] + w1*r3[1]) + (w2*r3[2] + w3*r3[3])
+	return (v0*c0 + v1*c1) + (v2*c2 + v3*c3)
+}
+
+// quinticAt is cubicAt for the quintic kernel (origin two coefficients up
+// and left of pixel (0, 0)).
+func quinticAt(c []float64, s, origin int, x, y float64) float64 {
+	ix, iy := int(x), int(y)
+	x0, x1, x2, x3, x4, x5 := quinticWeights(x - float64(ix))
+	y0, y1, y2, y3, y4, y5 := quinticWeights(y - float64(iy))
+	base := origin + iy*s + ix
+	row := func(j int) float64 {
+		r := (*[6]float64)(c[base+j*s:])
+		return (x0*r[0] + x1*r[1]) + (x2*r[2] + x3*r[3]) + (x4*r[4] + x5*r[5])
 	}
+	return (y0*row(0) + y1*row(1)) + (y2*row(2) + y3*row(3)) + (y4*row(4) + y5*row(5))
 }

@@ -3,6 +3,7 @@ package subset
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 )
 
@@ -59,6 +60,31 @@ func TestValues(t *testing.T) {
 		}
 		if worst > 1e-12*255 {
 			t.Errorf("%v: max difference from Value %g, want < %g", kind, worst, 1e-12*255)
+		}
+	}
+}
+
+// lineValues forms the positions of a warped row on the fly and must give
+// the values of values at those positions to the last bit, from the
+// row's start and from an offset into it (i0), for both kernels: the
+// affine solver relies on it (its samples equal the general path's).
+// Known answer: values itself, checked against Value in TestValues.
+func TestLineValues(t *testing.T) {
+	img := testPattern(54).render(60, 50, nil)
+	const x0, y0, ax, ay, n = 7.3, 11.6, 1.013, 0.021, 30
+	for _, kind := range []Interpolation{Bicubic, Biquintic} {
+		sp := NewSpline(img, kind)
+		xs, ys := make([]float64, n), make([]float64, n)
+		for i := range xs {
+			xs[i], ys[i] = x0+float64(i)*ax, y0+float64(i)*ay
+		}
+		want := make([]float64, n)
+		sp.values(xs, ys, want)
+		got := make([]float64, n)
+		sp.lineValues(x0, y0, ax, ay, 0, got[:12])
+		sp.lineValues(x0, y0, ax, ay, 12, got[12:])
+		if !slices.Equal(got, want) {
+			t.Errorf("%v: lineValues %v, values %v", kind, got[:3], want[:3])
 		}
 	}
 }

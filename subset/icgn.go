@@ -47,7 +47,9 @@ type Config struct {
 	// optimum, so stopping there changes the answer by far less than σ;
 	// without it a noisy subset spends an extra sampling of the deformed
 	// image confirming an update already below its noise. On noise-free
-	// images σ is tiny and Tolerance rules.
+	// images σ is tiny and Tolerance rules. The rule and its default are
+	// our own, no published source; TestNoiseTolerance measures what they
+	// cost in accuracy.
 	NoiseTolerance float64
 }
 
@@ -287,8 +289,10 @@ func (s *Solver) setInvUV() {
 // σ_e² = ‖f - f̄‖²·ZNSSD/n the residual variance per pixel, which holds
 // the noise of both images (Pan et al. 2008, "Study on subset size
 // selection in digital image correlation for speckle patterns", Optics
-// Express 16(10):7037–7048: with σ_e² = 2σ² and a diagonal H this is
-// PredictedNoise per component).
+// Express 16(10):7037–7048, citation from memory: with σ_e² = 2σ² and a
+// diagonal H this is PredictedNoise per component; the full covariance
+// σ_e²·H⁻¹ is the textbook least-squares result, common practice, no
+// source).
 func (s *Solver) precision(znssd float64) float64 {
 	return math.Sqrt(max(znssd, 0) * s.fNorm * s.fNorm / float64(s.n) * s.invUV)
 }
@@ -475,6 +479,24 @@ func (s *Solver) criterion(d *deformedSums) (znssd, gNorm float64, ok bool) {
 	return 2 - 2*d.sfg/(s.fNorm*gNorm), gNorm, true
 }
 
+// look samples the deformed subset at p (see sample) and returns the sums,
+// the ZNSSD and ‖g - ḡ‖ with status Converged; or OutOfImage when the
+// warped subset leaves the image, or Diverged when p is not finite or the
+// deformed subset is flat.
+func (s *Solver) look(def *Spline, p *Params, shared bool) (d deformedSums, znssd, gNorm float64, st Status) {
+	if !p.IsFinite() {
+		return d, 0, 0, Diverged
+	}
+	if !s.sample(def, p, shared, &d) {
+		return d, 0, 0, OutOfImage
+	}
+	znssd, gNorm, ok := s.criterion(&d)
+	if !ok {
+		return d, 0, 0, Diverged
+	}
+	return d, znssd, gNorm, Converged
+}
+
 func (s *Solver) iterate(def *Spline, guess Params, alt *Params, accept float64) Result {
 	if s.ref == nil {
 		panic("subset: Iterate before Prepare")
@@ -497,38 +519,26 @@ func (s *Solver) iterate(def *Spline, guess Params, alt *Params, accept float64)
 	p := guess
 	res.Status = Diverged
 	extra := 0 // a rejected first guess's sampling
-	var d deformedSums
 	for it := 1; it <= s.cfg.MaxIterations; it++ {
 		// Warp the subset, sample the deformed image there and accumulate
 		// the sums that give its mean, its norm, the ZNSSD and the
 		// right-hand side Σ J·[(f - f̄) - (‖f - f̄‖/‖g - ḡ‖)(g - ḡ)]. Gray
 		// levels are offset by the reference mean to keep the sums well
 		// conditioned.
-		inside := p.IsFinite() && s.sample(def, &p, it == 1 && s.prior != nil, &d)
-		var znssd, gNorm float64
-		flat := false
-		if inside {
-			znssd, gNorm, inside = s.criterion(&d)
-			flat = !inside
-		}
-		if it == 1 && alt != nil && !(inside && znssd <= accept) && alt.IsFinite() {
-			var da deformedSums
+		d, znssd, gNorm, st := s.look(def, &p, it == 1 && s.prior != nil)
+		if it == 1 && alt != nil && !(st == Converged && znssd <= accept) && alt.IsFinite() {
 			q := *alt
-			if s.sample(def, &q, false, &da) {
-				extra = 1
-				if za, gna, ok := s.criterion(&da); ok && (!inside || za < znssd) {
-					p, guess, res.P = q, q, q
-					d, znssd, gNorm, inside, flat = da, za, gna, true, false
-				}
+			da, za, gna, sa := s.look(def, &q, false)
+			if sa != OutOfImage {
+				extra = 1 // sampled, even if flat
+			}
+			if sa == Converged && (st != Converged || za < znssd) {
+				p, guess, res.P = q, q, q
+				d, znssd, gNorm, st = da, za, gna, Converged
 			}
 		}
-		if !inside {
-			if flat {
-				return res // a flat deformed subset
-			}
-			if p.IsFinite() {
-				res.Status = OutOfImage
-			}
+		if st != Converged {
+			res.Status = st
 			return res
 		}
 		gm := d.sg / float64(s.n)

@@ -160,6 +160,27 @@ func TestSolveQuadratic(t *testing.T) {
 	}
 }
 
+// The noise cases: a grid×grid of disjoint subsets of the given radius,
+// spacing px apart, with Gaussian noise of sigma gray levels.
+const (
+	noiseRadius, noiseSigma = 10, 2.0
+	noiseSpacing, noiseGrid = 2*noiseRadius + 1, 12
+)
+
+// noisyPair renders the wave pattern of the given seed, and a copy moved
+// by (u, v), each with independent noise of noiseSigma (seed+1), for the
+// noise cases. It returns the splines of the two noisy images and of the
+// noise-free reference (for SSSIG).
+func noisyPair(seed uint64, u, v float64) (ref, def, clean *Spline) {
+	size := noiseGrid*noiseSpacing + 2*noiseRadius + 8
+	pat := newWavePattern(rand.New(rand.NewPCG(seed, seed)), 24, 6, 20, 40)
+	img := pat.render(size, size, nil)
+	rng := rand.New(rand.NewPCG(seed+1, seed+1))
+	ref = NewSpline(addNoise(img, rng, noiseSigma), Bicubic)
+	def = NewSpline(addNoise(pat.render(size, size, func(x, y float64) (float64, float64) { return x - u, y - v }), rng, noiseSigma), Bicubic)
+	return ref, def, NewSpline(img, Bicubic)
+}
+
 // TestSolveNoise checks the random error against PredictedNoise: with
 // Gaussian noise σ = 2 gray levels added independently to the reference
 // and the deformed image, the standard deviation of u (resp. v) is
@@ -171,15 +192,9 @@ func TestSolveQuadratic(t *testing.T) {
 // disjoint subsets give 288 normalised errors whose standard deviation must
 // be 1 ± 25 %; its sampling error is about 4 %.
 func TestSolveNoise(t *testing.T) {
-	const r, sigma, spacing, grid = 10, 2.0, 2*10 + 1, 12
+	const r, sigma, spacing, grid = noiseRadius, noiseSigma, noiseSpacing, noiseGrid
 	const u, v = 3, -2
-	size := grid*spacing + 2*r + 8
-	pat := newWavePattern(rand.New(rand.NewPCG(23, 23)), 24, 6, 20, 40)
-	clean := pat.render(size, size, nil)
-	rng := rand.New(rand.NewPCG(24, 24))
-	ref := NewSpline(addNoise(clean, rng, sigma), Bicubic)
-	def := NewSpline(addNoise(pat.render(size, size, func(x, y float64) (float64, float64) { return x - u, y - v }), rng, sigma), Bicubic)
-	cleanSpline := NewSpline(clean, Bicubic)
+	ref, def, cleanSpline := noisyPair(23, u, v)
 	s := NewSolver(Config{Radius: r, Order: Affine})
 	var sum2 float64
 	var n int
@@ -469,15 +484,9 @@ func TestIterateEither(t *testing.T) {
 // lower rather than higher because the interpolation smooths the
 // deformed image's noise at subpixel positions.
 func TestNoiseTolerance(t *testing.T) {
-	const r, sigma, spacing, grid = 10, 2.0, 2*10 + 1, 12
+	const r, sigma, spacing, grid = noiseRadius, noiseSigma, noiseSpacing, noiseGrid
 	const u, v = 0.3, -0.45
-	size := grid*spacing + 2*r + 8
-	pat := newWavePattern(rand.New(rand.NewPCG(31, 31)), 24, 6, 20, 40)
-	clean := pat.render(size, size, nil)
-	rng := rand.New(rand.NewPCG(32, 32))
-	ref := NewSpline(addNoise(clean, rng, sigma), Bicubic)
-	def := NewSpline(addNoise(pat.render(size, size, func(x, y float64) (float64, float64) { return x - u, y - v }), rng, sigma), Bicubic)
-	cleanSpline := NewSpline(clean, Bicubic)
+	ref, def, cleanSpline := noisyPair(31, u, v)
 	loose, strict := NewSolver(Config{Radius: r}), NewSolver(Config{Radius: r, NoiseTolerance: -1})
 	var diff2, pred2, ratio2 float64
 	var itLoose, itStrict, n int

@@ -44,7 +44,8 @@ one at a time, as a run reads them; rendering takes longer than tracking.`,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			if sequence != "" {
 				spec := baseline.SequenceSpec{Frames: frames, Noise: noise, HeldOut: heldOut}
-				if _, err := fmt.Sscanf(sequence, "%dx%d", &spec.Width, &spec.Height); err != nil {
+				var err error
+				if spec.Width, spec.Height, err = parseSize(sequence); err != nil {
 					return fmt.Errorf("bench: --sequence %q: want WIDTHxHEIGHT in px, such as 1024x1024 or 5472x3648", sequence)
 				}
 				return benchSequence(cmd.OutOrStdout(), spec, subsets, steps)

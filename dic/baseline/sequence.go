@@ -129,7 +129,8 @@ type SequenceRow struct {
 	// field over the valid points, px.
 	RMSE float64
 	// LKSecondsPerFrame and LKRMSE are OpenCV's pyramidal Lucas–Kanade on
-	// the same frames and points (its pyramids rebuilt each frame).
+	// the same frames and points (its pyramids rebuilt each frame); LKRMSE
+	// is over the points it tracked, NaN when it tracked none.
 	LKSecondsPerFrame, LKRMSE float64
 	// VsLK is SecondsPerFrame / LKSecondsPerFrame: the tracker's time per
 	// point over Lucas–Kanade's on the same points, measured in the same
@@ -207,7 +208,10 @@ func TrackSequence(seq *Sequence, sub, step int) (SequenceRow, error) {
 	row.Iterations = iters / float64(n)
 	row.RMSE = math.Sqrt(sq / float64(n))
 	row.LKSecondsPerFrame = lkSecs / float64(frames)
-	row.LKRMSE = math.Sqrt(lkSq / float64(max(lkN, 1)))
+	row.LKRMSE = math.NaN() // Lucas–Kanade lost every point: no score, not a perfect one
+	if lkN > 0 {
+		row.LKRMSE = math.Sqrt(lkSq / float64(lkN))
+	}
 	row.VsLK = row.SecondsPerFrame / row.LKSecondsPerFrame
 	row.PeakRSS = peakRSS()
 	return row, nil
