@@ -191,7 +191,7 @@ func (d *Dating) Add(fr Frame) {
 // detection limit (its noise floor, Finder.Floor). A change in the mean
 // smaller than the limit is no onset however long it lasts: this is the
 // rule of Page's CUSUM with its reference value at the limit (Page 1954,
-// "Continuous inspection schemes", Biometrika 41, 100–115), whose
+// "Continuous inspection schemes", Biometrika 41, 100–115; from memory), whose
 // estimate of the change time is the last frame at which the cumulative
 // sum of the excess over the reference was zero; with the fitted change in
 // place of the noisy excess that is its first frame above the limit. So a
@@ -431,7 +431,7 @@ func changeAmplitude(c DriftChange, y, stress []float64) (float64, bool) {
 }
 
 // bootstrapOnset is the parametric bootstrap (Efron and Tibshirani 1993,
-// An Introduction to the Bootstrap, ch. 6) of the onset's two ends:
+// An Introduction to the Bootstrap, ch. 6; from memory) of the onset's two ends:
 // bootstrapDraws signals are drawn from the fitted drift and change plus
 // Gaussian noise (sigma for the normalised signal z, the residual width of
 // the change's fit for the strongest cell y), each is estimated as the
