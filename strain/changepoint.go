@@ -127,6 +127,13 @@ func (c ChangePoint) fitted(n int) []float64 {
 	return f
 }
 
+// shapeColumn returns the change's shape over n frames at unit amplitude
+// (0 before the onset): the column a fit of the change's amplitude uses.
+func (c ChangePoint) shapeColumn(n int) []float64 {
+	c.Size = 1
+	return c.fitted(n)
+}
+
 // Interval returns a confidence interval [lo, hi] for the onset with
 // confidence conf (such as 0.95), by the parametric bootstrap (Efron and
 // Tibshirani 1993, An Introduction to the Bootstrap, ch. 6; from memory): reps signals
