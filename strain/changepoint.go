@@ -52,10 +52,10 @@ type ChangePoint struct {
 // g(j), j = k − onset + 1, times an unknown amplitude a > 0; the onset m
 // maximises the log likelihood ratio against no change,
 // (Σ_{k≥m} g·z_k)² / (2·Σ_{k≥m} g²). For the step (g = 1) this is the
-// estimate of Hinkley (1970, Biometrika 57, 1–17) for a change in the mean
+// estimate of Hinkley (1970, Biometrika 57, 1–17; from memory) for a change in the mean
 // with the pre-change mean and the variance known; for the slope (g = j)
 // that of two-phase regression with a hinge (Hinkley 1969, Biometrika 56,
-// 495–504); the curve (g = j²) is the same likelihood for a growth that
+// 495–504; from memory); the curve (g = j²) is the same likelihood for a growth that
 // speeds up. Every scan takes O(n) through suffix sums of z, k·z and
 // k²·z. It reports false when no onset in the range gives a rise.
 func EstimateChange(z []float64, from, to int) (ChangePoint, bool) {
@@ -127,9 +127,16 @@ func (c ChangePoint) fitted(n int) []float64 {
 	return f
 }
 
+// shapeColumn returns the change's shape over n frames at unit amplitude
+// (0 before the onset): the column a fit of the change's amplitude uses.
+func (c ChangePoint) shapeColumn(n int) []float64 {
+	c.Size = 1
+	return c.fitted(n)
+}
+
 // Interval returns a confidence interval [lo, hi] for the onset with
 // confidence conf (such as 0.95), by the parametric bootstrap (Efron and
-// Tibshirani 1993, An Introduction to the Bootstrap, ch. 6): reps signals
+// Tibshirani 1993, An Introduction to the Bootstrap, ch. 6; from memory): reps signals
 // are drawn from the fitted change plus Gaussian noise of standard
 // deviation sigma (1 for a signal whose normalisation holds; more when the
 // fit's residuals say so), each is re-estimated as the signal was (the
@@ -218,8 +225,8 @@ func (p Prior) penalty(a, b float64) float64 {
 // least squares for every onset m in [from, to] and the three shapes of
 // EstimateChange; the estimate maximises the log likelihood ratio against
 // the line alone, (RSS_line − RSS_change)/2 for unit noise. This is the
-// two-phase regression of Hinkley (1969, Biometrika 56, 495–504) with the
-// first phase a line in the stress instead of a constant.
+// two-phase regression of Hinkley (1969, Biometrika 56, 495–504; from
+// memory) with the first phase a line in the stress instead of a constant.
 //
 // Why: a point's residual from its elastic baseline carries the baseline's
 // own error, δa + δb·σ, which grows with the stress beyond the calibration

@@ -191,7 +191,7 @@ func (d *Dating) Add(fr Frame) {
 // detection limit (its noise floor, Finder.Floor). A change in the mean
 // smaller than the limit is no onset however long it lasts: this is the
 // rule of Page's CUSUM with its reference value at the limit (Page 1954,
-// "Continuous inspection schemes", Biometrika 41, 100–115), whose
+// "Continuous inspection schemes", Biometrika 41, 100–115; from memory), whose
 // estimate of the change time is the last frame at which the cumulative
 // sum of the excess over the reference was zero; with the fitted change in
 // place of the noisy excess that is its first frame above the limit. So a
@@ -369,10 +369,7 @@ func detectable(c DriftChange, y, stress []float64, limit float64, trigger int) 
 // cellExcess is y less its drift line, fitted with c's change shape and
 // onset over it (a constant without a drift); nil when the fit fails.
 func cellExcess(c DriftChange, y, stress []float64) []float64 {
-	g := make([]float64, len(y))
-	for k := c.Onset; k < len(y); k++ {
-		g[k] = c.Model.shape(float64(k - c.Onset + 1))
-	}
+	g := c.shapeColumn(len(y))
 	out := slices.Clone(y)
 	if c.stress == nil {
 		var m float64
@@ -403,15 +400,10 @@ func cellExcess(c DriftChange, y, stress []float64) []float64 {
 // the stress (or a constant without a drift) and returns the change's
 // amplitude.
 func changeAmplitude(c DriftChange, y, stress []float64) (float64, bool) {
-	g := make([]float64, len(y))
-	for k := c.Onset; k < len(y); k++ {
-		g[k] = c.Model.shape(float64(k - c.Onset + 1))
-	}
-	s := stress
+	g := c.shapeColumn(len(y))
 	if c.stress == nil {
-		// No drift: a constant and the change (the stress column is
-		// replaced by a frame ramp that the constant cannot explain only
-		// when it is needed; here by zeros and a two-column fit).
+		// No drift: a two-column least-squares fit of a constant and the
+		// change.
 		var sw, sg, sgg, sy, sgy float64
 		for k := range y {
 			sw++
@@ -426,12 +418,12 @@ func changeAmplitude(c DriftChange, y, stress []float64) (float64, bool) {
 		}
 		return (sw*sgy - sg*sy) / det, true
 	}
-	coef, _, ok := fitThree(y, s, g, c.prior)
+	coef, _, ok := fitThree(y, stress, g, c.prior)
 	return coef[2], ok
 }
 
 // bootstrapOnset is the parametric bootstrap (Efron and Tibshirani 1993,
-// An Introduction to the Bootstrap, ch. 6) of the onset's two ends:
+// An Introduction to the Bootstrap, ch. 6; from memory) of the onset's two ends:
 // bootstrapDraws signals are drawn from the fitted drift and change plus
 // Gaussian noise (sigma for the normalised signal z, the residual width of
 // the change's fit for the strongest cell y), each is estimated as the
@@ -450,14 +442,8 @@ func bootstrapOnset(c DriftChange, z, y, stress []float64, from, to int, sigma f
 	var my []float64
 	sy := 0.0
 	if y != nil {
-		amp, _ := changeAmplitude(c, y, stress)
-		yc := c
-		yc.Size = amp
 		// The cell's own drift line, refitted with the change's shape.
-		g := make([]float64, n)
-		for k := c.Onset; k < n; k++ {
-			g[k] = c.Model.shape(float64(k - c.Onset + 1))
-		}
+		g := c.shapeColumn(n)
 		my = make([]float64, n)
 		if c.stress != nil {
 			coef, rss, _ := fitThree(y, stress, g, c.prior)
@@ -466,6 +452,7 @@ func bootstrapOnset(c DriftChange, z, y, stress []float64, from, to int, sigma f
 			}
 			sy = math.Sqrt(rss / float64(max(n-4, 1)))
 		} else {
+			amp, _ := changeAmplitude(c, y, stress)
 			var m float64
 			for k := range y {
 				m += y[k] - amp*g[k]

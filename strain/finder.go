@@ -114,11 +114,12 @@ func (f *Finder) SetNoise(calib []*Field, stress []float64) {
 		if ind == Decorrelation {
 			continue
 		}
+		cv := f.cfg.Thresholds.calibrationValues(ind, f.baseline, calib, stress)
 		var spreads []float64
-		for j, sf := range calib {
+		for j := range calib {
 			var vals []float64
-			for i := range sf.Points {
-				if v, ok := f.cfg.Thresholds.value(ind, f.baseline, sf, nil, nil, i, stress[j]); ok {
+			for i, v := range cv.value[j] {
+				if cv.have[j][i] {
 					vals = append(vals, v)
 				}
 			}
@@ -131,30 +132,49 @@ func (f *Finder) SetNoise(calib []*Field, stress []float64) {
 			f.noise[ind] = medianOf(spreads)
 		}
 		f.floor[ind] = math.Max(k*f.noise[ind], MinFloor)
-		f.scale[ind] = pointScale(f.cfg.Thresholds, ind, f.baseline, calib, stress)
+		f.scale[ind] = cv.pointScale()
 	}
 }
 
-// pointScale is each point's noise of indicator ind over the calibration
+// calibrationValues is one strain indicator's value at every point of
+// every calibration frame (value[j][i], have[j][i] false where there is
+// none), evaluated once for both the face's noise and each point's.
+type calibrationValues struct {
+	value [][]float64
+	have  [][]bool
+}
+
+func (t Thresholds) calibrationValues(ind Indicator, bl Baseline, calib []*Field, stress []float64) calibrationValues {
+	cv := calibrationValues{value: make([][]float64, len(calib)), have: make([][]bool, len(calib))}
+	for j, sf := range calib {
+		cv.value[j], cv.have[j] = make([]float64, len(sf.Points)), make([]bool, len(sf.Points))
+		for i := range sf.Points {
+			cv.value[j][i], cv.have[j][i] = t.value(ind, bl, sf, nil, nil, i, stress[j])
+		}
+	}
+	return cv
+}
+
+// pointScale is each point's noise of the indicator over the calibration
 // frames (the standard deviation of its values) relative to the median
 // over the points, at least 1: points whose own noise is larger than the
 // face's — next to an opening's wall or the face's edge, where the strain
 // window is one-sided, and where the baseline extrapolates that noise into
 // the loaded frames — need a higher bar, in proportion, to be marked. nil
 // with fewer than three calibration frames.
-func pointScale(t Thresholds, ind Indicator, bl Baseline, calib []*Field, stress []float64) []float64 {
-	if len(calib) < 3 {
+func (cv calibrationValues) pointScale() []float64 {
+	if len(cv.value) < 3 {
 		return nil
 	}
-	n := len(calib[0].Points)
+	n := len(cv.value[0])
 	sd := make([]float64, n)
 	var all []float64
-	vals := make([]float64, 0, len(calib))
+	vals := make([]float64, 0, len(cv.value))
 	for i := range n {
 		vals = vals[:0]
-		for j, sf := range calib {
-			if v, ok := t.value(ind, bl, sf, nil, nil, i, stress[j]); ok {
-				vals = append(vals, v)
+		for j := range cv.value {
+			if cv.have[j][i] {
+				vals = append(vals, cv.value[j][i])
 			}
 		}
 		if _, s, ok := calibrationSpread(vals); ok && len(vals) >= 3 {

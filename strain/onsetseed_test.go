@@ -245,7 +245,7 @@ func seedCases() []seedCase {
 // inside the onset's interval in at least minCovered % of the seeds; the
 // mean interval width does not shrink as the noise rises.
 //
-// What the issue asks and what is achieved (measured, 20 seeds): the
+// What was aimed for and what is achieved (measured, 20 seeds): the
 // detectable frame inside the interval in at least 90 % of the seeds holds
 // for the pillar band at every noise level and for the band at σ 1 and 2;
 // the crack (16–18 of 20), the notch (15–18) and the band at σ 0.5 (17)
@@ -255,7 +255,7 @@ func seedCases() []seedCase {
 // of the detectable frame in 90 % of the seeds holds for the pillar band
 // only (18–20 of 20); the band manages 11–14, the crack 2–8, the notch
 // 0–3 (onsets 2–3 frames late there). So this test holds what is
-// achieved, not the issue's bar; the log gives both counts. The pillar
+// achieved, not the aim; the log gives both counts. The pillar
 // band's zone is placed in the invert of the left opening in some seeds
 // (the zone-placement rule, by the majority of its cells, is not this
 // test's subject).
@@ -350,7 +350,7 @@ func TestSeedOnsets(t *testing.T) {
 
 // TestSeedNoFalseOnsets: 50 static frames, and a 40-frame elastic ramp,
 // each at three noise levels and several seeds, give no onset at all
-// (the issue's rule: no false alarms by construction).
+// (the rule: no false alarms by construction).
 func TestSeedNoFalseOnsets(t *testing.T) {
 	static := seedScenario()
 	static.Frames, static.Fields, static.Load = 50, nil, synth.Load{}

@@ -28,13 +28,18 @@ func TestClassifySectors(t *testing.T) {
 	}
 	for _, c := range cases {
 		op, sec := s.Classify(c.x, c.y)
-		if sec != c.want || (c.want != Pillar && op != c.op) {
+		if sec != c.want || op != c.op {
 			t.Errorf("(%g,%g): opening %d sector %s, want %d %s", c.x, c.y, op, sec, c.op, c.want)
 		}
 	}
-	// A load axis turned to horizontal swaps crown and sidewall.
+	// A load axis turned to horizontal swaps crown and sidewall: at 180°
+	// the crown direction −(cos 180°, sin 180°) is +x, so left of A is its
+	// invert and above it its left sidewall.
 	s.LoadAngleDeg = 180
-	if _, sec := s.Classify(130, 200); sec != Crown && sec != Invert {
-		t.Errorf("horizontal load: left of the opening is %s, want crown or invert", sec)
+	if _, sec := s.Classify(130, 200); sec != Invert {
+		t.Errorf("horizontal load: left of the opening is %s, want invert", sec)
+	}
+	if _, sec := s.Classify(200, 130); sec != LeftSidewall {
+		t.Errorf("horizontal load: above the opening is %s, want left-sidewall", sec)
 	}
 }

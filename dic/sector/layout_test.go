@@ -83,14 +83,21 @@ func TestLocateTwinOpenings(t *testing.T) {
 }
 
 // Overlapping openings bound no pillar; a horizontal load axis turns the
-// crown to the side (definition of the load angle).
+// crown to the side (definition of the load angle): at 180° the load
+// axis points along −x, so the crown direction −(cos 180°, sin 180°) is
+// +x, right of the opening, and the invert left of it.
 func TestLocateNoPillarAndTurnedLoad(t *testing.T) {
 	s := Layout{Openings: []Opening{{Shape: region.Circle(200, 200, 50)}, {Shape: region.Circle(280, 200, 50)}}}
 	if p := s.Locate(240, 260); p.Sector == Pillar {
 		t.Errorf("overlapping openings: %+v, want no pillar", p)
 	}
 	turned := Layout{Openings: []Opening{{Shape: region.Circle(200, 200, 50)}}, LoadAngleDeg: 180}
-	if p := turned.Locate(130, 200); p.Sector != Crown && p.Sector != Invert {
-		t.Errorf("horizontal load: left of the opening is %s, want crown or invert", p.Sector)
+	for _, c := range []struct {
+		x, y float64
+		want Sector
+	}{{270, 200, Crown}, {130, 200, Invert}, {200, 130, LeftSidewall}, {200, 270, RightSidewall}} {
+		if p := turned.Locate(c.x, c.y); p.Sector != c.want {
+			t.Errorf("horizontal load: (%g,%g) is %s, want %s", c.x, c.y, p.Sector, c.want)
+		}
 	}
 }

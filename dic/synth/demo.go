@@ -32,7 +32,7 @@ func DemoBlock() *Scenario {
 	// V-notches at both sidewalls, growing from frame 9 (the boundary
 	// stress then is about 0.3 UCS of the demo rock's 60 MPa).
 	for _, side := range []float64{1, -1} {
-		sc.Fields = append(sc.Fields, demoNotch(c+side*r, c, side, 48, 30, 9))
+		sc.Fields = append(sc.Fields, demoNotch(c+side*r, c, side, 48, 30, 9, 1))
 	}
 	// Tensile crack from the crown, running up parallel to the load.
 	crack := Crack{X0: c, Y0: c - r, X1: c + 6, Y1: c - r - 110, Opening: 1.6, Decay: 18}
@@ -68,10 +68,10 @@ func DemoTwin() *Scenario {
 	// Pillar walls first (arms 30 px into the 100 px pillar, in px of the front
 	// view's px), then the outer sidewalls.
 	sc.Fields = append(sc.Fields,
-		demoNotchScaled(ax+r, c, 1, 30, 22, 7, s),
-		demoNotchScaled(bx-r, c, -1, 30, 22, 10, s),
-		demoNotchScaled(ax-r, c, -1, 44, 28, 20, s),
-		demoNotchScaled(bx+r, c, 1, 44, 28, 25, s))
+		demoNotch(ax+r, c, 1, 30, 22, 7, s),
+		demoNotch(bx-r, c, -1, 30, 22, 10, s),
+		demoNotch(ax-r, c, -1, 44, 28, 20, s),
+		demoNotch(bx+r, c, 1, 44, 28, 25, s))
 	band := ShearBand{X0: ax + r + 12*s, Y0: c - 34*s, X1: bx - r - 12*s, Y1: c + 34*s, Slip: 1.0 * s, HalfWidth: 4 * s, Embedded: true}
 	sc.Fields = append(sc.Fields, FieldSpec{Band: &band, Drive: DriveGrowth, StartFrame: 33, FullFrame: 60})
 	crack := Crack{X0: bx, Y0: c - r, X1: bx - 5*s, Y1: c - r - 90*s, Opening: 1.4 * s, Decay: 16 * s}
@@ -108,14 +108,9 @@ func demoScenario(name string, size int, seed, camSeed uint64, oversample int) *
 
 // demoNotch is a V-notch at the wall point (wx, wy) opening towards side
 // (+1 right, −1 left): arms out by dx and up and down by dy px, growing
-// over 24 frames from start.
-func demoNotch(wx, wy, side, dx, dy float64, start int) FieldSpec {
-	return demoNotchScaled(wx, wy, side, dx, dy, start, 1)
-}
-
-// demoNotchScaled is demoNotch with lengths and slip in px of the front
-// view, scaled by s to this view.
-func demoNotchScaled(wx, wy, side, dx, dy float64, start int, s float64) FieldSpec {
+// over 24 frames from start; lengths and slip are in px of the front
+// view, scaled by s (px of this view per px of the front view).
+func demoNotch(wx, wy, side, dx, dy float64, start int, s float64) FieldSpec {
 	n := Notch{X0: wx, Y0: wy, X1: wx + side*dx*s, Y1: wy - dy*s, X2: wx + side*dx*s, Y2: wy + dy*s, Slip: 1.2 * s, HalfWidth: 3.5 * s}
 	return FieldSpec{Notch: &n, Drive: DriveGrowth, StartFrame: start, FullFrame: start + 24}
 }

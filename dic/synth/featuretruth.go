@@ -244,8 +244,7 @@ func (sc *Scenario) featureCurves(ft *FeatureTruth, rock []bool) {
 	ft.VSGGamma = make([]float64, sc.Frames)
 	w := newWindowMeans(sc.Width, sc.Height, rock)
 	prev := 0.0
-	var peakX, peakY []float64
-	peakX, peakY = make([]float64, sc.Frames), make([]float64, sc.Frames)
+	peakX, peakY := make([]float64, sc.Frames), make([]float64, sc.Frames)
 	for f := 0; f < sc.Frames; f++ {
 		g := sc.Factor(ft.Field, f)
 		switch {

@@ -13,7 +13,8 @@ func twinKirsch() KirschPair {
 
 // perturbationBound bounds every Cartesian stress component of one Kirsch
 // hole's perturbation (its field minus the far field) at distance r: from
-// the published stresses (Jaeger, Cook & Zimmerman eqs. 8.4.9–8.4.11) the
+// the published stresses (Jaeger, Cook & Zimmerman, Fundamentals of
+// Rock Mechanics, eqs. 8.4.9–8.4.11; equation numbers from memory) the
 // perturbations are σrr' = −Pρ² + Q(−4ρ² + 3ρ⁴)cos2θ, σθθ' = Pρ² −
 // 3Qρ⁴cos2θ, σrθ' = −Q(2ρ² − 3ρ⁴)sin2θ with ρ = a/r, and a Cartesian
 // component is at most |σrr'| + |σθθ'| + |σrθ'|.
