@@ -6,6 +6,8 @@ import (
 	"slices"
 	"strings"
 
+	"gonum.org/v1/gonum/stat"
+
 	"spallscope/cmd/spallscope/internal/stage"
 	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
@@ -131,20 +133,13 @@ func (r *testRun) elasticMagnification(names []string, rec *runfolder.MotionReco
 	if len(xs) < 2 {
 		return nil
 	}
-	var mx, my float64
-	for i := range xs {
-		mx, my = mx+xs[i], my+ys[i]
-	}
-	mx, my = mx/float64(len(xs)), my/float64(len(xs))
-	var sxx, sxy float64
-	for i := range xs {
-		sxx, sxy = sxx+(xs[i]-mx)*(xs[i]-mx), sxy+(xs[i]-mx)*(ys[i]-my)
-	}
 	b := runfolder.MotionBaseline{Frames: len(xs)}
-	if sxx > 0 {
-		b.PerMPa = sxy / sxx
+	if stat.Variance(xs, nil) > 0 {
+		b.Intercept, b.PerMPa = stat.LinearRegression(xs, ys, nil, false)
+	} else {
+		// one stress (unloaded calibration frames): no slope to fit
+		b.Intercept = stat.Mean(ys, nil)
 	}
-	b.Intercept = my - b.PerMPa*mx
 	for _, f := range states {
 		b.Stress = append(b.Stress, f.Stress)
 	}
