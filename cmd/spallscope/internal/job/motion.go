@@ -9,9 +9,9 @@ import (
 	"gonum.org/v1/gonum/stat"
 
 	"spallscope/cmd/spallscope/internal/stage"
-	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/similarity"
+	"spallscope/strain"
 	"spallscope/strain/strainfile"
 )
 
@@ -24,16 +24,13 @@ import (
 const FarFieldReach = 3.0
 
 // farFieldKeep reports the points far from every opening (see
-// FarFieldReach); shapes that do not parse are checked elsewhere.
-func farFieldKeep(openings []string) func(x, y int) bool {
+// FarFieldReach), the openings in the fields' pixels (the zone stage's,
+// undistorted with a lens).
+func farFieldKeep(openings []strain.Opening) func(x, y int) bool {
 	type disc struct{ cx, cy, r float64 }
 	var ds []disc
-	for _, s := range openings {
-		shape, err := region.ParseShape(s)
-		if err != nil {
-			continue
-		}
-		x0, y0, x1, y1 := shape.Bounds()
+	for _, o := range openings {
+		x0, y0, x1, y1 := o.Shape.Bounds()
 		ds = append(ds, disc{(x0 + x1) / 2, (y0 + y1) / 2, FarFieldReach * math.Hypot(x1-x0, y1-y0) / 2})
 	}
 	return func(x, y int) bool {
@@ -78,11 +75,7 @@ func (r *testRun) recordFarFieldMotion(res *strainfile.ResolutionRecord) error {
 	if r.tp.lens != nil {
 		rec.Centre, rec.CentreIs = [2]float64{r.tp.lens.Model.Cx, r.tp.lens.Model.Cy}, "principal point of the lens file"
 	}
-	var shapes []string
-	for _, o := range r.t.Openings {
-		shapes = append(shapes, o.Shape)
-	}
-	keep := farFieldKeep(shapes)
+	keep := farFieldKeep(r.zoneCfg.Finder.Sectors.Openings)
 	for _, name := range names {
 		f, err := runfolder.ReadField(runfolder.FieldPath(r.out, name))
 		if err != nil {
