@@ -84,9 +84,12 @@ interval.`,
 				}
 				st := frames.Describe(img)
 				if flash {
-					m, n := frames.RegionMean(img, inside)
-					if n == 0 && inside != nil {
-						return fmt.Errorf("--flash-region %q: holds no pixel of frame %d (%s), %dx%d px", flashRegion, i, seq.Name(i), img.Width, img.Height)
+					m := st.Mean // the whole frame's, already summed by Describe
+					if inside != nil {
+						var n int
+						if m, n = frames.RegionMean(img, inside); n == 0 {
+							return fmt.Errorf("--flash-region %q: holds no pixel of frame %d (%s), %dx%d px", flashRegion, i, seq.Name(i), img.Width, img.Height)
+						}
 					}
 					regionMeans = append(regionMeans, m)
 				}

@@ -1,16 +1,12 @@
 package frames
 
 import (
-	"bufio"
 	"bytes"
 	"encoding/binary"
 	"fmt"
 	"image"
 	"image/jpeg"
 	"math"
-	"os"
-	"path/filepath"
-	"strings"
 
 	exif "github.com/dsoprea/go-exif/v3"
 	exifcommon "github.com/dsoprea/go-exif/v3/common"
@@ -83,39 +79,14 @@ func EncodeJPEG(img image.Image, tags CaptureTags, quality int) ([]byte, error) 
 	return out.Bytes(), nil
 }
 
-// WriteJPEG writes img (gray levels of 8 bits, rounded and clamped) as a
-// gray JPEG at the given quality with the capture-time tags, atomically
-// (a temporary name in the same folder, then a rename), as a camera that
-// stamps its clock into each photo would.
-func WriteJPEG(path string, img *subset.Image, tags CaptureTags, quality int) error {
+// GrayJPEG encodes img (gray levels of 8 bits, rounded and clamped) as a
+// gray JPEG at the given quality with the capture-time tags, as a camera
+// that stamps its clock into each photo would. Write it with
+// runfolder.WriteAtomic.
+func GrayJPEG(img *subset.Image, tags CaptureTags, quality int) ([]byte, error) {
 	g := image.NewGray(image.Rect(0, 0, img.Width, img.Height))
 	for i, v := range img.Pix {
 		g.Pix[i] = uint8(math.Min(255, math.Max(0, math.Round(float64(v)))))
 	}
-	data, err := EncodeJPEG(g, tags, quality)
-	if err != nil {
-		return fmt.Errorf("write image %s: %w", path, err)
-	}
-	ext := filepath.Ext(path)
-	tmp := strings.TrimSuffix(path, ext) + ".partial" + ext
-	f, err := os.Create(tmp)
-	if err != nil {
-		return fmt.Errorf("write image %s: %w", path, err)
-	}
-	w := bufio.NewWriter(f)
-	_, err = w.Write(data)
-	if err == nil {
-		err = w.Flush()
-	}
-	if cerr := f.Close(); err == nil {
-		err = cerr
-	}
-	if err == nil {
-		err = os.Rename(tmp, path)
-	}
-	if err != nil {
-		os.Remove(tmp)
-		return fmt.Errorf("write image %s: %w", path, err)
-	}
-	return nil
+	return EncodeJPEG(g, tags, quality)
 }

@@ -1,6 +1,7 @@
 package frames
 
 import (
+	"cmp"
 	"math"
 	"slices"
 
@@ -68,14 +69,6 @@ func FindFlashes(means []float64, minJump float64) []Flash {
 			lastFlagged = i
 		}
 	}
-	slices.SortStableFunc(out, func(a, b Flash) int {
-		switch {
-		case a.Jump > b.Jump:
-			return -1
-		case a.Jump < b.Jump:
-			return 1
-		}
-		return 0
-	})
+	slices.SortStableFunc(out, func(a, b Flash) int { return cmp.Compare(b.Jump, a.Jump) })
 	return out
 }

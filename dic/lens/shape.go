@@ -22,13 +22,6 @@ const shapeEdgePoints = 8
 // edges' undistorted points. It fails where a point does not undistort
 // (beyond the lens's fold).
 func (m *Model) UndistortShape(s region.Shape) (region.Shape, error) {
-	und := func(x, y float64) (float64, float64, error) {
-		X, Y, ok := m.Undistort(x, y)
-		if !ok {
-			return 0, 0, fmt.Errorf("point (%g, %g) px of the shape does not undistort through the lens", x, y)
-		}
-		return X, Y, nil
-	}
 	switch v := s.(type) {
 	case region.Ellipse:
 		if v.Rx == v.Ry && (v.Cx != m.Cx || v.Cy != m.Cy) {
@@ -40,7 +33,7 @@ func (m *Model) UndistortShape(s region.Shape) (region.Shape, error) {
 		s, c := math.Sincos(v.AngleDeg * math.Pi / 180)
 		var ends [4][2]float64
 		for k, d := range [4][2]float64{{v.Rx, 0}, {-v.Rx, 0}, {0, v.Ry}, {0, -v.Ry}} {
-			x, y, err := und(v.Cx+c*d[0]-s*d[1], v.Cy+s*d[0]+c*d[1])
+			x, y, err := m.undistortShapePoint(v.Cx+c*d[0]-s*d[1], v.Cy+s*d[0]+c*d[1])
 			if err != nil {
 				return nil, err
 			}
@@ -67,12 +60,22 @@ func (m *Model) undistortRing(pts [][2]float64) (region.Shape, error) {
 		q := pts[(i+1)%len(pts)]
 		for k := 0; k < shapeEdgePoints; k++ {
 			f := float64(k) / shapeEdgePoints
-			x, y, ok := m.Undistort(p[0]+f*(q[0]-p[0]), p[1]+f*(q[1]-p[1]))
-			if !ok {
-				return nil, fmt.Errorf("point (%g, %g) px of the shape does not undistort through the lens", p[0], p[1])
+			x, y, err := m.undistortShapePoint(p[0]+f*(q[0]-p[0]), p[1]+f*(q[1]-p[1]))
+			if err != nil {
+				return nil, err
 			}
 			out = append(out, [2]float64{x, y})
 		}
 	}
 	return out, nil
+}
+
+// undistortShapePoint undistorts photo point (x, y) of a shape, failing
+// with the point named where it does not undistort.
+func (m *Model) undistortShapePoint(x, y float64) (float64, float64, error) {
+	X, Y, ok := m.Undistort(x, y)
+	if !ok {
+		return 0, 0, fmt.Errorf("point (%g, %g) px of the shape does not undistort through the lens", x, y)
+	}
+	return X, Y, nil
 }

@@ -1,9 +1,11 @@
 package synth
 
 import (
+	"bufio"
 	"fmt"
 
 	"spallscope/dic/frames"
+	"spallscope/dic/runfolder"
 	"spallscope/subset"
 )
 
@@ -52,7 +54,14 @@ func (sc *Scenario) writeFrame(path string, img *subset.Image, frame int) error 
 		if sc.Exif != nil {
 			tags = sc.Exif.Tags(sc.Time(frame))
 		}
-		return frames.WriteJPEG(path, img, tags, JPEGQuality)
+		data, err := frames.GrayJPEG(img, tags, JPEGQuality)
+		if err != nil {
+			return fmt.Errorf("write image %s: %w", path, err)
+		}
+		return runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
+			_, err := w.Write(data)
+			return err
+		})
 	}
 	return frames.WriteImage(path, img, sc.Camera.withDefaults().Depth)
 }

@@ -6,10 +6,12 @@ import (
 	"slices"
 	"strings"
 
+	"gonum.org/v1/gonum/stat"
+
 	"spallscope/cmd/spallscope/internal/stage"
-	"spallscope/dic/region"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/similarity"
+	"spallscope/strain"
 	"spallscope/strain/strainfile"
 )
 
@@ -22,16 +24,13 @@ import (
 const FarFieldReach = 3.0
 
 // farFieldKeep reports the points far from every opening (see
-// FarFieldReach); shapes that do not parse are checked elsewhere.
-func farFieldKeep(openings []string) func(x, y int) bool {
+// FarFieldReach), the openings in the fields' pixels (the zone stage's,
+// undistorted with a lens).
+func farFieldKeep(openings []strain.Opening) func(x, y int) bool {
 	type disc struct{ cx, cy, r float64 }
 	var ds []disc
-	for _, s := range openings {
-		shape, err := region.ParseShape(s)
-		if err != nil {
-			continue
-		}
-		x0, y0, x1, y1 := shape.Bounds()
+	for _, o := range openings {
+		x0, y0, x1, y1 := o.Shape.Bounds()
 		ds = append(ds, disc{(x0 + x1) / 2, (y0 + y1) / 2, FarFieldReach * math.Hypot(x1-x0, y1-y0) / 2})
 	}
 	return func(x, y int) bool {
@@ -76,11 +75,7 @@ func (r *testRun) recordFarFieldMotion(res *strainfile.ResolutionRecord) error {
 	if r.tp.lens != nil {
 		rec.Centre, rec.CentreIs = [2]float64{r.tp.lens.Model.Cx, r.tp.lens.Model.Cy}, "principal point of the lens file"
 	}
-	var shapes []string
-	for _, o := range r.t.Openings {
-		shapes = append(shapes, o.Shape)
-	}
-	keep := farFieldKeep(shapes)
+	keep := farFieldKeep(r.zoneCfg.Finder.Sectors.Openings)
 	for _, name := range names {
 		f, err := runfolder.ReadField(runfolder.FieldPath(r.out, name))
 		if err != nil {
@@ -131,20 +126,13 @@ func (r *testRun) elasticMagnification(names []string, rec *runfolder.MotionReco
 	if len(xs) < 2 {
 		return nil
 	}
-	var mx, my float64
-	for i := range xs {
-		mx, my = mx+xs[i], my+ys[i]
-	}
-	mx, my = mx/float64(len(xs)), my/float64(len(xs))
-	var sxx, sxy float64
-	for i := range xs {
-		sxx, sxy = sxx+(xs[i]-mx)*(xs[i]-mx), sxy+(xs[i]-mx)*(ys[i]-my)
-	}
 	b := runfolder.MotionBaseline{Frames: len(xs)}
-	if sxx > 0 {
-		b.PerMPa = sxy / sxx
+	if stat.Variance(xs, nil) > 0 {
+		b.Intercept, b.PerMPa = stat.LinearRegression(xs, ys, nil, false)
+	} else {
+		// one stress (unloaded calibration frames): no slope to fit
+		b.Intercept = stat.Mean(ys, nil)
 	}
-	b.Intercept = my - b.PerMPa*mx
 	for _, f := range states {
 		b.Stress = append(b.Stress, f.Stress)
 	}
