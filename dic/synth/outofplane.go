@@ -53,27 +53,6 @@ func (sc *Scenario) PrincipalPoint() (cx, cy float64) {
 	return float64(sc.Width-1) / 2, float64(sc.Height-1) / 2
 }
 
-// driveFactor is the magnitude fraction of a drive at a frame (see
-// Factor).
-func (sc *Scenario) driveFactor(d Drive, start, full, frame int) float64 {
-	switch d {
-	case DriveLoad:
-		if !(sc.Load.PeakStress > 0) {
-			return 0
-		}
-		return sc.Stress(frame) / sc.Load.PeakStress
-	case DriveRamp:
-		if sc.Frames < 2 {
-			return 0
-		}
-		return float64(frame) / float64(sc.Frames-1)
-	case DriveGrowth:
-		g := float64(frame-start) / float64(full-start)
-		return math.Min(1, math.Max(0, g))
-	}
-	return 0
-}
-
 // Validate reports an out-of-plane motion that cannot be rendered.
 func (o *OutOfPlane) Validate(sc *Scenario) error {
 	var errs []error

@@ -320,8 +320,18 @@ func (sc *Scenario) Stress(frame int) float64 { return sc.StressAt(sc.Time(frame
 // Factor returns the magnitude fraction of field spec i at a frame.
 func (sc *Scenario) Factor(i, frame int) float64 {
 	f := sc.Fields[i]
-	switch f.Drive {
+	return sc.driveFactor(f.Drive, f.StartFrame, f.FullFrame, frame)
+}
+
+// driveFactor is the magnitude fraction at a frame of drive d, with start
+// and full the first and the full frame of a growth: what Factor gives a
+// field and the out-of-plane motion its magnitude by.
+func (sc *Scenario) driveFactor(d Drive, start, full, frame int) float64 {
+	switch d {
 	case DriveLoad:
+		if !(sc.Load.PeakStress > 0) {
+			return 0
+		}
 		return sc.Stress(frame) / sc.Load.PeakStress
 	case DriveRamp:
 		if sc.Frames < 2 {
@@ -329,7 +339,7 @@ func (sc *Scenario) Factor(i, frame int) float64 {
 		}
 		return float64(frame) / float64(sc.Frames-1)
 	case DriveGrowth:
-		g := float64(frame-f.StartFrame) / float64(f.FullFrame-f.StartFrame)
+		g := float64(frame-start) / float64(full-start)
 		return math.Min(1, math.Max(0, g))
 	}
 	return 0
