@@ -216,3 +216,51 @@ func TestLensFileRefused(t *testing.T) {
 		}
 	}
 }
+
+// The zones stage refuses a run whose lens file was changed after
+// tracking, naming the file, and accepts it again once the file is back.
+func TestZonesRefuseChangedLens(t *testing.T) {
+	dir := lensPhotos(t)
+	body, err := os.ReadFile(filepath.Join(dir, "lens.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	own := filepath.Join(dir, "own-lens.json") // a copy: the fixture's file is shared
+	if err := os.WriteFile(own, body, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(dir, "t.yaml")
+	if err := os.WriteFile(path, []byte("images: synth/frames\ncorrelation: {subset: 25, step: 16}\nlens: own-lens.json\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	tc, err := config.Read(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "run")
+	if _, err := Track(context.Background(), tc, out, tool, nil); err != nil {
+		t.Fatal(err)
+	}
+	var tr runfolder.TrackRecord
+	if err := runfolder.Section(out, "track", &tr); err != nil || tr.Lens == nil {
+		t.Fatalf("track record %+v, %v: want a lens record", tr, err)
+	}
+	if err := sameLens(tr.Lens); err != nil {
+		t.Errorf("unchanged lens file: %v", err)
+	}
+	other := strongLens
+	other.K1 = -0.39
+	if err := runfolder.WriteJSON(own, lens.FileOf(other)); err != nil {
+		t.Fatal(err)
+	}
+	_, _, err = Zones(&config.Test{}, out, tool)
+	if err == nil || !strings.Contains(err.Error(), "own-lens.json") || !strings.Contains(err.Error(), "changed since tracking") {
+		t.Errorf("zones after the lens file changed: error %v, want it to name own-lens.json and say it changed since tracking", err)
+	}
+	if err := os.WriteFile(own, body, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := sameLens(tr.Lens); err != nil {
+		t.Errorf("lens file restored: %v", err)
+	}
+}
