@@ -307,9 +307,13 @@ func openRenderRun(dir string, opt Options) (*renderRun, error) {
 	}
 	if tr.Lens != nil {
 		path := resolveRunPath(dir, tr.Lens.File)
-		switch m, err := lens.Read(path); {
+		m, err := lens.Read(path)
+		changed := tr.Lens.Unchanged(path)
+		switch {
 		case err != nil:
 			rr.notes = append(rr.notes, fmt.Sprintf("the fields are corrected for the lens %s, which cannot be read (%v): they are drawn at their undistorted positions, off the photos by the lens's distortion towards the frame's corners", path, err))
+		case changed != nil:
+			rr.notes = append(rr.notes, fmt.Sprintf("%v: the fields are drawn at their undistorted positions, not through the changed lens", changed))
 		case m.Width != rr.ref.Width || m.Height != rr.ref.Height:
 			rr.notes = append(rr.notes, fmt.Sprintf("the lens %s is for %dx%d px photos, these are %dx%d px: the fields are drawn at their undistorted positions", path, m.Width, m.Height, rr.ref.Width, rr.ref.Height))
 		default:

@@ -245,7 +245,7 @@ func TestZonesRefuseChangedLens(t *testing.T) {
 	if err := runfolder.Section(out, "track", &tr); err != nil || tr.Lens == nil {
 		t.Fatalf("track record %+v, %v: want a lens record", tr, err)
 	}
-	if err := sameLens(tr.Lens); err != nil {
+	if err := tr.Lens.Unchanged(tr.Lens.File); err != nil {
 		t.Errorf("unchanged lens file: %v", err)
 	}
 	other := strongLens
@@ -260,7 +260,7 @@ func TestZonesRefuseChangedLens(t *testing.T) {
 	if err := os.WriteFile(own, body, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if err := sameLens(tr.Lens); err != nil {
+	if err := tr.Lens.Unchanged(tr.Lens.File); err != nil {
 		t.Errorf("lens file restored: %v", err)
 	}
 }

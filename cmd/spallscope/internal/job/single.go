@@ -96,7 +96,7 @@ func Zones(t *config.Test, dir, tool string) (rep *strainfile.OnsetReport, notes
 			if err != nil {
 				return nil, nil, fmt.Errorf("the fields of %s are corrected for a lens, whose file is needed to place the openings: %w", dir, err)
 			}
-			if err := sameLens(tr.Lens); err != nil {
+			if err := tr.Lens.Unchanged(tr.Lens.File); err != nil {
 				return nil, nil, fmt.Errorf("run folder %s: %w", dir, err)
 			}
 			if err := undistortOpenings(&st, &m); err != nil {
