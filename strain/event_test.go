@@ -126,6 +126,7 @@ func TestOneOnsetPerEvent(t *testing.T) {
 			for ni, sigma := range noises {
 				for s := range eventSeeds {
 					r := runSeed(t, sc, sigma, uint64(5000+100*ni+s))
+					r.onsets = strain.JoinEvents(r.onsets, r.finder.VSG())
 					runs++
 					var got []strain.Place
 					var desc []string
@@ -168,22 +169,28 @@ func TestOneOnsetPerEvent(t *testing.T) {
 	}
 }
 
-// JoinClasses joins a localization and a decorrelation onset at one place
+// JoinEvents joins a localization and a decorrelation onset at one place
 // whose intervals share frames (the demo's crack from the crown: its strain
 // and its decorrelation dated to frames 30 and 29, intervals 15–31 and
 // 23–33, measured) into one, the earlier, and leaves apart those at one
-// place whose intervals are apart (the demo's sidewall: notch localized at
-// 18 within 10–19, spall decorrelated at 54) and those at other places.
-func TestJoinClasses(t *testing.T) {
+// place whose intervals are apart (the demo's right sidewall: the notch
+// localized at 18 within 10–19, the spall decorrelated at 54), onsets more
+// than a VSG apart with overlapping intervals (the notch and the crack's
+// strain, 132 px apart) and onsets at another opening; a band's lobe in
+// the next sector, 40 px away with an overlapping interval, joins the
+// band. Centroids and frames as measured on the demo's front face, the
+// lobe our own.
+func TestJoinEvents(t *testing.T) {
 	iv := func(lo, hi int) *strain.OnsetInterval { return &strain.OnsetInterval{FirstFrame: lo, LastFrame: hi} }
 	onsets := []strain.Onset{
-		{Opening: 0, Sector: strain.RightSidewall, Class: strain.Localization, Indicator: strain.MaxShear, Frame: 18, Interval: iv(10, 19), ByIndicator: map[strain.Indicator]int{strain.MaxShear: 21}},
-		{Opening: 0, Sector: strain.Crown, Class: strain.Decorrelated, Indicator: strain.Decorrelation, Frame: 29, Interval: iv(23, 33), ByIndicator: map[strain.Indicator]int{strain.Decorrelation: 34}},
-		{Opening: 0, Sector: strain.Crown, Class: strain.Localization, Indicator: strain.MaxShear, Frame: 30, Interval: iv(15, 31), ByIndicator: map[strain.Indicator]int{strain.MaxShear: 39}},
-		{Opening: 0, Sector: strain.RightSidewall, Class: strain.Decorrelated, Indicator: strain.Decorrelation, Frame: 54, Interval: iv(54, 54), ByIndicator: map[strain.Indicator]int{strain.Decorrelation: 54}},
-		{Opening: 1, Sector: strain.Crown, Class: strain.Localization, Indicator: strain.MaxShear, Frame: 31, Interval: iv(25, 32)},
+		{Opening: 0, Sector: strain.RightSidewall, Class: strain.Localization, Indicator: strain.MaxShear, Frame: 18, Interval: iv(10, 19), Cx: 339, Cy: 257, ByIndicator: map[strain.Indicator]int{strain.MaxShear: 21}},
+		{Opening: 0, Sector: strain.Crown, Class: strain.Decorrelated, Indicator: strain.Decorrelation, Frame: 29, Interval: iv(23, 33), Cx: 255, Cy: 183, ByIndicator: map[strain.Indicator]int{strain.Decorrelation: 34}},
+		{Opening: 0, Sector: strain.Crown, Class: strain.Localization, Indicator: strain.MaxShear, Frame: 30, Interval: iv(15, 31), Cx: 239, Cy: 171, ByIndicator: map[strain.Indicator]int{strain.MaxShear: 39}},
+		{Opening: 0, Sector: strain.Invert, Class: strain.Localization, Indicator: strain.MaxPrincipal, Frame: 19, Interval: iv(17, 22), Cx: 331, Cy: 296, ByIndicator: map[strain.Indicator]int{strain.MaxPrincipal: 24}},
+		{Opening: 0, Sector: strain.RightSidewall, Class: strain.Decorrelated, Indicator: strain.Decorrelation, Frame: 54, Interval: iv(54, 54), Cx: 331, Cy: 256, ByIndicator: map[strain.Indicator]int{strain.Decorrelation: 54}},
+		{Opening: 1, Sector: strain.Crown, Class: strain.Localization, Indicator: strain.MaxShear, Frame: 31, Interval: iv(25, 32), Cx: 250, Cy: 190},
 	}
-	got := strain.JoinClasses(onsets)
+	got := strain.JoinEvents(onsets, 69)
 	if len(got) != 4 {
 		t.Fatalf("%d onsets, want 4: %+v", len(got), got)
 	}
@@ -197,6 +204,12 @@ func TestJoinClasses(t *testing.T) {
 		if o := got[k]; o.Sector != w.sec || o.Opening != w.op || o.Class != w.class || o.Frame != w.frame {
 			t.Errorf("onset %d: %d %s %s at %d, want %d %s %s at %d", k, o.Opening, o.Sector, o.Class, o.Frame, w.op, w.sec, w.class, w.frame)
 		}
+	}
+	if r := got[0].Reached; len(r) != 1 || r[0] != (strain.Reach{Opening: 0, Sector: strain.Invert}) {
+		t.Errorf("the sidewall's event reached %v, want the invert (its lobe)", r)
+	}
+	if by := got[0].ByIndicator; by[strain.MaxPrincipal] != 24 || by[strain.MaxShear] != 21 {
+		t.Errorf("the sidewall's frames by indicator %v, want e1 24 and gamma_max 21", by)
 	}
 	if by := got[1].ByIndicator; by[strain.Decorrelation] != 34 || by[strain.MaxShear] != 39 {
 		t.Errorf("joined onset's frames by indicator %v, want decorrelation 34 and gamma_max 39", by)
