@@ -52,11 +52,11 @@ type zoneRun struct {
 // crack from the crown a VSG from a sidewall notch marked ten frames
 // before, as on the demo's twin face — is an event of its own, unless its
 // points were marked by the earlier event's zones: a fracture that starts
-// inside an earlier one's marked points is not told apart from it
-// (TestOneOnsetPerEvent measures how often). Events at different openings are never joined
-// by distance: the two walls of a pillar belong to different openings
-// (sector.Layout.Locate names the nearer wall's), and their fractures are
-// two events even when closer than a VSG. Runs that connect only after
+// inside an earlier one's marked points is not told apart from it.
+// Events at different openings are never joined by distance: the two
+// walls of a pillar belong to different openings (sector.Layout.Locate
+// names the nearer wall's), and their fractures are two events even when
+// closer than a VSG. Runs that connect only after
 // both were confirmed on their own stay two events (two fractures that
 // coalesce), and a run that meets two events joins one of them only,
 // unless all three were first marked within p frames.
@@ -108,9 +108,10 @@ func (f *Finder) events(runs []zoneRun) [][]int {
 			parent[y] = closest
 			continue
 		}
-		parent[y] = met[0]
-		for _, r := range met[1:] {
-			parent[r] = met[0]
+		first := slices.Min(met) // the earliest run roots the event
+		parent[y] = first
+		for _, r := range met {
+			parent[r] = first
 		}
 	}
 	byRoot := map[int][]int{}

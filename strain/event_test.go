@@ -95,17 +95,19 @@ func wideTwin() *synth.Scenario {
 }
 
 // One onset per physical event (the zone finder's event rule, see
-// Finder.Onsets and events): on synthetic displacement fields with a
-// subset's noise (runSeed) at gray-level noise 0.5, 1 and 2, over
-// eventSeeds seeds each, each case gives exactly its events' localization
-// onsets, at their places, in all but at most 2 of its runs, and at most 1
-// onset at a place without an event (the opposite sidewall of a one-sided
-// crack, a band's lobe in the next sector). Measured, runs exact / onsets
-// at places without an event, this rule against the old one (one onset per
-// place and zone ID): band across a sector boundary 15/0 against 0/15, two
-// sidewall notches 15/0 against 12/3, one-sided crack 15/0 against 12/3,
-// pillar band 14/1 against 0/17 (the old rule gave its lobe below the
-// pillar an onset in the invert), pillar-wall notches 10/0 against 8/4.
+// Finder.Onsets and events, then JoinEvents after back-dating, as the zones
+// stage runs them): on synthetic displacement fields with a subset's noise
+// (runSeed) at gray-level noise 0.5, 1 and 2, over eventSeeds seeds each,
+// each case gives exactly its events' localization onsets, at their
+// places, in all but at most 2 of its runs, and at most 1 onset at a place
+// without an event (the opposite sidewall of a one-sided crack, a band's
+// lobe in the next sector). Measured, runs exact / onsets at places
+// without an event, this rule against the old one (one onset per place and
+// zone ID, no joining): band across a sector boundary 14/1 against 0/15,
+// two sidewall notches 15/0 against 12/3, one-sided crack 14/1 against
+// 12/3, pillar band 14/1 against 0/17 (the old rule gave its lobe below
+// the pillar an onset in the invert), pillar-wall notches 10/0 against
+// 8/4.
 func TestOneOnsetPerEvent(t *testing.T) {
 	for _, c := range eventCases() {
 		t.Run(c.name, func(t *testing.T) {

@@ -37,7 +37,7 @@ type Onset struct {
 	// ByIndicator gives, for each indicator that fired for this event
 	// (and for later events of its place and class), the first frame of
 	// its confirmed zone (the earliest is the onset before back-dating; a
-	// decorrelation joined to a localization by JoinClasses adds its own).
+	// decorrelation joined to a localization by JoinEvents adds its own).
 	ByIndicator map[Indicator]int `json:"frame_by_indicator"`
 	// Touches names the openings a through-going zone links.
 	Touches []int `json:"touches,omitempty"`
