@@ -29,6 +29,9 @@ type pageOnset struct {
 	Trigger, Back string
 	// Flag warns about the row, e.g. a stress from outside the load log.
 	Flag string
+	// Reached names the other places the event's zones grew into ("" for
+	// none), and Also the other indicators' first frames of the event.
+	Reached, Also string
 	// Short is the boundary-stress comparison in a few words for the
 	// table; Context the whole of it.
 	Short   string
@@ -98,6 +101,8 @@ func onsetRows(r *runRecords) []pageOnset {
 		if len(o.Touches) > 1 {
 			row.Flag = joinNonEmpty("; ", row.Flag, fmt.Sprintf("links openings %s", openingNames(r.Onset.Openings, o.Touches)))
 		}
+		row.Reached = reachedText(r.Onset.Openings, o.Reached)
+		row.Also = alsoText(o)
 		if o.Context != nil {
 			row.Context = newPageContext(o, k)
 			row.Short = shortContext(o.Context)
@@ -111,6 +116,47 @@ func onsetRows(r *runRecords) []pageOnset {
 		rows = append(rows, row)
 	}
 	return rows
+}
+
+// reachedText names the places an event grew into besides its own:
+// "A crown, B pillar" ("" for none).
+func reachedText(ops []strainfile.OpeningRecord, reached []strain.Reach) string {
+	var parts []string
+	for _, rc := range reached {
+		if rc.Opening < 0 {
+			parts = append(parts, "rock beyond the openings' reach")
+			continue
+		}
+		parts = append(parts, openingNames(ops, []int{rc.Opening})+" "+string(rc.Sector))
+	}
+	return strings.Join(parts, ", ")
+}
+
+// alsoText lists the event's other indicators with the first frame of
+// each one's confirmed zone, earliest first: "e1 from #25" ("" when only
+// the onset's own indicator fired).
+func alsoText(o strainfile.OnsetRecord) string {
+	type seen struct {
+		ind   strain.Indicator
+		frame int
+	}
+	var s []seen
+	for ind, f := range o.ByIndicator {
+		if ind != o.Indicator {
+			s = append(s, seen{ind, f})
+		}
+	}
+	slices.SortFunc(s, func(a, b seen) int {
+		if a.frame != b.frame {
+			return a.frame - b.frame
+		}
+		return strings.Compare(string(a.ind), string(b.ind))
+	})
+	var parts []string
+	for _, x := range s {
+		parts = append(parts, fmt.Sprintf("%s from #%d", indicatorLabel(x.ind), x.frame))
+	}
+	return strings.Join(parts, ", ")
 }
 
 // intervalMethods names the methods the onsets' intervals were estimated

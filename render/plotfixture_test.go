@@ -183,6 +183,10 @@ func writeFixtureOnsets(t testing.TB, dir string) {
 	}
 	left := dated(onset(strain.LeftSidewall, strain.Localization, strain.MaxPrincipal, fixtureLeftOnset, 1, 1.92, 2.1e-3, 48, 60),
 		3, 1, 3, []float64{20e-6, 25e-6, 90e-6, 2.1e-3, 3.0e-3, 4.2e-3}, []float64{390e-6, 390e-6, 400e-6, 420e-6, 450e-6, 480e-6})
+	// The left sidewall's event grew into the crown, and γmax confirmed a
+	// zone of it a frame after e1.
+	left.Reached = []strain.Reach{{Opening: 0, Sector: strain.Crown}}
+	left.ByIndicator[strain.MaxShear] = 3
 	right := dated(onset(strain.RightSidewall, strain.Localization, strain.MaxShear, 3, 2, 1.28, 1.7e-3, 96, 60),
 		3, 3, 3, []float64{30e-6, 20e-6, 35e-6, 1.7e-3, 2.2e-3, 2.9e-3}, []float64{480e-6, 480e-6, 490e-6, 500e-6, 520e-6, 540e-6})
 	rep := strainfile.OnsetReport{Tool: "spallscope test", Peak: strainfile.PeakRecord{Stress: 24, Time: 8, Frame: fixtureNames[4]},

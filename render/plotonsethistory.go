@@ -241,17 +241,58 @@ func drawHistoryLegend(strip draw.Canvas, decor bool) {
 			thumb plot.Thumbnailer
 		}{"per-point limit", historyLegendLine{draw.LineStyle{Color: plotInk, Width: 0.9, Dashes: dotted}}})
 	}
-	sty := draw.TextStyle{Color: plotInk, Font: font.From(plotFace, 8), XAlign: draw.XLeft, YAlign: draw.YCenter, Handler: plot.DefaultTextHandler}
-	x := strip.Min.X + 0.3*vg.Centimeter
-	mid := (strip.Min.Y + strip.Max.Y) / 2
-	const thumbW, thumbH = 14, 9
-	for _, e := range entries {
-		tc := draw.Canvas{Canvas: strip.Canvas, Rectangle: vg.Rectangle{Min: vg.Point{X: x, Y: mid - thumbH/2}, Max: vg.Point{X: x + thumbW, Y: mid + thumbH/2}}}
-		e.thumb.Thumbnail(&tc)
-		x += thumbW + 3
-		strip.FillText(sty, vg.Point{X: x, Y: mid}, e.name)
-		x += sty.Width(e.name) + 0.5*vg.Centimeter
+	sty := historyLegendText()
+	names := make([]string, len(entries))
+	for k, e := range entries {
+		names[k] = e.name
 	}
+	const thumbW, thumbH = 14, 9
+	places, lines := historyLegendLayout(names, strip.Max.X-strip.Min.X)
+	for k, e := range entries {
+		pl := places[k]
+		x := strip.Min.X + pl.X
+		// Lines stacked about the strip's middle, the first on top.
+		y := (strip.Min.Y+strip.Max.Y)/2 + (vg.Length(lines-1)/2-vg.Length(pl.Line))*historyLegendPitch
+		tc := draw.Canvas{Canvas: strip.Canvas, Rectangle: vg.Rectangle{Min: vg.Point{X: x, Y: y - thumbH/2}, Max: vg.Point{X: x + thumbW, Y: y + thumbH/2}}}
+		e.thumb.Thumbnail(&tc)
+		strip.FillText(sty, vg.Point{X: x + thumbW + 3, Y: y}, e.name)
+	}
+}
+
+// historyLegendText is the legend's text style.
+func historyLegendText() draw.TextStyle {
+	return draw.TextStyle{Color: plotInk, Font: font.From(plotFace, 8), XAlign: draw.XLeft, YAlign: draw.YCenter, Handler: plot.DefaultTextHandler}
+}
+
+// historyLegendPitch is the distance between two lines of the legend.
+const historyLegendPitch = 0.38 * vg.Centimeter
+
+// historyLegendPlace is where one legend entry starts: its line (0 on top)
+// and its x from the strip's left edge.
+type historyLegendPlace struct {
+	Line int
+	X    vg.Length
+}
+
+// historyLegendLayout places the legend's entries (a 14 pt sample, 3 pt,
+// the name, then half a centimetre) left to right from 0.3 cm in, starting
+// a new line where an entry would run past the strip's width (a
+// decorrelation panel's sixth entry did, cut off at the figure's edge);
+// it returns the places and the number of lines.
+func historyLegendLayout(names []string, width vg.Length) ([]historyLegendPlace, int) {
+	sty := historyLegendText()
+	const left, thumbW, gap = 0.3 * vg.Centimeter, 14, 0.5 * vg.Centimeter
+	places := make([]historyLegendPlace, len(names))
+	x, line := left, 0
+	for k, name := range names {
+		w := thumbW + 3 + sty.Width(name)
+		if x > left && x+w > width-0.1*vg.Centimeter {
+			x, line = left, line+1
+		}
+		places[k] = historyLegendPlace{Line: line, X: x}
+		x += w + gap
+	}
+	return places, line + 1
 }
 
 // historyLegendLine is a legend sample of a line style.

@@ -219,3 +219,31 @@ func TestOnsetHistoryPanels(t *testing.T) {
 		t.Errorf("caption does not explain the marks: %q", fig.Caption)
 	}
 }
+
+// The onset histories' legend stays inside the figure: with the sixth
+// entry a decorrelation panel adds, the names ran past the figure's right
+// edge on one line ("per-point lim…", seen in chromium on the demo's twin
+// face); laid out in lines, every entry ends within the width, entries on
+// one line do not overlap, and the lines fit the strip.
+func TestHistoryLegendFits(t *testing.T) {
+	names := []string{"zone mean", "frame's threshold", "95 % interval", "back-dated onset", "trigger", "per-point limit"}
+	sty := historyLegendText()
+	for _, n := range []int{5, 6} {
+		places, lines := historyLegendLayout(names[:n], plotWidth)
+		end := map[int]vg.Length{}
+		for k, pl := range places[:n] {
+			right := pl.X + 14 + 3 + sty.Width(names[k])
+			if right > plotWidth {
+				t.Errorf("%d entries: %q ends at %.1f pt, past the figure's %.1f pt", n, names[k], right, plotWidth)
+			}
+			if pl.X < end[pl.Line] {
+				t.Errorf("%d entries: %q starts at %.1f pt, over the entry before it (ends %.1f pt)", n, names[k], pl.X, end[pl.Line])
+			}
+			end[pl.Line] = right
+		}
+		if h := vg.Length(lines) * historyLegendPitch; h > historyLegendStrip {
+			t.Errorf("%d entries: %d lines, %.1f pt, do not fit the %.1f pt strip", n, lines, h, historyLegendStrip)
+		}
+		t.Logf("%d entries: %d line(s)", n, lines)
+	}
+}

@@ -162,6 +162,12 @@ func TestBrowserReport(t *testing.T) {
 	if got := eval[[]float64](t, ctx, `(() => { const i = document.querySelector("#onsets figure img"); return i ? [i.naturalWidth, i.naturalHeight] : []; })()`); len(got) != 2 || got[0] != 945 || got[1] < 300 {
 		t.Errorf("onset histories image %v, want 945 px wide and taller than 300 px", got)
 	}
+	// One event, one onset: the left sidewall's details name the places
+	// its zones grew into and the other indicator that saw it (the
+	// fixture's record), as a reader sees them.
+	if s := eval[string](t, ctx, `document.getElementById("onset-detail-1").innerText`); !strings.Contains(s, "One event: its zones grew into A crown.") || !strings.Contains(s, "Also seen by γmax from #3") {
+		t.Errorf("onset 1's details read %q", s)
+	}
 	// Move the slider to frame 3 as a user would (value, then the input event).
 	got := eval[string](t, ctx, `(() => { const s = document.getElementById("frame-slider"); s.value = 3; s.dispatchEvent(new Event("input", {bubbles: true})); return document.getElementById("frame-caption").textContent; })()`)
 	if !strings.Contains(got, "blk_0003") || !strings.Contains(got, "t = 6 s") || !strings.Contains(got, "σ = 18 MPa (75 % of peak)") {

@@ -113,6 +113,9 @@ func TestReportContent(t *testing.T) {
 		`>#3, 18.00 MPa<`, `<td class="trigger">blk_0003 (#3)</td>`, `<td class="trigger">—</td>`,
 		"back-dated 1 frame(s) from the trigger blk_0003 (#3); zone area 1.92 mm²", "Intervals by fixture.", "at the trigger frame blk_0003 (#3)",
 		"95 % interval blk_0001 … blk_0003 (#1–#3), 2.00–6.00 s, 6.00–18.00 MPa; change model slope, log-likelihood ratio 42.5 against no change",
+		// one event: the left sidewall's zones grew into the crown, and
+		// γmax confirmed a zone of it at frame 3 (the fixture's record)
+		"One event: its zones grew into A crown.", "Also seen by γmax from #3 (first frame of each indicator",
 		// the detection limits in words: strain = K × noise = 6 × 65 µε,
 		// opening = 390 µε × 31 px = 0.01209 px = 1.209 µm at 0.1 mm/px
 		// (arithmetic by hand)

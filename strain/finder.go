@@ -44,8 +44,13 @@ type Finder struct {
 	grid     dic.Grid
 	nextID   int
 	prev     map[Indicator][]Zone
-	frames   []Frame // without fields
-	zones    []Zone  // every zone of every frame, in order
+	frames   []Frame     // without fields
+	framePos map[int]int // frame index → position in frames
+	zones    []Zone      // every zone of every frame, in order
+	// vsg is the virtual strain gauge of the strain fields in px, (window
+	// − 1) × step + subset (0 while unknown): the distance within which
+	// zones of one opening are one event (see events).
+	vsg int
 	// noise is each strain indicator's noise over the calibration frames
 	// (SetNoise); floor the bar it sets under every frame's threshold.
 	noise, floor map[Indicator]float64
@@ -86,10 +91,10 @@ func NewFinder(cfg FinderConfig, ref *dic.Field, baseline Baseline) (*Finder, er
 	if cfg.Touch == 0 {
 		cfg.Touch = 2 * float64(ref.Grid.Step)
 	}
-	f := &Finder{cfg: cfg, baseline: baseline, ref: ref, grid: ref.Grid, prev: map[Indicator][]Zone{}}
 	if cfg.SubsetHalf == 0 {
 		cfg.SubsetHalf = 10
 	}
+	f := &Finder{cfg: cfg, baseline: baseline, ref: ref, grid: ref.Grid, prev: map[Indicator][]Zone{}}
 	shadow := math.Sqrt2*float64(cfg.SubsetHalf) + cfg.Touch
 	f.geo = newGeometry(cfg.Sectors, ref.Grid, ref, cfg.Touch, shadow)
 	return f, nil
@@ -233,7 +238,14 @@ func (f *Finder) Add(fr Frame) ([]Zone, error) {
 		out = append(out, zones...)
 	}
 	f.zones = append(f.zones, out...)
+	if f.vsg == 0 && fr.Strain.Window > 1 {
+		f.vsg = (fr.Strain.Window-1)*f.grid.Step + 2*f.cfg.SubsetHalf + 1
+	}
 	fr.Strain, fr.Disp = nil, nil
+	if f.framePos == nil {
+		f.framePos = map[int]int{}
+	}
+	f.framePos[fr.Index] = len(f.frames)
 	f.frames = append(f.frames, fr)
 	return out, nil
 }

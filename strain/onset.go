@@ -34,11 +34,17 @@ type Onset struct {
 	Peak      float64   `json:"peak"`
 	Cx        float64   `json:"cx_px"`
 	Cy        float64   `json:"cy_px"`
-	// ByIndicator gives the onset frame of each indicator that fired for
-	// this place and class (the earliest is the onset).
+	// ByIndicator gives, for each indicator that fired for this event
+	// (and for later events of its place and class), the first frame of
+	// its confirmed zone (the earliest is the onset before back-dating; a
+	// decorrelation joined to a localization by JoinEvents adds its own).
 	ByIndicator map[Indicator]int `json:"frame_by_indicator"`
 	// Touches names the openings a through-going zone links.
 	Touches []int `json:"touches,omitempty"`
+	// Reached lists the other places (opening and sector) the event's
+	// zones reached after it began here: one fracture, one onset, however
+	// many sectors it grows into (see Finder.Onsets).
+	Reached []Reach `json:"reached,omitempty"`
 	// TriggerFrame is the frame whose threshold confirmed the zone (the
 	// onset before back-dating); the onset is never later.
 	TriggerFrame int    `json:"trigger_frame_index"`
@@ -55,51 +61,46 @@ type Onset struct {
 	History *OnsetHistory `json:"history,omitempty"`
 }
 
-// Onsets times the onsets from the zones found so far: for each opening,
-// sector and class (localization, decorrelation), and for through-going
-// zones, the first frame of a zone (one ID) present in Persistence
-// consecutive frames, placed where it was first seen. peak is the peak
-// stress for the percent-of-peak figure (0 = none). Zones seen in the last
+// Onsets times the onsets from the zones found so far: one per physical
+// event (see events: the zones connected through marked points, or within
+// one VSG at one opening, before they were confirmed apart) — for each
+// opening, sector and class (localization, decorrelation) the first frame
+// of an event whose zone (one ID) was present in Persistence consecutive
+// frames, placed where it was first seen, with the other places its zones
+// reached — and for through-going zones. peak is the peak stress for the
+// percent-of-peak figure (0 = none). Zones seen in the last
 // Persistence−1 frames cannot be confirmed and give no onset.
 func (f *Finder) Onsets(peak float64) []Onset {
 	p := f.cfg.Persistence
-	type run struct {
-		first, last int // frame positions
-		zone        Zone
-		through     bool
-	}
-	pos := map[int]int{} // frame index → position
-	for k, fr := range f.frames {
-		pos[fr.Index] = k
-	}
 	// Runs of consecutive frames per zone ID (and per "through" state).
-	runs := map[string]map[int]*run{}
-	var done []run
+	runs := map[string]map[int]*zoneRun{}
+	var done []zoneRun
 	key := func(z Zone, through bool) string {
 		if through {
 			return string(z.Indicator) + "/through"
 		}
 		return string(z.Indicator)
 	}
-	for _, z := range f.zones {
+	for zi, z := range f.zones {
 		for _, through := range []bool{false, true} {
 			if through && !z.Through() {
 				continue
 			}
 			k := key(z, through)
 			if runs[k] == nil {
-				runs[k] = map[int]*run{}
+				runs[k] = map[int]*zoneRun{}
 			}
-			at := pos[z.Frame]
+			at := f.framePos[z.Frame]
 			r := runs[k][z.ID]
 			if r != nil && r.last == at-1 {
 				r.last = at
+				r.zones = append(r.zones, zi)
 				continue
 			}
 			if r != nil {
 				done = append(done, *r)
 			}
-			runs[k][z.ID] = &run{first: at, last: at, zone: z, through: through}
+			runs[k][z.ID] = &zoneRun{first: at, last: at, zones: []int{zi}, through: through}
 		}
 	}
 	// The open runs in a fixed order (indicator, then zone ID), so that
@@ -109,55 +110,103 @@ func (f *Finder) Onsets(peak float64) []Onset {
 			done = append(done, *runs[k][id])
 		}
 	}
+	rank := func(ind Indicator) int { return slices.Index(Indicators, ind) }
+	zoneOf := func(r zoneRun) *Zone { return &f.zones[r.zones[0]] }
+	// The confirmed runs, earliest first (ties: indicator rank, zone ID),
+	// through-going ones apart; the others grouped into events per class.
+	var through []zoneRun
+	classes := map[string][]zoneRun{}
+	for _, r := range done {
+		if r.last-r.first+1 < p {
+			continue
+		}
+		if r.through {
+			through = append(through, r)
+			continue
+		}
+		c := zoneOf(r).Indicator.Class()
+		classes[c] = append(classes[c], r)
+	}
+	order := func(a, b zoneRun) int {
+		za, zb := zoneOf(a), zoneOf(b)
+		if a.first != b.first {
+			return a.first - b.first
+		}
+		if d := rank(za.Indicator) - rank(zb.Indicator); d != 0 {
+			return d
+		}
+		return za.ID - zb.ID
+	}
 	type place struct {
 		op    int
 		sec   Sector
 		class string
 	}
 	best := map[place]*Onset{}
-	var order []place
-	rank := func(ind Indicator) int { return slices.Index(Indicators, ind) }
-	for _, r := range done {
-		if r.last-r.first+1 < p {
-			continue
-		}
-		z := r.zone
-		pl := place{z.Opening, z.Sector, z.Indicator.Class()}
-		if z.Opening < 0 {
-			// One event, one onset: a zone beyond every opening's reach
-			// that adjoins a zone of an opening's sector (a crack from the
-			// crown running past the reach) is that sector's event.
-			if op, sec, ok := f.adjoining(z, f.frames[r.last].Index); ok {
-				pl = place{op, sec, z.Indicator.Class()}
-			}
-		}
-		if r.through {
-			pl = place{firstOf(z.Touches), "through", ThroughGoing}
-		}
-		fr := f.frames[r.first]
+	var places []place
+	// add makes the onset of an event (its runs, the first where it began)
+	// at place pl, or folds it into the earlier one there.
+	add := func(pl place, rs []zoneRun, event []int) {
+		r := rs[event[0]]
+		z, fr := zoneOf(r), f.frames[r.first]
 		o := best[pl]
 		if o == nil {
-			order = append(order, pl)
+			places = append(places, pl)
 		}
 		if o == nil || fr.Index < o.Frame || (fr.Index == o.Frame && rank(z.Indicator) < rank(o.Indicator)) {
-			by := map[Indicator]int{}
+			by, reached := map[Indicator]int{}, []Reach(nil)
 			if o != nil {
-				by = o.ByIndicator
+				by, reached = o.ByIndicator, o.Reached
 			}
 			o = &Onset{Opening: pl.op, Sector: pl.sec, Class: pl.class, Indicator: z.Indicator, Frame: fr.Index, Name: fr.Name,
 				Time: fr.Time, Stress: fr.Stress, InSpan: fr.InSpan, Zone: z.ID, AreaMM2: z.AreaMM2, AreaPx2: z.AreaPx2,
-				Peak: z.Peak, Cx: z.Cx, Cy: z.Cy, ByIndicator: by, Touches: z.Touches}
+				Peak: z.Peak, Cx: z.Cx, Cy: z.Cy, ByIndicator: by, Touches: z.Touches, Reached: reached}
 			if peak > 0 {
 				o.Percent = 100 * fr.Stress / peak
 			}
 			best[pl] = o
 		}
-		if at, ok := o.ByIndicator[z.Indicator]; !ok || fr.Index < at {
-			o.ByIndicator[z.Indicator] = fr.Index
+		for _, ri := range event {
+			zr := zoneOf(rs[ri])
+			at := f.frames[rs[ri].first].Index
+			if old, ok := o.ByIndicator[zr.Indicator]; !ok || at < old {
+				o.ByIndicator[zr.Indicator] = at
+			}
+		}
+		if pl.class != ThroughGoing {
+			for _, rc := range f.reached(rs, event, pl.op, pl.sec) {
+				if !(rc.Opening == o.Opening && rc.Sector == o.Sector) && !slices.Contains(o.Reached, rc) {
+					o.Reached = append(o.Reached, rc)
+				}
+			}
 		}
 	}
-	out := make([]Onset, 0, len(order))
-	for _, pl := range order {
+	for _, c := range slices.Sorted(maps.Keys(classes)) {
+		rs := classes[c]
+		slices.SortStableFunc(rs, order)
+		for _, event := range f.events(rs) {
+			r := rs[event[0]]
+			z := zoneOf(r)
+			op, sec := f.eventPlace(rs, event)
+			pl := place{op, sec, c}
+			if op < 0 {
+				// A zone beyond every opening's reach that adjoins a zone
+				// of an opening's sector (a crack from the crown running
+				// past the reach) is that sector's event.
+				if op, sec, ok := f.adjoining(*z, f.frames[r.last].Index); ok {
+					pl = place{op, sec, c}
+				}
+			}
+			add(pl, rs, event)
+		}
+	}
+	slices.SortStableFunc(through, order)
+	for k, r := range through {
+		z := zoneOf(r)
+		add(place{firstOf(z.Touches), "through", ThroughGoing}, through, []int{k})
+	}
+	out := make([]Onset, 0, len(places))
+	for _, pl := range places {
 		out = append(out, *best[pl])
 	}
 	slices.SortStableFunc(out, func(a, b Onset) int {

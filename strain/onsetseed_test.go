@@ -112,6 +112,7 @@ func median(xs []float64) float64 {
 type seedRun struct {
 	onsets []strain.Onset
 	floor  map[strain.Indicator]float64
+	finder *strain.Finder
 }
 
 // runSeed builds the sequence of sc at gray-level noise sigma with noise
@@ -197,7 +198,7 @@ func runSeed(t *testing.T, sc *synth.Scenario, sigma float64, seed uint64) seedR
 	for k := range sc.Frames {
 		d.Add(frame(k))
 	}
-	return seedRun{onsets: d.Onsets(calibration, peak), floor: finder.Floor()}
+	return seedRun{onsets: d.Onsets(calibration, peak), floor: finder.Floor(), finder: finder}
 }
 
 // seedCase is one damage feature added to a seed scenario.

@@ -128,7 +128,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 			}
 			dating.Add(fr)
 		}
-		onsets = dating.Onsets(calibration, peak.Stress)
+		onsets = strain.JoinEvents(dating.Onsets(calibration, peak.Stress), finder.VSG())
 	}
 	rep := &strainfile.OnsetReport{Tool: tool, Peak: peak, Cautions: strainfile.Cautions,
 		Settings: strainfile.ZoneSettings{Indicators: finder.Config().Indicators, Thresholds: finder.Config().Thresholds, Persistence: finder.Config().Persistence,
