@@ -104,8 +104,18 @@ func (sp *Spline) values(xs, ys, out []float64) {
 	sp.cubicValues(xs, ys, out)
 }
 
-// cubicValues is values for the cubic kernel.
+// cubicValues is values for the cubic kernel: by the vector kernel when
+// there is one (useVector), else by cubicValuesGo.
 func (sp *Spline) cubicValues(xs, ys, out []float64) {
+	if useVector {
+		sp.cubicValuesVector(xs, ys, out)
+		return
+	}
+	sp.cubicValuesGo(xs, ys, out)
+}
+
+// cubicValuesGo is cubicValues in Go: the reference of the vector kernel.
+func (sp *Spline) cubicValuesGo(xs, ys, out []float64) {
 	s, c := sp.stride, sp.coef
 	origin := (splinePad-1)*s + splinePad - 1
 	xs, ys = xs[:len(out)], ys[:len(out)]
@@ -140,6 +150,17 @@ func (sp *Spline) lineValues(x0, y0, ax, ay float64, i0 int, out []float64) {
 		}
 		return
 	}
+	if useVector {
+		sp.cubicLineVector(x0, y0, ax, ay, i0, out)
+		return
+	}
+	sp.cubicLineGo(x0, y0, ax, ay, i0, out)
+}
+
+// cubicLineGo is lineValues for the cubic kernel in Go: the reference of
+// the vector kernel.
+func (sp *Spline) cubicLineGo(x0, y0, ax, ay float64, i0 int, out []float64) {
+	s, c := sp.stride, sp.coef
 	origin := (splinePad-1)*s + splinePad - 1
 	for k := range out {
 		t := float64(i0 + k)

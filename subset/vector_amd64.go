@@ -50,3 +50,19 @@ func (s *Solver) quadraticSumsVector(sJg *[12]float64) (sg, sgg, sfg float64) {
 	sJg[PVyy] += 0.5 * o[14]
 	return o[0], o[1], o[2]
 }
+
+// cubicValuesVector is cubicValuesGo by cubicValuesAVX2: the same
+// interpolant, its sums in another order and with FMA, so equal to
+// rounding (see _asm/cubic.go). The positions must lie inside the image,
+// as for values: the kernel reads the coefficients unchecked.
+func (sp *Spline) cubicValuesVector(xs, ys, out []float64) {
+	xs, ys = xs[:len(out)], ys[:len(out)]
+	cubicValuesAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, xs, ys, out)
+}
+
+// cubicLineVector is cubicLineGo by cubicLineAVX2, which forms the
+// positions as cubicLineGo does, so that its values equal those of
+// cubicValuesVector at those positions bit for bit.
+func (sp *Spline) cubicLineVector(x0, y0, ax, ay float64, i0 int, out []float64) {
+	cubicLineAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, x0, y0, ax, ay, i0, out)
+}

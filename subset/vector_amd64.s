@@ -350,3 +350,633 @@ second_done:
 	VMOVSD X6, 112(R9)
 	VZEROUPPER
 	RET
+
+DATA cubicOne<>+0(SB)/8, $0x3ff0000000000000
+DATA cubicOne<>+8(SB)/8, $0x3ff0000000000000
+DATA cubicOne<>+16(SB)/8, $0x3ff0000000000000
+DATA cubicOne<>+24(SB)/8, $0x3ff0000000000000
+GLOBL cubicOne<>(SB), RODATA|NOPTR, $32
+
+DATA cubicSixth<>+0(SB)/8, $0x3fc5555555555555
+DATA cubicSixth<>+8(SB)/8, $0x3fc5555555555555
+DATA cubicSixth<>+16(SB)/8, $0x3fc5555555555555
+DATA cubicSixth<>+24(SB)/8, $0x3fc5555555555555
+GLOBL cubicSixth<>(SB), RODATA|NOPTR, $32
+
+DATA cubicTwoThirds<>+0(SB)/8, $0x3fe5555555555555
+DATA cubicTwoThirds<>+8(SB)/8, $0x3fe5555555555555
+DATA cubicTwoThirds<>+16(SB)/8, $0x3fe5555555555555
+DATA cubicTwoThirds<>+24(SB)/8, $0x3fe5555555555555
+GLOBL cubicTwoThirds<>(SB), RODATA|NOPTR, $32
+
+DATA cubicThree<>+0(SB)/8, $0x4008000000000000
+DATA cubicThree<>+8(SB)/8, $0x4008000000000000
+DATA cubicThree<>+16(SB)/8, $0x4008000000000000
+DATA cubicThree<>+24(SB)/8, $0x4008000000000000
+GLOBL cubicThree<>(SB), RODATA|NOPTR, $32
+
+DATA cubicLane<>+0(SB)/8, $0x0000000000000000
+DATA cubicLane<>+8(SB)/8, $0x3ff0000000000000
+DATA cubicLane<>+16(SB)/8, $0x4000000000000000
+DATA cubicLane<>+24(SB)/8, $0x4008000000000000
+GLOBL cubicLane<>(SB), RODATA|NOPTR, $32
+
+DATA cubicFour<>+0(SB)/8, $0x4010000000000000
+DATA cubicFour<>+8(SB)/8, $0x4010000000000000
+DATA cubicFour<>+16(SB)/8, $0x4010000000000000
+DATA cubicFour<>+24(SB)/8, $0x4010000000000000
+GLOBL cubicFour<>(SB), RODATA|NOPTR, $32
+
+DATA cubicTailMasks<>+0(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+8(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+16(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+24(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+32(SB)/8, $0xffffffffffffffff
+DATA cubicTailMasks<>+40(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+48(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+56(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+64(SB)/8, $0xffffffffffffffff
+DATA cubicTailMasks<>+72(SB)/8, $0xffffffffffffffff
+DATA cubicTailMasks<>+80(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+88(SB)/8, $0x0000000000000000
+DATA cubicTailMasks<>+96(SB)/8, $0xffffffffffffffff
+DATA cubicTailMasks<>+104(SB)/8, $0xffffffffffffffff
+DATA cubicTailMasks<>+112(SB)/8, $0xffffffffffffffff
+DATA cubicTailMasks<>+120(SB)/8, $0x0000000000000000
+GLOBL cubicTailMasks<>(SB), RODATA|NOPTR, $128
+
+// func cubicValuesAVX2(coef []float64, stride int, origin int, xs []float64, ys []float64, out []float64)
+// Requires: AVX, AVX2, FMA3, SSE2
+TEXT ·cubicValuesAVX2(SB), NOSPLIT, $176-112
+	MOVQ         coef_base+0(FP), AX
+	MOVQ         stride+24(FP), CX
+	MOVQ         origin+32(FP), DX
+	MOVQ         CX, X0
+	VPBROADCASTD X0, X0
+	VMOVDQU      X0, (SP)
+	MOVQ         DX, X0
+	VPBROADCASTD X0, X0
+	VMOVDQU      X0, 16(SP)
+	SHLQ         $0x03, CX
+	LEAQ         (CX)(CX*2), DX
+	MOVQ         xs_base+40(FP), BX
+	MOVQ         ys_base+64(FP), SI
+	MOVQ         out_base+88(FP), DI
+	MOVQ         out_len+96(FP), R8
+	XORQ         R9, R9
+	MOVQ         R8, R10
+	ANDQ         $-4, R10
+	CMPQ         R10, $+0
+	JE           values_tail
+
+values_block:
+	VMOVUPD      (BX)(R9*8), Y0
+	VMOVUPD      (SI)(R9*8), Y1
+	VCVTTPD2DQY  Y0, X2
+	VCVTTPD2DQY  Y1, X3
+	VCVTDQ2PD    X2, Y4
+	VSUBPD       Y4, Y0, Y4
+	VCVTDQ2PD    X3, Y0
+	VSUBPD       Y0, Y1, Y0
+	VPMULLD      (SP), X3, X1
+	VPADDD       X2, X1, X1
+	VPADDD       16(SP), X1, X1
+	VMOVDQU      X1, 32(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y1
+	VSUBPD       Y0, Y1, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       Y1, Y1, Y3
+	VMULPD       cubicSixth<>+0(SB), Y3, Y5
+	VMULPD       Y1, Y5, Y5
+	VMULPD       cubicSixth<>+0(SB), Y2, Y1
+	VMULPD       Y0, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y0
+	VSUBPD       Y2, Y0, Y0
+	VMULPD       cubicThree<>+0(SB), Y1, Y2
+	VADDPD       Y2, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y5, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      Y5, 48(SP)
+	VMOVUPD      Y0, 80(SP)
+	VMOVUPD      Y2, 112(SP)
+	VMOVUPD      Y1, 144(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y0
+	VSUBPD       Y4, Y0, Y0
+	VMULPD       Y4, Y4, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       cubicSixth<>+0(SB), Y2, Y3
+	VMULPD       Y0, Y3, Y3
+	VMULPD       cubicSixth<>+0(SB), Y1, Y0
+	VMULPD       Y4, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y4
+	VSUBPD       Y1, Y4, Y4
+	VMULPD       cubicThree<>+0(SB), Y0, Y1
+	VADDPD       Y1, Y4, Y4
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y3, Y2
+	VADDPD       Y2, Y1, Y1
+	MOVLQSX      32(SP), R11
+	LEAQ         (AX)(R11*8), R11
+	VMOVUPD      (R11), Y2
+	VBROADCASTSD 48(SP), Y5
+	VMULPD       Y2, Y5, Y2
+	VMOVUPD      (R11)(CX*1), Y5
+	VBROADCASTSD 80(SP), Y6
+	VFMADD231PD  Y5, Y6, Y2
+	VMOVUPD      (R11)(CX*2), Y5
+	VBROADCASTSD 112(SP), Y6
+	VFMADD231PD  Y5, Y6, Y2
+	VMOVUPD      (R11)(DX*1), Y5
+	VBROADCASTSD 144(SP), Y6
+	VFMADD231PD  Y5, Y6, Y2
+	MOVLQSX      36(SP), R11
+	LEAQ         (AX)(R11*8), R11
+	VMOVUPD      (R11), Y5
+	VBROADCASTSD 56(SP), Y6
+	VMULPD       Y5, Y6, Y5
+	VMOVUPD      (R11)(CX*1), Y6
+	VBROADCASTSD 88(SP), Y7
+	VFMADD231PD  Y6, Y7, Y5
+	VMOVUPD      (R11)(CX*2), Y6
+	VBROADCASTSD 120(SP), Y7
+	VFMADD231PD  Y6, Y7, Y5
+	VMOVUPD      (R11)(DX*1), Y6
+	VBROADCASTSD 152(SP), Y7
+	VFMADD231PD  Y6, Y7, Y5
+	MOVLQSX      40(SP), R11
+	LEAQ         (AX)(R11*8), R11
+	VMOVUPD      (R11), Y6
+	VBROADCASTSD 64(SP), Y7
+	VMULPD       Y6, Y7, Y6
+	VMOVUPD      (R11)(CX*1), Y7
+	VBROADCASTSD 96(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (R11)(CX*2), Y7
+	VBROADCASTSD 128(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (R11)(DX*1), Y7
+	VBROADCASTSD 160(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	MOVLQSX      44(SP), R11
+	LEAQ         (AX)(R11*8), R11
+	VMOVUPD      (R11), Y7
+	VBROADCASTSD 72(SP), Y8
+	VMULPD       Y7, Y8, Y7
+	VMOVUPD      (R11)(CX*1), Y8
+	VBROADCASTSD 104(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (R11)(CX*2), Y8
+	VBROADCASTSD 136(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (R11)(DX*1), Y8
+	VBROADCASTSD 168(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VUNPCKLPD    Y5, Y2, Y8
+	VUNPCKHPD    Y5, Y2, Y2
+	VUNPCKLPD    Y7, Y6, Y5
+	VUNPCKHPD    Y7, Y6, Y6
+	VINSERTF128  $0x01, X5, Y8, Y7
+	VINSERTF128  $0x01, X6, Y2, Y9
+	VPERM2F128   $0x31, Y5, Y8, Y5
+	VPERM2F128   $0x31, Y6, Y2, Y2
+	VMULPD       Y7, Y3, Y3
+	VFMADD231PD  Y9, Y4, Y3
+	VFMADD231PD  Y5, Y1, Y3
+	VFMADD231PD  Y2, Y0, Y3
+	VMOVUPD      Y3, (DI)(R9*8)
+	ADDQ         $+4, R9
+	CMPQ         R9, R10
+	JB           values_block
+
+values_tail:
+	CMPQ         R9, R8
+	JAE          values_done
+	SUBQ         R9, R8
+	SHLQ         $0x05, R8
+	LEAQ         cubicTailMasks<>+0(SB), R10
+	VMOVDQU      (R10)(R8*1), Y0
+	VMASKMOVPD   (BX)(R9*8), Y0, Y1
+	VMASKMOVPD   (SI)(R9*8), Y0, Y2
+	VCVTTPD2DQY  Y1, X3
+	VCVTTPD2DQY  Y2, X4
+	VCVTDQ2PD    X3, Y5
+	VSUBPD       Y5, Y1, Y5
+	VCVTDQ2PD    X4, Y1
+	VSUBPD       Y1, Y2, Y1
+	VPMULLD      (SP), X4, X2
+	VPADDD       X3, X2, X2
+	VPADDD       16(SP), X2, X2
+	VMOVDQU      X2, 32(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y2
+	VSUBPD       Y1, Y2, Y2
+	VMULPD       Y1, Y1, Y3
+	VMULPD       Y2, Y2, Y4
+	VMULPD       cubicSixth<>+0(SB), Y4, Y6
+	VMULPD       Y2, Y6, Y6
+	VMULPD       cubicSixth<>+0(SB), Y3, Y2
+	VMULPD       Y1, Y2, Y2
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y3, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y2, Y3
+	VADDPD       Y3, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y3
+	VSUBPD       Y4, Y3, Y3
+	VMULPD       cubicThree<>+0(SB), Y6, Y4
+	VADDPD       Y4, Y3, Y3
+	VMOVUPD      Y6, 48(SP)
+	VMOVUPD      Y1, 80(SP)
+	VMOVUPD      Y3, 112(SP)
+	VMOVUPD      Y2, 144(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y1
+	VSUBPD       Y5, Y1, Y1
+	VMULPD       Y5, Y5, Y2
+	VMULPD       Y1, Y1, Y3
+	VMULPD       cubicSixth<>+0(SB), Y3, Y4
+	VMULPD       Y1, Y4, Y4
+	VMULPD       cubicSixth<>+0(SB), Y2, Y1
+	VMULPD       Y5, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y5
+	VSUBPD       Y2, Y5, Y5
+	VMULPD       cubicThree<>+0(SB), Y1, Y2
+	VADDPD       Y2, Y5, Y5
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y4, Y3
+	VADDPD       Y3, Y2, Y2
+	MOVLQSX      32(SP), BX
+	LEAQ         (AX)(BX*8), BX
+	VMOVUPD      (BX), Y3
+	VBROADCASTSD 48(SP), Y6
+	VMULPD       Y3, Y6, Y3
+	VMOVUPD      (BX)(CX*1), Y6
+	VBROADCASTSD 80(SP), Y7
+	VFMADD231PD  Y6, Y7, Y3
+	VMOVUPD      (BX)(CX*2), Y6
+	VBROADCASTSD 112(SP), Y7
+	VFMADD231PD  Y6, Y7, Y3
+	VMOVUPD      (BX)(DX*1), Y6
+	VBROADCASTSD 144(SP), Y7
+	VFMADD231PD  Y6, Y7, Y3
+	MOVLQSX      36(SP), BX
+	LEAQ         (AX)(BX*8), BX
+	VMOVUPD      (BX), Y6
+	VBROADCASTSD 56(SP), Y7
+	VMULPD       Y6, Y7, Y6
+	VMOVUPD      (BX)(CX*1), Y7
+	VBROADCASTSD 88(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (BX)(CX*2), Y7
+	VBROADCASTSD 120(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (BX)(DX*1), Y7
+	VBROADCASTSD 152(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	MOVLQSX      40(SP), BX
+	LEAQ         (AX)(BX*8), BX
+	VMOVUPD      (BX), Y7
+	VBROADCASTSD 64(SP), Y8
+	VMULPD       Y7, Y8, Y7
+	VMOVUPD      (BX)(CX*1), Y8
+	VBROADCASTSD 96(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (BX)(CX*2), Y8
+	VBROADCASTSD 128(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (BX)(DX*1), Y8
+	VBROADCASTSD 160(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	MOVLQSX      44(SP), BX
+	LEAQ         (AX)(BX*8), AX
+	VMOVUPD      (AX), Y8
+	VBROADCASTSD 72(SP), Y9
+	VMULPD       Y8, Y9, Y8
+	VMOVUPD      (AX)(CX*1), Y9
+	VBROADCASTSD 104(SP), Y10
+	VFMADD231PD  Y9, Y10, Y8
+	VMOVUPD      (AX)(CX*2), Y9
+	VBROADCASTSD 136(SP), Y10
+	VFMADD231PD  Y9, Y10, Y8
+	VMOVUPD      (AX)(DX*1), Y9
+	VBROADCASTSD 168(SP), Y10
+	VFMADD231PD  Y9, Y10, Y8
+	VUNPCKLPD    Y6, Y3, Y9
+	VUNPCKHPD    Y6, Y3, Y3
+	VUNPCKLPD    Y8, Y7, Y6
+	VUNPCKHPD    Y8, Y7, Y7
+	VINSERTF128  $0x01, X6, Y9, Y8
+	VINSERTF128  $0x01, X7, Y3, Y10
+	VPERM2F128   $0x31, Y6, Y9, Y6
+	VPERM2F128   $0x31, Y7, Y3, Y3
+	VMULPD       Y8, Y4, Y4
+	VFMADD231PD  Y10, Y5, Y4
+	VFMADD231PD  Y6, Y2, Y4
+	VFMADD231PD  Y3, Y1, Y4
+	VMASKMOVPD   Y4, Y0, (DI)(R9*8)
+
+values_done:
+	VZEROUPPER
+	RET
+
+// func cubicLineAVX2(coef []float64, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)
+// Requires: AVX, AVX2, FMA3, SSE2
+TEXT ·cubicLineAVX2(SB), NOSPLIT, $336-104
+	MOVQ         coef_base+0(FP), AX
+	MOVQ         stride+24(FP), CX
+	MOVQ         origin+32(FP), DX
+	MOVQ         CX, X0
+	VPBROADCASTD X0, X0
+	VMOVDQU      X0, (SP)
+	MOVQ         DX, X0
+	VPBROADCASTD X0, X0
+	VMOVDQU      X0, 16(SP)
+	SHLQ         $0x03, CX
+	LEAQ         (CX)(CX*2), DX
+	MOVSD        x0+40(FP), X0
+	VBROADCASTSD X0, Y0
+	VMOVUPD      Y0, 176(SP)
+	MOVSD        y0+48(FP), X0
+	VBROADCASTSD X0, Y0
+	VMOVUPD      Y0, 208(SP)
+	MOVSD        ax+56(FP), X0
+	VBROADCASTSD X0, Y0
+	VMOVUPD      Y0, 240(SP)
+	MOVSD        ay+64(FP), X0
+	VBROADCASTSD X0, Y0
+	VMOVUPD      Y0, 272(SP)
+	MOVQ         i0+72(FP), BX
+	VXORPD       X0, X0, X0
+	VCVTSI2SDQ   BX, X0, X0
+	VBROADCASTSD X0, Y0
+	VADDPD       cubicLane<>+0(SB), Y0, Y0
+	VMOVUPD      Y0, 304(SP)
+	MOVQ         out_base+80(FP), BX
+	MOVQ         out_len+88(FP), SI
+	XORQ         DI, DI
+	MOVQ         SI, R8
+	ANDQ         $-4, R8
+	CMPQ         R8, $+0
+	JE           line_tail
+
+line_block:
+	VMOVUPD      304(SP), Y0
+	VMULPD       240(SP), Y0, Y1
+	VADDPD       176(SP), Y1, Y1
+	VMULPD       272(SP), Y0, Y2
+	VADDPD       208(SP), Y2, Y2
+	VADDPD       cubicFour<>+0(SB), Y0, Y0
+	VMOVUPD      Y0, 304(SP)
+	VCVTTPD2DQY  Y1, X0
+	VCVTTPD2DQY  Y2, X3
+	VCVTDQ2PD    X0, Y4
+	VSUBPD       Y4, Y1, Y4
+	VCVTDQ2PD    X3, Y1
+	VSUBPD       Y1, Y2, Y1
+	VPMULLD      (SP), X3, X2
+	VPADDD       X0, X2, X2
+	VPADDD       16(SP), X2, X2
+	VMOVDQU      X2, 32(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y0
+	VSUBPD       Y1, Y0, Y0
+	VMULPD       Y1, Y1, Y2
+	VMULPD       Y0, Y0, Y3
+	VMULPD       cubicSixth<>+0(SB), Y3, Y5
+	VMULPD       Y0, Y5, Y5
+	VMULPD       cubicSixth<>+0(SB), Y2, Y0
+	VMULPD       Y1, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y0, Y2
+	VADDPD       Y2, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y5, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      Y5, 48(SP)
+	VMOVUPD      Y1, 80(SP)
+	VMOVUPD      Y2, 112(SP)
+	VMOVUPD      Y0, 144(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y0
+	VSUBPD       Y4, Y0, Y0
+	VMULPD       Y4, Y4, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       cubicSixth<>+0(SB), Y2, Y3
+	VMULPD       Y0, Y3, Y3
+	VMULPD       cubicSixth<>+0(SB), Y1, Y0
+	VMULPD       Y4, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y4
+	VSUBPD       Y1, Y4, Y4
+	VMULPD       cubicThree<>+0(SB), Y0, Y1
+	VADDPD       Y1, Y4, Y4
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y3, Y2
+	VADDPD       Y2, Y1, Y1
+	MOVLQSX      32(SP), R9
+	LEAQ         (AX)(R9*8), R9
+	VMOVUPD      (R9), Y2
+	VBROADCASTSD 48(SP), Y5
+	VMULPD       Y2, Y5, Y2
+	VMOVUPD      (R9)(CX*1), Y5
+	VBROADCASTSD 80(SP), Y6
+	VFMADD231PD  Y5, Y6, Y2
+	VMOVUPD      (R9)(CX*2), Y5
+	VBROADCASTSD 112(SP), Y6
+	VFMADD231PD  Y5, Y6, Y2
+	VMOVUPD      (R9)(DX*1), Y5
+	VBROADCASTSD 144(SP), Y6
+	VFMADD231PD  Y5, Y6, Y2
+	MOVLQSX      36(SP), R9
+	LEAQ         (AX)(R9*8), R9
+	VMOVUPD      (R9), Y5
+	VBROADCASTSD 56(SP), Y6
+	VMULPD       Y5, Y6, Y5
+	VMOVUPD      (R9)(CX*1), Y6
+	VBROADCASTSD 88(SP), Y7
+	VFMADD231PD  Y6, Y7, Y5
+	VMOVUPD      (R9)(CX*2), Y6
+	VBROADCASTSD 120(SP), Y7
+	VFMADD231PD  Y6, Y7, Y5
+	VMOVUPD      (R9)(DX*1), Y6
+	VBROADCASTSD 152(SP), Y7
+	VFMADD231PD  Y6, Y7, Y5
+	MOVLQSX      40(SP), R9
+	LEAQ         (AX)(R9*8), R9
+	VMOVUPD      (R9), Y6
+	VBROADCASTSD 64(SP), Y7
+	VMULPD       Y6, Y7, Y6
+	VMOVUPD      (R9)(CX*1), Y7
+	VBROADCASTSD 96(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (R9)(CX*2), Y7
+	VBROADCASTSD 128(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (R9)(DX*1), Y7
+	VBROADCASTSD 160(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	MOVLQSX      44(SP), R9
+	LEAQ         (AX)(R9*8), R9
+	VMOVUPD      (R9), Y7
+	VBROADCASTSD 72(SP), Y8
+	VMULPD       Y7, Y8, Y7
+	VMOVUPD      (R9)(CX*1), Y8
+	VBROADCASTSD 104(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (R9)(CX*2), Y8
+	VBROADCASTSD 136(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (R9)(DX*1), Y8
+	VBROADCASTSD 168(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VUNPCKLPD    Y5, Y2, Y8
+	VUNPCKHPD    Y5, Y2, Y2
+	VUNPCKLPD    Y7, Y6, Y5
+	VUNPCKHPD    Y7, Y6, Y6
+	VINSERTF128  $0x01, X5, Y8, Y7
+	VINSERTF128  $0x01, X6, Y2, Y9
+	VPERM2F128   $0x31, Y5, Y8, Y5
+	VPERM2F128   $0x31, Y6, Y2, Y2
+	VMULPD       Y7, Y3, Y3
+	VFMADD231PD  Y9, Y4, Y3
+	VFMADD231PD  Y5, Y1, Y3
+	VFMADD231PD  Y2, Y0, Y3
+	VMOVUPD      Y3, (BX)(DI*8)
+	ADDQ         $+4, DI
+	CMPQ         DI, R8
+	JB           line_block
+
+line_tail:
+	CMPQ         DI, SI
+	JAE          line_done
+	SUBQ         DI, SI
+	SHLQ         $0x05, SI
+	LEAQ         cubicTailMasks<>+0(SB), R8
+	VMOVDQU      (R8)(SI*1), Y0
+	VMOVUPD      304(SP), Y1
+	VMULPD       240(SP), Y1, Y2
+	VADDPD       176(SP), Y2, Y2
+	VMULPD       272(SP), Y1, Y1
+	VADDPD       208(SP), Y1, Y1
+	VANDPD       Y0, Y2, Y2
+	VANDPD       Y0, Y1, Y1
+	VCVTTPD2DQY  Y2, X3
+	VCVTTPD2DQY  Y1, X4
+	VCVTDQ2PD    X3, Y5
+	VSUBPD       Y5, Y2, Y5
+	VCVTDQ2PD    X4, Y2
+	VSUBPD       Y2, Y1, Y2
+	VPMULLD      (SP), X4, X1
+	VPADDD       X3, X1, X1
+	VPADDD       16(SP), X1, X1
+	VMOVDQU      X1, 32(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       Y2, Y2, Y3
+	VMULPD       Y1, Y1, Y4
+	VMULPD       cubicSixth<>+0(SB), Y4, Y6
+	VMULPD       Y1, Y6, Y6
+	VMULPD       cubicSixth<>+0(SB), Y3, Y1
+	VMULPD       Y2, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y1, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y3
+	VSUBPD       Y4, Y3, Y3
+	VMULPD       cubicThree<>+0(SB), Y6, Y4
+	VADDPD       Y4, Y3, Y3
+	VMOVUPD      Y6, 48(SP)
+	VMOVUPD      Y2, 80(SP)
+	VMOVUPD      Y3, 112(SP)
+	VMOVUPD      Y1, 144(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y1
+	VSUBPD       Y5, Y1, Y1
+	VMULPD       Y5, Y5, Y2
+	VMULPD       Y1, Y1, Y3
+	VMULPD       cubicSixth<>+0(SB), Y3, Y4
+	VMULPD       Y1, Y4, Y4
+	VMULPD       cubicSixth<>+0(SB), Y2, Y1
+	VMULPD       Y5, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y5
+	VSUBPD       Y2, Y5, Y5
+	VMULPD       cubicThree<>+0(SB), Y1, Y2
+	VADDPD       Y2, Y5, Y5
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y4, Y3
+	VADDPD       Y3, Y2, Y2
+	MOVLQSX      32(SP), SI
+	LEAQ         (AX)(SI*8), SI
+	VMOVUPD      (SI), Y3
+	VBROADCASTSD 48(SP), Y6
+	VMULPD       Y3, Y6, Y3
+	VMOVUPD      (SI)(CX*1), Y6
+	VBROADCASTSD 80(SP), Y7
+	VFMADD231PD  Y6, Y7, Y3
+	VMOVUPD      (SI)(CX*2), Y6
+	VBROADCASTSD 112(SP), Y7
+	VFMADD231PD  Y6, Y7, Y3
+	VMOVUPD      (SI)(DX*1), Y6
+	VBROADCASTSD 144(SP), Y7
+	VFMADD231PD  Y6, Y7, Y3
+	MOVLQSX      36(SP), SI
+	LEAQ         (AX)(SI*8), SI
+	VMOVUPD      (SI), Y6
+	VBROADCASTSD 56(SP), Y7
+	VMULPD       Y6, Y7, Y6
+	VMOVUPD      (SI)(CX*1), Y7
+	VBROADCASTSD 88(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (SI)(CX*2), Y7
+	VBROADCASTSD 120(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	VMOVUPD      (SI)(DX*1), Y7
+	VBROADCASTSD 152(SP), Y8
+	VFMADD231PD  Y7, Y8, Y6
+	MOVLQSX      40(SP), SI
+	LEAQ         (AX)(SI*8), SI
+	VMOVUPD      (SI), Y7
+	VBROADCASTSD 64(SP), Y8
+	VMULPD       Y7, Y8, Y7
+	VMOVUPD      (SI)(CX*1), Y8
+	VBROADCASTSD 96(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (SI)(CX*2), Y8
+	VBROADCASTSD 128(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	VMOVUPD      (SI)(DX*1), Y8
+	VBROADCASTSD 160(SP), Y9
+	VFMADD231PD  Y8, Y9, Y7
+	MOVLQSX      44(SP), SI
+	LEAQ         (AX)(SI*8), AX
+	VMOVUPD      (AX), Y8
+	VBROADCASTSD 72(SP), Y9
+	VMULPD       Y8, Y9, Y8
+	VMOVUPD      (AX)(CX*1), Y9
+	VBROADCASTSD 104(SP), Y10
+	VFMADD231PD  Y9, Y10, Y8
+	VMOVUPD      (AX)(CX*2), Y9
+	VBROADCASTSD 136(SP), Y10
+	VFMADD231PD  Y9, Y10, Y8
+	VMOVUPD      (AX)(DX*1), Y9
+	VBROADCASTSD 168(SP), Y10
+	VFMADD231PD  Y9, Y10, Y8
+	VUNPCKLPD    Y6, Y3, Y9
+	VUNPCKHPD    Y6, Y3, Y3
+	VUNPCKLPD    Y8, Y7, Y6
+	VUNPCKHPD    Y8, Y7, Y7
+	VINSERTF128  $0x01, X6, Y9, Y8
+	VINSERTF128  $0x01, X7, Y3, Y10
+	VPERM2F128   $0x31, Y6, Y9, Y6
+	VPERM2F128   $0x31, Y7, Y3, Y3
+	VMULPD       Y8, Y4, Y4
+	VFMADD231PD  Y10, Y5, Y4
+	VFMADD231PD  Y6, Y2, Y4
+	VFMADD231PD  Y3, Y1, Y4
+	VMASKMOVPD   Y4, Y0, (BX)(DI*8)
+
+line_done:
+	VZEROUPPER
+	RET

@@ -15,3 +15,11 @@ func (s *Solver) affineSumsVector(sJg *[12]float64) (sg, sgg, sfg float64) {
 func (s *Solver) quadraticSumsVector(sJg *[12]float64) (sg, sgg, sfg float64) {
 	return s.quadraticSumsGo(sJg)
 }
+
+// cubicValuesVector is cubicValuesGo where there is no vector kernel.
+func (sp *Spline) cubicValuesVector(xs, ys, out []float64) { sp.cubicValuesGo(xs, ys, out) }
+
+// cubicLineVector is cubicLineGo where there is no vector kernel.
+func (sp *Spline) cubicLineVector(x0, y0, ax, ay float64, i0 int, out []float64) {
+	sp.cubicLineGo(x0, y0, ax, ay, i0, out)
+}

@@ -16,3 +16,18 @@ func affineSumsAVX2(gs []float64, fc []float64, gx []float64, gy []float64, dx [
 //
 //go:noescape
 func quadraticSumsAVX2(gs []float64, fc []float64, gx []float64, gy []float64, dx []float64, dy []float64, fm float64, out *[15]float64)
+
+// cubicValuesAVX2 sets out[k] to the cubic interpolant of coef (rows
+// stride apart, origin the offset of the coefficient up and left of
+// pixel (0, 0)) at (xs[k], ys[k]) for every k < len(out). Every position
+// must lie inside the image (see Spline.values): nothing is checked.
+//
+//go:noescape
+func cubicValuesAVX2(coef []float64, stride int, origin int, xs []float64, ys []float64, out []float64)
+
+// cubicLineAVX2 sets out[k] to the cubic interpolant of coef (see
+// cubicValuesAVX2) at (x0 + t·ax, y0 + t·ay), t = i0 + k, for every
+// k < len(out), the positions rounded as Spline.lineValues rounds them.
+//
+//go:noescape
+func cubicLineAVX2(coef []float64, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)

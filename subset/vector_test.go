@@ -223,3 +223,109 @@ func BenchmarkSums(b *testing.B) {
 		}
 	}
 }
+
+// cubicBound returns the bound 2·20·u·Σ|w_i·v_j·c_ij| on the difference of
+// two evaluations of the cubic interpolant at (x, y) that sum its 16
+// terms in different orders (Higham's bound for n = 16 terms, with the
+// roundings of the weights on top, twice).
+func (sp *Spline) cubicBound(x, y float64) float64 {
+	const u = 0x1p-53
+	ix, iy := int(x), int(y)
+	w0, w1, w2, w3 := cubicWeights(x - float64(ix))
+	v0, v1, v2, v3 := cubicWeights(y - float64(iy))
+	w, v := [4]float64{w0, w1, w2, w3}, [4]float64{v0, v1, v2, v3}
+	base := (iy+splinePad-1)*sp.stride + ix + splinePad - 1
+	var sum float64
+	for j := range 4 {
+		for i := range 4 {
+			sum += math.Abs(w[i] * v[j] * sp.coef[base+j*sp.stride+i])
+		}
+	}
+	return 2 * 20 * u * sum
+}
+
+// TestCubicVectorMatchesGo compares the cubic interpolant of both paths
+// at random positions inside an image and at its corners (the window
+// reaching into the mirrored border), for 0 … 9 positions (every tail
+// length) and 500, each value within cubicBound of cubicAt's; and checks
+// that lineValues' vector kernel equals values' at the same positions
+// bit for bit, from any offset i0.
+func TestCubicVectorMatchesGo(t *testing.T) {
+	skipWithoutVector(t)
+	rng := rand.New(rand.NewPCG(63, 63))
+	const w, h = 41, 29
+	sp := NewSpline(randomImage(rng, w, h), Bicubic)
+	for _, n := range []int{0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 500} {
+		xs, ys := make([]float64, n), make([]float64, n)
+		for k := range xs {
+			xs[k], ys[k] = (w-1)*rng.Float64(), (h-1)*rng.Float64()
+		}
+		corners := [][2]float64{{0, 0}, {w - 1, h - 1}, {w - 1, 0}, {0, h - 1}, {math.Nextafter(w-1, 0), math.Nextafter(h-1, 0)}}
+		for k := 0; k < n && k < len(corners); k++ {
+			xs[n-1-k], ys[n-1-k] = corners[k][0], corners[k][1]
+		}
+		got, want := make([]float64, n+1), make([]float64, n)
+		got[n] = 12345 // a value past the end, which must stay
+		sp.cubicValuesGo(xs, ys, want)
+		sp.cubicValuesVector(xs, ys, got[:n])
+		for k := range want {
+			if d := math.Abs(got[k] - want[k]); !(d <= sp.cubicBound(xs[k], ys[k])) {
+				t.Errorf("n=%d: value %d at (%g, %g) %.17g, cubicAt %.17g (difference %.3g, bound %.3g)", n, k, xs[k], ys[k], got[k], want[k], d, sp.cubicBound(xs[k], ys[k]))
+			}
+		}
+		if got[n] != 12345 {
+			t.Errorf("n=%d: the value past the end was overwritten with %g", n, got[n])
+		}
+	}
+	const x0, y0, ax, ay, n = 2.3, 1.6, 1.013, 0.021, 30
+	xs, ys := make([]float64, n), make([]float64, n)
+	for i := range xs {
+		xs[i], ys[i] = x0+float64(i)*ax, y0+float64(i)*ay
+	}
+	want := make([]float64, n)
+	sp.cubicValuesVector(xs, ys, want)
+	for _, i0 := range []int{0, 1, 3, 7, 13} {
+		got := make([]float64, n)
+		sp.cubicLineVector(x0, y0, ax, ay, 0, got[:i0])
+		sp.cubicLineVector(x0, y0, ax, ay, i0, got[i0:])
+		for k := range got {
+			if got[k] != want[k] {
+				t.Errorf("line from %d: value %d %.17g, values %.17g", i0, k, got[k], want[k])
+			}
+		}
+	}
+}
+
+// BenchmarkCubicValues times the cubic interpolant at the 441 positions
+// of a 21 px subset under an affine warp, by values (positions in memory,
+// the Quadratic order's path) and by lineValues (positions formed along
+// each row, the Affine order's), on each path.
+func BenchmarkCubicValues(b *testing.B) {
+	const side = 21
+	sp := NewSpline(testPattern(64).render(96, 96, nil), Bicubic)
+	xs, ys, out := make([]float64, side*side), make([]float64, side*side), make([]float64, side*side)
+	const ax, ay = 1.003, 0.002
+	for j := range side {
+		for i := range side {
+			xs[j*side+i], ys[j*side+i] = 40.3+float64(i)*ax-0.001*float64(j), 30.6+float64(i)*ay+1.002*float64(j)
+		}
+	}
+	for _, path := range []struct {
+		name   string
+		values func(xs, ys, out []float64)
+		line   func(x0, y0, ax, ay float64, i0 int, out []float64)
+	}{{"go", sp.cubicValuesGo, sp.cubicLineGo}, {"vector", sp.cubicValuesVector, sp.cubicLineVector}} {
+		b.Run("values/"+path.name, func(b *testing.B) {
+			for b.Loop() {
+				path.values(xs, ys, out)
+			}
+		})
+		b.Run("line/"+path.name, func(b *testing.B) {
+			for b.Loop() {
+				for j := range side {
+					path.line(xs[j*side], ys[j*side], ax, ay, 0, out[j*side:(j+1)*side])
+				}
+			}
+		})
+	}
+}

@@ -13,5 +13,6 @@ import (
 func main() {
 	ConstraintExpr("!purego")
 	deformedSums()
+	cubicKernels(float64Coef)
 	Generate()
 }

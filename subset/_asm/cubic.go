@@ -1,0 +1,310 @@
+package main
+
+import (
+	"fmt"
+	"math"
+
+	. "github.com/mmcloughlin/avo/build"
+	. "github.com/mmcloughlin/avo/operand"
+	. "github.com/mmcloughlin/avo/reg"
+)
+
+// The cubic B-spline interpolant at many positions (subset/bspline_bulk.go:
+// cubicValues, lineValues and their kernel cubicAt), four positions to a
+// block, one position to a lane:
+//
+//   - the integer parts, fractions and window offsets of four positions
+//     at once, and their weights by cubicAt's own formulas in the same
+//     order (no FMA), so the weights equal cubicAt's bit for bit;
+//   - for each position, the sum over the window's four rows of its
+//     y-weight times the row (a vector over the four taps along x), with
+//     the y-weight broadcast from the stack and FMA;
+//   - the four sums transposed so that a lane is a position again, and
+//     summed over the taps with their x-weights, with FMA.
+//
+// The sums thus run in another order than cubicAt's (rows weighted along
+// y first) and round once per multiply-add: the values agree with
+// cubicAt's to rounding. Every lane's arithmetic is its own, so a
+// position's value does not depend on the block or lane it falls in: the
+// kernels agree with each other bit for bit, as the Go ones do. The last
+// n mod 4 positions take a block of their own, the unused lanes at
+// position (0, 0) and their values not stored.
+
+// coefType is the storage of the spline coefficients.
+type coefType struct {
+	goType string
+	size   int
+	// row loads the four coefficients at m as float64 into r.
+	row func(m Mem, r VecVirtual)
+}
+
+var float64Coef = coefType{goType: "float64", size: 8, row: func(m Mem, r VecVirtual) { VMOVUPD(m, r) }}
+
+// cubicConsts are the constants of the kernels: each 32 bytes, the value
+// in all four lanes.
+type cubicConsts struct {
+	one, sixth, twoThirds, three, lane, four Mem
+	masks                                    Mem // lanes < r set, at 32·r, r = 1 … 3
+}
+
+func cubicData() cubicConsts {
+	var c cubicConsts
+	put := func(name string, v [4]float64) Mem {
+		m := GLOBL(name, RODATA|NOPTR)
+		for k, x := range v {
+			// As bits: avo writes F64(1) as $(1), which the assembler
+			// reads as the integer 1.
+			DATA(8*k, U64(math.Float64bits(x)))
+		}
+		return m
+	}
+	c.one = put("cubicOne", [4]float64{1, 1, 1, 1})
+	c.sixth = put("cubicSixth", [4]float64{1.0 / 6, 1.0 / 6, 1.0 / 6, 1.0 / 6})
+	c.twoThirds = put("cubicTwoThirds", [4]float64{2.0 / 3, 2.0 / 3, 2.0 / 3, 2.0 / 3})
+	c.three = put("cubicThree", [4]float64{3, 3, 3, 3})
+	c.lane = put("cubicLane", [4]float64{0, 1, 2, 3})
+	c.four = put("cubicFour", [4]float64{4, 4, 4, 4})
+	c.masks = GLOBL("cubicTailMasks", RODATA|NOPTR)
+	for r := 0; r < 4; r++ {
+		for k := 0; k < 4; k++ {
+			var v uint64
+			if k < r {
+				v = ^uint64(0)
+			}
+			DATA(32*r+8*k, U64(v))
+		}
+	}
+	return c
+}
+
+// cubicArgs are what the block needs: the coefficients, the stride in
+// bytes (and three times it), the stride and origin broadcast as int32,
+// and stack space for the window offsets and the y-weights.
+type cubicArgs struct {
+	ct               coefType
+	c                cubicConsts
+	coef             Register
+	rowBytes, rows3  Register
+	stride, origin   Mem // 4 × int32
+	offsets, weights Mem
+}
+
+func loadCubicArgs(ct coefType, c cubicConsts) cubicArgs {
+	a := cubicArgs{ct: ct, c: c}
+	a.coef = Load(Param("coef").Base(), GP64())
+	s := Load(Param("stride"), GP64())
+	o := Load(Param("origin"), GP64())
+	a.stride, a.origin = AllocLocal(16), AllocLocal(16)
+	a.offsets, a.weights = AllocLocal(16), AllocLocal(4*32)
+	for _, v := range []struct {
+		r Register
+		m Mem
+	}{{s, a.stride}, {o, a.origin}} {
+		x := XMM()
+		MOVQ(v.r, x)
+		VPBROADCASTD(x, x)
+		VMOVDQU(x, v.m)
+	}
+	a.rowBytes, a.rows3 = GP64(), GP64()
+	MOVQ(s, a.rowBytes)
+	SHLQ(U8(map[int]uint8{4: 2, 8: 3}[ct.size]), a.rowBytes)
+	LEAQ(Mem{Base: a.rowBytes, Index: a.rowBytes, Scale: 2}, a.rows3)
+	return a
+}
+
+// weights4 returns the cubic weights of taps 0 … 3 at the fractions t,
+// formed as cubicAt forms them.
+func (a cubicArgs) weights4(t VecVirtual) [4]VecVirtual {
+	c := a.c
+	u, t2, u2 := YMM(), YMM(), YMM()
+	VMOVUPD(c.one, u)
+	VSUBPD(t, u, u)
+	VMULPD(t, t, t2)
+	VMULPD(u, u, u2)
+	var w [4]VecVirtual
+	for k := range w {
+		w[k] = YMM()
+	}
+	VMULPD(c.sixth, u2, w[0])
+	VMULPD(u, w[0], w[0])
+	VMULPD(c.sixth, t2, w[3])
+	VMULPD(t, w[3], w[3])
+	for _, v := range []struct {
+		dst, sq, cube VecVirtual
+	}{{w[1], t2, w[3]}, {w[2], u2, w[0]}} {
+		p := YMM()
+		VMOVUPD(c.twoThirds, v.dst)
+		VSUBPD(v.sq, v.dst, v.dst)
+		VMULPD(c.three, v.cube, p)
+		VADDPD(p, v.dst, v.dst)
+	}
+	return w
+}
+
+// block returns the values at the positions (x, y) of four lanes.
+func (a cubicArgs) block(x, y VecVirtual) VecVirtual {
+	ix, iy := XMM(), XMM()
+	VCVTTPD2DQY(x, ix)
+	VCVTTPD2DQY(y, iy)
+	tx, ty := YMM(), YMM()
+	VCVTDQ2PD(ix, tx)
+	VSUBPD(tx, x, tx)
+	VCVTDQ2PD(iy, ty)
+	VSUBPD(ty, y, ty)
+	off := XMM()
+	VPMULLD(a.stride, iy, off)
+	VPADDD(ix, off, off)
+	VPADDD(a.origin, off, off)
+	VMOVDQU(off, a.offsets)
+	wy := a.weights4(ty)
+	for j, w := range wy {
+		VMOVUPD(w, a.weights.Offset(32*j))
+	}
+	wx := a.weights4(tx)
+
+	var acc [4]VecVirtual
+	for p := range acc {
+		k, base := GP64(), GP64()
+		MOVLQSX(a.offsets.Offset(4*p), k)
+		LEAQ(Mem{Base: a.coef, Index: k, Scale: uint8(a.ct.size)}, base)
+		acc[p] = YMM()
+		for j := 0; j < 4; j++ {
+			m := Mem{Base: base}
+			switch j {
+			case 1:
+				m = m.Idx(a.rowBytes, 1)
+			case 2:
+				m = m.Idx(a.rowBytes, 2)
+			case 3:
+				m = m.Idx(a.rows3, 1)
+			}
+			r, b := YMM(), YMM()
+			a.ct.row(m, r)
+			VBROADCASTSD(a.weights.Offset(32*j+8*p), b)
+			if j == 0 {
+				VMULPD(r, b, acc[p])
+			} else {
+				VFMADD231PD(r, b, acc[p])
+			}
+		}
+	}
+	// Transpose: lane p of tap[i] is tap i of position p.
+	t0, t1, t2, t3 := YMM(), YMM(), YMM(), YMM()
+	VUNPCKLPD(acc[1], acc[0], t0)
+	VUNPCKHPD(acc[1], acc[0], t1)
+	VUNPCKLPD(acc[3], acc[2], t2)
+	VUNPCKHPD(acc[3], acc[2], t3)
+	var tap [4]VecVirtual
+	for i := range tap {
+		tap[i] = YMM()
+	}
+	VINSERTF128(U8(1), t2.AsX(), t0, tap[0])
+	VINSERTF128(U8(1), t3.AsX(), t1, tap[1])
+	VPERM2F128(U8(0x31), t2, t0, tap[2])
+	VPERM2F128(U8(0x31), t3, t1, tap[3])
+	v := YMM()
+	VMULPD(tap[0], wx[0], v)
+	for i := 1; i < 4; i++ {
+		VFMADD231PD(tap[i], wx[i], v)
+	}
+	return v
+}
+
+// blockLoop runs the blocks over len(out) positions: positions(k, mask)
+// loads those of positions k … k+3 into (x, y), the lanes of a nil mask
+// all used, else those set in mask (the others at (0, 0)).
+func blockLoop(name string, a cubicArgs, positions func(k Register, mask Op) (x, y VecVirtual)) {
+	out := Mem{Base: Load(Param("out").Base(), GP64())}
+	n := Load(Param("out").Len(), GP64())
+	k, end := GP64(), GP64()
+	XORQ(k, k)
+	MOVQ(n, end)
+	ANDQ(I32(-4), end)
+	CMPQ(end, I32(0))
+	JE(LabelRef(name + "_tail"))
+	Label(name + "_block")
+	x, y := positions(k, nil)
+	VMOVUPD(a.block(x, y), out.Idx(k, 8))
+	ADDQ(I32(4), k)
+	CMPQ(k, end)
+	JB(LabelRef(name + "_block"))
+	Label(name + "_tail")
+	CMPQ(k, n)
+	JAE(LabelRef(name + "_done"))
+	rem := GP64()
+	MOVQ(n, rem)
+	SUBQ(k, rem)
+	SHLQ(U8(5), rem)
+	masks, mask := GP64(), YMM()
+	LEAQ(a.c.masks, masks)
+	VMOVDQU(Mem{Base: masks, Index: rem, Scale: 1}, mask)
+	x, y = positions(k, mask)
+	VMASKMOVPD(a.block(x, y), mask, out.Idx(k, 8))
+	Label(name + "_done")
+	VZEROUPPER()
+	RET()
+}
+
+// cubicKernels generates cubicValuesAVX2 and cubicLineAVX2 for
+// coefficients of type ct.
+func cubicKernels(ct coefType) {
+	c := cubicData()
+
+	TEXT("cubicValuesAVX2", NOSPLIT, fmt.Sprintf("func(coef []%s, stride, origin int, xs, ys, out []float64)", ct.goType))
+	Pragma("noescape")
+	Doc("cubicValuesAVX2 sets out[k] to the cubic interpolant of coef (rows",
+		"stride apart, origin the offset of the coefficient up and left of",
+		"pixel (0, 0)) at (xs[k], ys[k]) for every k < len(out). Every position",
+		"must lie inside the image (see Spline.values): nothing is checked.")
+	a := loadCubicArgs(ct, c)
+	xs := Mem{Base: Load(Param("xs").Base(), GP64())}
+	ys := Mem{Base: Load(Param("ys").Base(), GP64())}
+	blockLoop("values", a, func(k Register, mask Op) (x, y VecVirtual) {
+		x, y = YMM(), YMM()
+		if mask == nil {
+			VMOVUPD(xs.Idx(k, 8), x)
+			VMOVUPD(ys.Idx(k, 8), y)
+		} else {
+			VMASKMOVPD(xs.Idx(k, 8), mask, x)
+			VMASKMOVPD(ys.Idx(k, 8), mask, y)
+		}
+		return x, y
+	})
+
+	TEXT("cubicLineAVX2", NOSPLIT, fmt.Sprintf("func(coef []%s, stride, origin int, x0, y0, ax, ay float64, i0 int, out []float64)", ct.goType))
+	Pragma("noescape")
+	Doc("cubicLineAVX2 sets out[k] to the cubic interpolant of coef (see",
+		"cubicValuesAVX2) at (x0 + t·ax, y0 + t·ay), t = i0 + k, for every",
+		"k < len(out), the positions rounded as Spline.lineValues rounds them.")
+	a = loadCubicArgs(ct, c)
+	line := AllocLocal(5 * 32) // x0, y0, ax, ay, t of the block
+	for i, name := range []string{"x0", "y0", "ax", "ay"} {
+		v, b := Load(Param(name), XMM()), YMM()
+		VBROADCASTSD(v, b)
+		VMOVUPD(b, line.Offset(32*i))
+	}
+	i0 := Load(Param("i0"), GP64())
+	ti, t := XMM(), YMM()
+	VXORPD(ti, ti, ti)
+	VCVTSI2SDQ(i0, ti, ti)
+	VBROADCASTSD(ti, t)
+	VADDPD(c.lane, t, t)
+	VMOVUPD(t, line.Offset(4*32))
+	blockLoop("line", a, func(k Register, mask Op) (x, y VecVirtual) {
+		t := YMM()
+		VMOVUPD(line.Offset(4*32), t)
+		x, y = YMM(), YMM()
+		VMULPD(line.Offset(2*32), t, x)
+		VADDPD(line.Offset(0), x, x)
+		VMULPD(line.Offset(3*32), t, y)
+		VADDPD(line.Offset(32), y, y)
+		if mask == nil {
+			VADDPD(c.four, t, t)
+			VMOVUPD(t, line.Offset(4*32))
+		} else {
+			VANDPD(mask, x, x)
+			VANDPD(mask, y, y)
+		}
+		return x, y
+	})
+}
