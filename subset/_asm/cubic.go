@@ -167,7 +167,7 @@ func (a cubicArgs) block(x, y VecVirtual) VecVirtual {
 		k, base := GP64(), GP64()
 		MOVLQSX(a.offsets.Offset(4*p), k)
 		LEAQ(Mem{Base: a.coef, Index: k, Scale: uint8(a.ct.size)}, base)
-		acc[p] = YMM()
+		var rows, b [4]VecVirtual
 		for j := 0; j < 4; j++ {
 			m := Mem{Base: base}
 			switch j {
@@ -178,15 +178,11 @@ func (a cubicArgs) block(x, y VecVirtual) VecVirtual {
 			case 3:
 				m = m.Idx(a.rows3, 1)
 			}
-			r, b := YMM(), YMM()
-			a.ct.row(m, r)
-			VBROADCASTSD(a.weights.Offset(32*j+8*p), b)
-			if j == 0 {
-				VMULPD(r, b, acc[p])
-			} else {
-				VFMADD231PD(r, b, acc[p])
-			}
+			rows[j], b[j] = YMM(), YMM()
+			a.ct.row(m, rows[j])
+			VBROADCASTSD(a.weights.Offset(32*j+8*p), b[j])
 		}
+		acc[p] = pairSum(rows, b)
 	}
 	// Transpose: lane p of tap[i] is tap i of position p.
 	t0, t1, t2, t3 := YMM(), YMM(), YMM(), YMM()
@@ -202,12 +198,20 @@ func (a cubicArgs) block(x, y VecVirtual) VecVirtual {
 	VINSERTF128(U8(1), t3.AsX(), t1, tap[1])
 	VPERM2F128(U8(0x31), t2, t0, tap[2])
 	VPERM2F128(U8(0x31), t3, t1, tap[3])
-	v := YMM()
-	VMULPD(tap[0], wx[0], v)
-	for i := 1; i < 4; i++ {
-		VFMADD231PD(tap[i], wx[i], v)
-	}
-	return v
+	return pairSum(tap, wx)
+}
+
+// pairSum returns (a0·b0 + a1·b1) + (a2·b2 + a3·b3), each pair by a
+// multiply and an FMA: two short chains rather than one long one, so that
+// more blocks overlap.
+func pairSum(a, b [4]VecVirtual) VecVirtual {
+	lo, hi := YMM(), YMM()
+	VMULPD(a[0], b[0], lo)
+	VFMADD231PD(a[1], b[1], lo)
+	VMULPD(a[2], b[2], hi)
+	VFMADD231PD(a[3], b[3], hi)
+	VADDPD(hi, lo, lo)
+	return lo
 }
 
 // blockLoop runs the blocks over len(out) positions: positions(k, mask)
@@ -231,15 +235,28 @@ func blockLoop(name string, a cubicArgs, positions func(k Register, mask Op) (x,
 	Label(name + "_tail")
 	CMPQ(k, n)
 	JAE(LabelRef(name + "_done"))
-	rem := GP64()
+	// The last block's values go to the stack and from there one by one
+	// to out: a masked store (VMASKMOVPD) is slow on some processors.
+	rem, sel := GP64(), GP64()
 	MOVQ(n, rem)
 	SUBQ(k, rem)
-	SHLQ(U8(5), rem)
+	MOVQ(rem, sel)
+	SHLQ(U8(5), sel)
 	masks, mask := GP64(), YMM()
 	LEAQ(a.c.masks, masks)
-	VMOVDQU(Mem{Base: masks, Index: rem, Scale: 1}, mask)
+	VMOVDQU(Mem{Base: masks, Index: sel, Scale: 1}, mask)
 	x, y = positions(k, mask)
-	VMASKMOVPD(a.block(x, y), mask, out.Idx(k, 8))
+	last := AllocLocal(32)
+	VMOVUPD(a.block(x, y), last)
+	LEAQ(out.Idx(k, 8), masks)
+	j, v := GP64(), GP64()
+	XORQ(j, j)
+	Label(name + "_copy")
+	MOVQ(last.Idx(j, 8), v)
+	MOVQ(v, Mem{Base: masks, Index: j, Scale: 8})
+	INCQ(j)
+	CMPQ(j, rem)
+	JB(LabelRef(name + "_copy"))
 	Label(name + "_done")
 	VZEROUPPER()
 	RET()
