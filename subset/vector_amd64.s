@@ -405,7 +405,7 @@ DATA cubicTailMasks<>+112(SB)/8, $0xffffffffffffffff
 DATA cubicTailMasks<>+120(SB)/8, $0x0000000000000000
 GLOBL cubicTailMasks<>(SB), RODATA|NOPTR, $128
 
-// func cubicValuesAVX2(coef []float64, stride int, origin int, xs []float64, ys []float64, out []float64)
+// func cubicValuesAVX2(coef []float32, stride int, origin int, xs []float64, ys []float64, out []float64)
 // Requires: AVX, AVX2, FMA3, SSE2
 TEXT ·cubicValuesAVX2(SB), NOSPLIT, $208-112
 	MOVQ         coef_base+0(FP), AX
@@ -417,7 +417,7 @@ TEXT ·cubicValuesAVX2(SB), NOSPLIT, $208-112
 	MOVQ         DX, X0
 	VPBROADCASTD X0, X0
 	VMOVDQU      X0, 16(SP)
-	SHLQ         $0x03, CX
+	SHLQ         $0x02, CX
 	LEAQ         (CX)(CX*2), DX
 	MOVQ         xs_base+40(FP), BX
 	MOVQ         ys_base+64(FP), SI
@@ -479,14 +479,14 @@ values_block:
 	VMULPD       cubicThree<>+0(SB), Y3, Y2
 	VADDPD       Y2, Y1, Y1
 	MOVLQSX      32(SP), R11
-	LEAQ         (AX)(R11*8), R11
-	VMOVUPD      (R11), Y2
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y2
 	VBROADCASTSD 48(SP), Y5
-	VMOVUPD      (R11)(CX*1), Y6
+	VCVTPS2PD    (R11)(CX*1), Y6
 	VBROADCASTSD 80(SP), Y7
-	VMOVUPD      (R11)(CX*2), Y8
+	VCVTPS2PD    (R11)(CX*2), Y8
 	VBROADCASTSD 112(SP), Y9
-	VMOVUPD      (R11)(DX*1), Y10
+	VCVTPS2PD    (R11)(DX*1), Y10
 	VBROADCASTSD 144(SP), Y11
 	VMULPD       Y2, Y5, Y2
 	VFMADD231PD  Y6, Y7, Y2
@@ -494,14 +494,14 @@ values_block:
 	VFMADD231PD  Y10, Y11, Y5
 	VADDPD       Y5, Y2, Y2
 	MOVLQSX      36(SP), R11
-	LEAQ         (AX)(R11*8), R11
-	VMOVUPD      (R11), Y5
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y5
 	VBROADCASTSD 56(SP), Y6
-	VMOVUPD      (R11)(CX*1), Y7
+	VCVTPS2PD    (R11)(CX*1), Y7
 	VBROADCASTSD 88(SP), Y8
-	VMOVUPD      (R11)(CX*2), Y9
+	VCVTPS2PD    (R11)(CX*2), Y9
 	VBROADCASTSD 120(SP), Y10
-	VMOVUPD      (R11)(DX*1), Y11
+	VCVTPS2PD    (R11)(DX*1), Y11
 	VBROADCASTSD 152(SP), Y12
 	VMULPD       Y5, Y6, Y5
 	VFMADD231PD  Y7, Y8, Y5
@@ -509,14 +509,14 @@ values_block:
 	VFMADD231PD  Y11, Y12, Y6
 	VADDPD       Y6, Y5, Y5
 	MOVLQSX      40(SP), R11
-	LEAQ         (AX)(R11*8), R11
-	VMOVUPD      (R11), Y6
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y6
 	VBROADCASTSD 64(SP), Y7
-	VMOVUPD      (R11)(CX*1), Y8
+	VCVTPS2PD    (R11)(CX*1), Y8
 	VBROADCASTSD 96(SP), Y9
-	VMOVUPD      (R11)(CX*2), Y10
+	VCVTPS2PD    (R11)(CX*2), Y10
 	VBROADCASTSD 128(SP), Y11
-	VMOVUPD      (R11)(DX*1), Y12
+	VCVTPS2PD    (R11)(DX*1), Y12
 	VBROADCASTSD 160(SP), Y13
 	VMULPD       Y6, Y7, Y6
 	VFMADD231PD  Y8, Y9, Y6
@@ -524,14 +524,14 @@ values_block:
 	VFMADD231PD  Y12, Y13, Y7
 	VADDPD       Y7, Y6, Y6
 	MOVLQSX      44(SP), R11
-	LEAQ         (AX)(R11*8), R11
-	VMOVUPD      (R11), Y7
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y7
 	VBROADCASTSD 72(SP), Y8
-	VMOVUPD      (R11)(CX*1), Y9
+	VCVTPS2PD    (R11)(CX*1), Y9
 	VBROADCASTSD 104(SP), Y10
-	VMOVUPD      (R11)(CX*2), Y11
+	VCVTPS2PD    (R11)(CX*2), Y11
 	VBROADCASTSD 136(SP), Y12
-	VMOVUPD      (R11)(DX*1), Y13
+	VCVTPS2PD    (R11)(DX*1), Y13
 	VBROADCASTSD 168(SP), Y14
 	VMULPD       Y7, Y8, Y7
 	VFMADD231PD  Y9, Y10, Y7
@@ -613,14 +613,14 @@ values_tail:
 	VMULPD       cubicThree<>+0(SB), Y3, Y2
 	VADDPD       Y2, Y1, Y1
 	MOVLQSX      32(SP), BX
-	LEAQ         (AX)(BX*8), BX
-	VMOVUPD      (BX), Y2
+	LEAQ         (AX)(BX*4), BX
+	VCVTPS2PD    (BX), Y2
 	VBROADCASTSD 48(SP), Y5
-	VMOVUPD      (BX)(CX*1), Y6
+	VCVTPS2PD    (BX)(CX*1), Y6
 	VBROADCASTSD 80(SP), Y7
-	VMOVUPD      (BX)(CX*2), Y8
+	VCVTPS2PD    (BX)(CX*2), Y8
 	VBROADCASTSD 112(SP), Y9
-	VMOVUPD      (BX)(DX*1), Y10
+	VCVTPS2PD    (BX)(DX*1), Y10
 	VBROADCASTSD 144(SP), Y11
 	VMULPD       Y2, Y5, Y2
 	VFMADD231PD  Y6, Y7, Y2
@@ -628,14 +628,14 @@ values_tail:
 	VFMADD231PD  Y10, Y11, Y5
 	VADDPD       Y5, Y2, Y2
 	MOVLQSX      36(SP), BX
-	LEAQ         (AX)(BX*8), BX
-	VMOVUPD      (BX), Y5
+	LEAQ         (AX)(BX*4), BX
+	VCVTPS2PD    (BX), Y5
 	VBROADCASTSD 56(SP), Y6
-	VMOVUPD      (BX)(CX*1), Y7
+	VCVTPS2PD    (BX)(CX*1), Y7
 	VBROADCASTSD 88(SP), Y8
-	VMOVUPD      (BX)(CX*2), Y9
+	VCVTPS2PD    (BX)(CX*2), Y9
 	VBROADCASTSD 120(SP), Y10
-	VMOVUPD      (BX)(DX*1), Y11
+	VCVTPS2PD    (BX)(DX*1), Y11
 	VBROADCASTSD 152(SP), Y12
 	VMULPD       Y5, Y6, Y5
 	VFMADD231PD  Y7, Y8, Y5
@@ -643,14 +643,14 @@ values_tail:
 	VFMADD231PD  Y11, Y12, Y6
 	VADDPD       Y6, Y5, Y5
 	MOVLQSX      40(SP), BX
-	LEAQ         (AX)(BX*8), BX
-	VMOVUPD      (BX), Y6
+	LEAQ         (AX)(BX*4), BX
+	VCVTPS2PD    (BX), Y6
 	VBROADCASTSD 64(SP), Y7
-	VMOVUPD      (BX)(CX*1), Y8
+	VCVTPS2PD    (BX)(CX*1), Y8
 	VBROADCASTSD 96(SP), Y9
-	VMOVUPD      (BX)(CX*2), Y10
+	VCVTPS2PD    (BX)(CX*2), Y10
 	VBROADCASTSD 128(SP), Y11
-	VMOVUPD      (BX)(DX*1), Y12
+	VCVTPS2PD    (BX)(DX*1), Y12
 	VBROADCASTSD 160(SP), Y13
 	VMULPD       Y6, Y7, Y6
 	VFMADD231PD  Y8, Y9, Y6
@@ -658,14 +658,14 @@ values_tail:
 	VFMADD231PD  Y12, Y13, Y7
 	VADDPD       Y7, Y6, Y6
 	MOVLQSX      44(SP), BX
-	LEAQ         (AX)(BX*8), AX
-	VMOVUPD      (AX), Y7
+	LEAQ         (AX)(BX*4), AX
+	VCVTPS2PD    (AX), Y7
 	VBROADCASTSD 72(SP), Y8
-	VMOVUPD      (AX)(CX*1), Y9
+	VCVTPS2PD    (AX)(CX*1), Y9
 	VBROADCASTSD 104(SP), Y10
-	VMOVUPD      (AX)(CX*2), Y11
+	VCVTPS2PD    (AX)(CX*2), Y11
 	VBROADCASTSD 136(SP), Y12
-	VMOVUPD      (AX)(DX*1), Y13
+	VCVTPS2PD    (AX)(DX*1), Y13
 	VBROADCASTSD 168(SP), Y14
 	VMULPD       Y7, Y8, Y7
 	VFMADD231PD  Y9, Y10, Y7
@@ -700,7 +700,7 @@ values_done:
 	VZEROUPPER
 	RET
 
-// func cubicLineAVX2(coef []float64, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)
+// func cubicLineAVX2(coef []float32, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)
 // Requires: AVX, AVX2, FMA3, SSE2
 TEXT ·cubicLineAVX2(SB), NOSPLIT, $368-104
 	MOVQ         coef_base+0(FP), AX
@@ -712,7 +712,7 @@ TEXT ·cubicLineAVX2(SB), NOSPLIT, $368-104
 	MOVQ         DX, X0
 	VPBROADCASTD X0, X0
 	VMOVDQU      X0, 16(SP)
-	SHLQ         $0x03, CX
+	SHLQ         $0x02, CX
 	LEAQ         (CX)(CX*2), DX
 	MOVSD        x0+40(FP), X0
 	VBROADCASTSD X0, Y0
@@ -795,14 +795,14 @@ line_block:
 	VMULPD       cubicThree<>+0(SB), Y3, Y2
 	VADDPD       Y2, Y1, Y1
 	MOVLQSX      32(SP), R9
-	LEAQ         (AX)(R9*8), R9
-	VMOVUPD      (R9), Y2
+	LEAQ         (AX)(R9*4), R9
+	VCVTPS2PD    (R9), Y2
 	VBROADCASTSD 48(SP), Y5
-	VMOVUPD      (R9)(CX*1), Y6
+	VCVTPS2PD    (R9)(CX*1), Y6
 	VBROADCASTSD 80(SP), Y7
-	VMOVUPD      (R9)(CX*2), Y8
+	VCVTPS2PD    (R9)(CX*2), Y8
 	VBROADCASTSD 112(SP), Y9
-	VMOVUPD      (R9)(DX*1), Y10
+	VCVTPS2PD    (R9)(DX*1), Y10
 	VBROADCASTSD 144(SP), Y11
 	VMULPD       Y2, Y5, Y2
 	VFMADD231PD  Y6, Y7, Y2
@@ -810,14 +810,14 @@ line_block:
 	VFMADD231PD  Y10, Y11, Y5
 	VADDPD       Y5, Y2, Y2
 	MOVLQSX      36(SP), R9
-	LEAQ         (AX)(R9*8), R9
-	VMOVUPD      (R9), Y5
+	LEAQ         (AX)(R9*4), R9
+	VCVTPS2PD    (R9), Y5
 	VBROADCASTSD 56(SP), Y6
-	VMOVUPD      (R9)(CX*1), Y7
+	VCVTPS2PD    (R9)(CX*1), Y7
 	VBROADCASTSD 88(SP), Y8
-	VMOVUPD      (R9)(CX*2), Y9
+	VCVTPS2PD    (R9)(CX*2), Y9
 	VBROADCASTSD 120(SP), Y10
-	VMOVUPD      (R9)(DX*1), Y11
+	VCVTPS2PD    (R9)(DX*1), Y11
 	VBROADCASTSD 152(SP), Y12
 	VMULPD       Y5, Y6, Y5
 	VFMADD231PD  Y7, Y8, Y5
@@ -825,14 +825,14 @@ line_block:
 	VFMADD231PD  Y11, Y12, Y6
 	VADDPD       Y6, Y5, Y5
 	MOVLQSX      40(SP), R9
-	LEAQ         (AX)(R9*8), R9
-	VMOVUPD      (R9), Y6
+	LEAQ         (AX)(R9*4), R9
+	VCVTPS2PD    (R9), Y6
 	VBROADCASTSD 64(SP), Y7
-	VMOVUPD      (R9)(CX*1), Y8
+	VCVTPS2PD    (R9)(CX*1), Y8
 	VBROADCASTSD 96(SP), Y9
-	VMOVUPD      (R9)(CX*2), Y10
+	VCVTPS2PD    (R9)(CX*2), Y10
 	VBROADCASTSD 128(SP), Y11
-	VMOVUPD      (R9)(DX*1), Y12
+	VCVTPS2PD    (R9)(DX*1), Y12
 	VBROADCASTSD 160(SP), Y13
 	VMULPD       Y6, Y7, Y6
 	VFMADD231PD  Y8, Y9, Y6
@@ -840,14 +840,14 @@ line_block:
 	VFMADD231PD  Y12, Y13, Y7
 	VADDPD       Y7, Y6, Y6
 	MOVLQSX      44(SP), R9
-	LEAQ         (AX)(R9*8), R9
-	VMOVUPD      (R9), Y7
+	LEAQ         (AX)(R9*4), R9
+	VCVTPS2PD    (R9), Y7
 	VBROADCASTSD 72(SP), Y8
-	VMOVUPD      (R9)(CX*1), Y9
+	VCVTPS2PD    (R9)(CX*1), Y9
 	VBROADCASTSD 104(SP), Y10
-	VMOVUPD      (R9)(CX*2), Y11
+	VCVTPS2PD    (R9)(CX*2), Y11
 	VBROADCASTSD 136(SP), Y12
-	VMOVUPD      (R9)(DX*1), Y13
+	VCVTPS2PD    (R9)(DX*1), Y13
 	VBROADCASTSD 168(SP), Y14
 	VMULPD       Y7, Y8, Y7
 	VFMADD231PD  Y9, Y10, Y7
@@ -934,14 +934,14 @@ line_tail:
 	VMULPD       cubicThree<>+0(SB), Y3, Y2
 	VADDPD       Y2, Y1, Y1
 	MOVLQSX      32(SP), R8
-	LEAQ         (AX)(R8*8), R8
-	VMOVUPD      (R8), Y2
+	LEAQ         (AX)(R8*4), R8
+	VCVTPS2PD    (R8), Y2
 	VBROADCASTSD 48(SP), Y5
-	VMOVUPD      (R8)(CX*1), Y6
+	VCVTPS2PD    (R8)(CX*1), Y6
 	VBROADCASTSD 80(SP), Y7
-	VMOVUPD      (R8)(CX*2), Y8
+	VCVTPS2PD    (R8)(CX*2), Y8
 	VBROADCASTSD 112(SP), Y9
-	VMOVUPD      (R8)(DX*1), Y10
+	VCVTPS2PD    (R8)(DX*1), Y10
 	VBROADCASTSD 144(SP), Y11
 	VMULPD       Y2, Y5, Y2
 	VFMADD231PD  Y6, Y7, Y2
@@ -949,14 +949,14 @@ line_tail:
 	VFMADD231PD  Y10, Y11, Y5
 	VADDPD       Y5, Y2, Y2
 	MOVLQSX      36(SP), R8
-	LEAQ         (AX)(R8*8), R8
-	VMOVUPD      (R8), Y5
+	LEAQ         (AX)(R8*4), R8
+	VCVTPS2PD    (R8), Y5
 	VBROADCASTSD 56(SP), Y6
-	VMOVUPD      (R8)(CX*1), Y7
+	VCVTPS2PD    (R8)(CX*1), Y7
 	VBROADCASTSD 88(SP), Y8
-	VMOVUPD      (R8)(CX*2), Y9
+	VCVTPS2PD    (R8)(CX*2), Y9
 	VBROADCASTSD 120(SP), Y10
-	VMOVUPD      (R8)(DX*1), Y11
+	VCVTPS2PD    (R8)(DX*1), Y11
 	VBROADCASTSD 152(SP), Y12
 	VMULPD       Y5, Y6, Y5
 	VFMADD231PD  Y7, Y8, Y5
@@ -964,14 +964,14 @@ line_tail:
 	VFMADD231PD  Y11, Y12, Y6
 	VADDPD       Y6, Y5, Y5
 	MOVLQSX      40(SP), R8
-	LEAQ         (AX)(R8*8), R8
-	VMOVUPD      (R8), Y6
+	LEAQ         (AX)(R8*4), R8
+	VCVTPS2PD    (R8), Y6
 	VBROADCASTSD 64(SP), Y7
-	VMOVUPD      (R8)(CX*1), Y8
+	VCVTPS2PD    (R8)(CX*1), Y8
 	VBROADCASTSD 96(SP), Y9
-	VMOVUPD      (R8)(CX*2), Y10
+	VCVTPS2PD    (R8)(CX*2), Y10
 	VBROADCASTSD 128(SP), Y11
-	VMOVUPD      (R8)(DX*1), Y12
+	VCVTPS2PD    (R8)(DX*1), Y12
 	VBROADCASTSD 160(SP), Y13
 	VMULPD       Y6, Y7, Y6
 	VFMADD231PD  Y8, Y9, Y6
@@ -979,14 +979,14 @@ line_tail:
 	VFMADD231PD  Y12, Y13, Y7
 	VADDPD       Y7, Y6, Y6
 	MOVLQSX      44(SP), R8
-	LEAQ         (AX)(R8*8), AX
-	VMOVUPD      (AX), Y7
+	LEAQ         (AX)(R8*4), AX
+	VCVTPS2PD    (AX), Y7
 	VBROADCASTSD 72(SP), Y8
-	VMOVUPD      (AX)(CX*1), Y9
+	VCVTPS2PD    (AX)(CX*1), Y9
 	VBROADCASTSD 104(SP), Y10
-	VMOVUPD      (AX)(CX*2), Y11
+	VCVTPS2PD    (AX)(CX*2), Y11
 	VBROADCASTSD 136(SP), Y12
-	VMOVUPD      (AX)(DX*1), Y13
+	VCVTPS2PD    (AX)(DX*1), Y13
 	VBROADCASTSD 168(SP), Y14
 	VMULPD       Y7, Y8, Y7
 	VFMADD231PD  Y9, Y10, Y7

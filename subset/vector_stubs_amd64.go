@@ -23,11 +23,11 @@ func quadraticSumsAVX2(gs []float64, fc []float64, gx []float64, gy []float64, d
 // must lie inside the image (see Spline.values): nothing is checked.
 //
 //go:noescape
-func cubicValuesAVX2(coef []float64, stride int, origin int, xs []float64, ys []float64, out []float64)
+func cubicValuesAVX2(coef []float32, stride int, origin int, xs []float64, ys []float64, out []float64)
 
 // cubicLineAVX2 sets out[k] to the cubic interpolant of coef (see
 // cubicValuesAVX2) at (x0 + t·ax, y0 + t·ay), t = i0 + k, for every
 // k < len(out), the positions rounded as Spline.lineValues rounds them.
 //
 //go:noescape
-func cubicLineAVX2(coef []float64, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)
+func cubicLineAVX2(coef []float32, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)

@@ -238,7 +238,7 @@ func (sp *Spline) cubicBound(x, y float64) float64 {
 	var sum float64
 	for j := range 4 {
 		for i := range 4 {
-			sum += math.Abs(w[i] * v[j] * sp.coef[base+j*sp.stride+i])
+			sum += math.Abs(w[i] * v[j] * float64(sp.coef[base+j*sp.stride+i]))
 		}
 	}
 	return 2 * 20 * u * sum

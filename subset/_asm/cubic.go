@@ -30,7 +30,7 @@ import (
 // n mod 4 positions take a block of their own, the unused lanes at
 // position (0, 0) and their values not stored.
 
-// coefType is the storage of the spline coefficients.
+// coefType is a storage of the spline coefficients.
 type coefType struct {
 	goType string
 	size   int
@@ -38,7 +38,9 @@ type coefType struct {
 	row func(m Mem, r VecVirtual)
 }
 
-var float64Coef = coefType{goType: "float64", size: 8, row: func(m Mem, r VecVirtual) { VMOVUPD(m, r) }}
+// float32Coef is the storage of Spline.coef: the four coefficients widen
+// to float64 exactly as they load.
+var float32Coef = coefType{goType: "float32", size: 4, row: func(m Mem, r VecVirtual) { VCVTPS2PD(m, r) }}
 
 // cubicConsts are the constants of the kernels: each 32 bytes, the value
 // in all four lanes.

@@ -13,6 +13,6 @@ import (
 func main() {
 	ConstraintExpr("!purego")
 	deformedSums()
-	cubicKernels(float64Coef)
+	cubicKernels(float32Coef)
 	Generate()
 }
