@@ -1020,3 +1020,487 @@ line_copy:
 line_done:
 	VZEROUPPER
 	RET
+
+// func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, side int, out []float64)
+// Requires: AVX, AVX2, FMA3, SSE2
+TEXT ·cubicGridAVX2(SB), NOSPLIT, $472-136
+	MOVQ         coef_base+0(FP), AX
+	MOVQ         stride+24(FP), CX
+	MOVQ         origin+32(FP), DX
+	MOVQ         CX, X0
+	VPBROADCASTD X0, X0
+	VMOVDQU      X0, (SP)
+	MOVQ         DX, X0
+	VPBROADCASTD X0, X0
+	VMOVDQU      X0, 16(SP)
+	SHLQ         $0x02, CX
+	LEAQ         (CX)(CX*2), DX
+	MOVSD        ax+88(FP), X0
+	VBROADCASTSD X0, Y0
+	VMOVUPD      Y0, 240(SP)
+	MOVSD        ay+96(FP), X0
+	VBROADCASTSD X0, Y0
+	VMOVUPD      Y0, 272(SP)
+	MOVQ         ox_base+40(FP), BX
+	MOVQ         oy_base+64(FP), SI
+	MOVQ         out_base+112(FP), DI
+	MOVQ         side+104(FP), R8
+	ANDQ         $-4, R8
+	MOVQ         R8, 464(SP)
+	XORQ         R8, R8
+	XORQ         R9, R9
+	CMPQ         ox_len+48(FP), $+0
+	JE           grid_final
+
+grid_row:
+	VBROADCASTSD (BX)(R9*8), Y0
+	VMOVUPD      Y0, 176(SP)
+	VBROADCASTSD (SI)(R9*8), Y0
+	VMOVUPD      Y0, 208(SP)
+	VMOVUPD      cubicLane<>+0(SB), Y0
+	VMOVUPD      Y0, 304(SP)
+	XORQ         R10, R10
+	CMPQ         464(SP), $+0
+	JE           grid_rest
+
+grid_block:
+	VMOVUPD      304(SP), Y0
+	VMULPD       240(SP), Y0, Y1
+	VADDPD       176(SP), Y1, Y1
+	VMULPD       272(SP), Y0, Y2
+	VADDPD       208(SP), Y2, Y2
+	VADDPD       cubicFour<>+0(SB), Y0, Y0
+	VMOVUPD      Y0, 304(SP)
+	VCVTTPD2DQY  Y1, X0
+	VCVTTPD2DQY  Y2, X3
+	VCVTDQ2PD    X0, Y4
+	VSUBPD       Y4, Y1, Y4
+	VCVTDQ2PD    X3, Y1
+	VSUBPD       Y1, Y2, Y1
+	VPMULLD      (SP), X3, X2
+	VPADDD       X0, X2, X2
+	VPADDD       16(SP), X2, X2
+	VMOVDQU      X2, 32(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y0
+	VSUBPD       Y1, Y0, Y0
+	VMULPD       Y1, Y1, Y2
+	VMULPD       Y0, Y0, Y3
+	VMULPD       cubicSixth<>+0(SB), Y3, Y5
+	VMULPD       Y0, Y5, Y5
+	VMULPD       cubicSixth<>+0(SB), Y2, Y0
+	VMULPD       Y1, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y0, Y2
+	VADDPD       Y2, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y5, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      Y5, 48(SP)
+	VMOVUPD      Y1, 80(SP)
+	VMOVUPD      Y2, 112(SP)
+	VMOVUPD      Y0, 144(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y0
+	VSUBPD       Y4, Y0, Y0
+	VMULPD       Y4, Y4, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       cubicSixth<>+0(SB), Y2, Y3
+	VMULPD       Y0, Y3, Y3
+	VMULPD       cubicSixth<>+0(SB), Y1, Y0
+	VMULPD       Y4, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y4
+	VSUBPD       Y1, Y4, Y4
+	VMULPD       cubicThree<>+0(SB), Y0, Y1
+	VADDPD       Y1, Y4, Y4
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y3, Y2
+	VADDPD       Y2, Y1, Y1
+	MOVLQSX      32(SP), R11
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y2
+	VBROADCASTSD 48(SP), Y5
+	VCVTPS2PD    (R11)(CX*1), Y6
+	VBROADCASTSD 80(SP), Y7
+	VCVTPS2PD    (R11)(CX*2), Y8
+	VBROADCASTSD 112(SP), Y9
+	VCVTPS2PD    (R11)(DX*1), Y10
+	VBROADCASTSD 144(SP), Y11
+	VMULPD       Y2, Y5, Y2
+	VFMADD231PD  Y6, Y7, Y2
+	VMULPD       Y8, Y9, Y5
+	VFMADD231PD  Y10, Y11, Y5
+	VADDPD       Y5, Y2, Y2
+	MOVLQSX      36(SP), R11
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y5
+	VBROADCASTSD 56(SP), Y6
+	VCVTPS2PD    (R11)(CX*1), Y7
+	VBROADCASTSD 88(SP), Y8
+	VCVTPS2PD    (R11)(CX*2), Y9
+	VBROADCASTSD 120(SP), Y10
+	VCVTPS2PD    (R11)(DX*1), Y11
+	VBROADCASTSD 152(SP), Y12
+	VMULPD       Y5, Y6, Y5
+	VFMADD231PD  Y7, Y8, Y5
+	VMULPD       Y9, Y10, Y6
+	VFMADD231PD  Y11, Y12, Y6
+	VADDPD       Y6, Y5, Y5
+	MOVLQSX      40(SP), R11
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y6
+	VBROADCASTSD 64(SP), Y7
+	VCVTPS2PD    (R11)(CX*1), Y8
+	VBROADCASTSD 96(SP), Y9
+	VCVTPS2PD    (R11)(CX*2), Y10
+	VBROADCASTSD 128(SP), Y11
+	VCVTPS2PD    (R11)(DX*1), Y12
+	VBROADCASTSD 160(SP), Y13
+	VMULPD       Y6, Y7, Y6
+	VFMADD231PD  Y8, Y9, Y6
+	VMULPD       Y10, Y11, Y7
+	VFMADD231PD  Y12, Y13, Y7
+	VADDPD       Y7, Y6, Y6
+	MOVLQSX      44(SP), R11
+	LEAQ         (AX)(R11*4), R11
+	VCVTPS2PD    (R11), Y7
+	VBROADCASTSD 72(SP), Y8
+	VCVTPS2PD    (R11)(CX*1), Y9
+	VBROADCASTSD 104(SP), Y10
+	VCVTPS2PD    (R11)(CX*2), Y11
+	VBROADCASTSD 136(SP), Y12
+	VCVTPS2PD    (R11)(DX*1), Y13
+	VBROADCASTSD 168(SP), Y14
+	VMULPD       Y7, Y8, Y7
+	VFMADD231PD  Y9, Y10, Y7
+	VMULPD       Y11, Y12, Y8
+	VFMADD231PD  Y13, Y14, Y8
+	VADDPD       Y8, Y7, Y7
+	VUNPCKLPD    Y5, Y2, Y8
+	VUNPCKHPD    Y5, Y2, Y2
+	VUNPCKLPD    Y7, Y6, Y5
+	VUNPCKHPD    Y7, Y6, Y6
+	VINSERTF128  $0x01, X5, Y8, Y7
+	VINSERTF128  $0x01, X6, Y2, Y9
+	VPERM2F128   $0x31, Y5, Y8, Y5
+	VPERM2F128   $0x31, Y6, Y2, Y2
+	VMULPD       Y7, Y3, Y3
+	VFMADD231PD  Y9, Y4, Y3
+	VMULPD       Y5, Y1, Y1
+	VFMADD231PD  Y2, Y0, Y1
+	VADDPD       Y1, Y3, Y3
+	VMOVUPD      Y3, (DI)(R10*8)
+	ADDQ         $+4, R10
+	CMPQ         R10, 464(SP)
+	JB           grid_block
+
+grid_rest:
+	CMPQ R10, side+104(FP)
+	JAE  grid_next
+
+grid_pixel:
+	VXORPD       X0, X0, X0
+	VCVTSI2SDQ   R10, X0, X0
+	VMULSD       240(SP), X0, X1
+	VADDSD       176(SP), X1, X1
+	VMOVSD       X1, 336(SP)(R8*8)
+	VMULSD       272(SP), X0, X0
+	VADDSD       208(SP), X0, X0
+	VMOVSD       X0, 368(SP)(R8*8)
+	LEAQ         (DI)(R10*8), R11
+	MOVQ         R11, 400(SP)(R8*8)
+	INCQ         R8
+	CMPQ         R8, $+4
+	JB           grid_nextpixel
+	VMOVUPD      336(SP), Y0
+	VMOVUPD      368(SP), Y1
+	VCVTTPD2DQY  Y0, X2
+	VCVTTPD2DQY  Y1, X3
+	VCVTDQ2PD    X2, Y4
+	VSUBPD       Y4, Y0, Y4
+	VCVTDQ2PD    X3, Y0
+	VSUBPD       Y0, Y1, Y0
+	VPMULLD      (SP), X3, X1
+	VPADDD       X2, X1, X1
+	VPADDD       16(SP), X1, X1
+	VMOVDQU      X1, 32(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y1
+	VSUBPD       Y0, Y1, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       Y1, Y1, Y3
+	VMULPD       cubicSixth<>+0(SB), Y3, Y5
+	VMULPD       Y1, Y5, Y5
+	VMULPD       cubicSixth<>+0(SB), Y2, Y1
+	VMULPD       Y0, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y0
+	VSUBPD       Y2, Y0, Y0
+	VMULPD       cubicThree<>+0(SB), Y1, Y2
+	VADDPD       Y2, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y5, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      Y5, 48(SP)
+	VMOVUPD      Y0, 80(SP)
+	VMOVUPD      Y2, 112(SP)
+	VMOVUPD      Y1, 144(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y0
+	VSUBPD       Y4, Y0, Y0
+	VMULPD       Y4, Y4, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       cubicSixth<>+0(SB), Y2, Y3
+	VMULPD       Y0, Y3, Y3
+	VMULPD       cubicSixth<>+0(SB), Y1, Y0
+	VMULPD       Y4, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y4
+	VSUBPD       Y1, Y4, Y4
+	VMULPD       cubicThree<>+0(SB), Y0, Y1
+	VADDPD       Y1, Y4, Y4
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y3, Y2
+	VADDPD       Y2, Y1, Y1
+	MOVLQSX      32(SP), R8
+	LEAQ         (AX)(R8*4), R8
+	VCVTPS2PD    (R8), Y2
+	VBROADCASTSD 48(SP), Y5
+	VCVTPS2PD    (R8)(CX*1), Y6
+	VBROADCASTSD 80(SP), Y7
+	VCVTPS2PD    (R8)(CX*2), Y8
+	VBROADCASTSD 112(SP), Y9
+	VCVTPS2PD    (R8)(DX*1), Y10
+	VBROADCASTSD 144(SP), Y11
+	VMULPD       Y2, Y5, Y2
+	VFMADD231PD  Y6, Y7, Y2
+	VMULPD       Y8, Y9, Y5
+	VFMADD231PD  Y10, Y11, Y5
+	VADDPD       Y5, Y2, Y2
+	MOVLQSX      36(SP), R8
+	LEAQ         (AX)(R8*4), R8
+	VCVTPS2PD    (R8), Y5
+	VBROADCASTSD 56(SP), Y6
+	VCVTPS2PD    (R8)(CX*1), Y7
+	VBROADCASTSD 88(SP), Y8
+	VCVTPS2PD    (R8)(CX*2), Y9
+	VBROADCASTSD 120(SP), Y10
+	VCVTPS2PD    (R8)(DX*1), Y11
+	VBROADCASTSD 152(SP), Y12
+	VMULPD       Y5, Y6, Y5
+	VFMADD231PD  Y7, Y8, Y5
+	VMULPD       Y9, Y10, Y6
+	VFMADD231PD  Y11, Y12, Y6
+	VADDPD       Y6, Y5, Y5
+	MOVLQSX      40(SP), R8
+	LEAQ         (AX)(R8*4), R8
+	VCVTPS2PD    (R8), Y6
+	VBROADCASTSD 64(SP), Y7
+	VCVTPS2PD    (R8)(CX*1), Y8
+	VBROADCASTSD 96(SP), Y9
+	VCVTPS2PD    (R8)(CX*2), Y10
+	VBROADCASTSD 128(SP), Y11
+	VCVTPS2PD    (R8)(DX*1), Y12
+	VBROADCASTSD 160(SP), Y13
+	VMULPD       Y6, Y7, Y6
+	VFMADD231PD  Y8, Y9, Y6
+	VMULPD       Y10, Y11, Y7
+	VFMADD231PD  Y12, Y13, Y7
+	VADDPD       Y7, Y6, Y6
+	MOVLQSX      44(SP), R8
+	LEAQ         (AX)(R8*4), R8
+	VCVTPS2PD    (R8), Y7
+	VBROADCASTSD 72(SP), Y8
+	VCVTPS2PD    (R8)(CX*1), Y9
+	VBROADCASTSD 104(SP), Y10
+	VCVTPS2PD    (R8)(CX*2), Y11
+	VBROADCASTSD 136(SP), Y12
+	VCVTPS2PD    (R8)(DX*1), Y13
+	VBROADCASTSD 168(SP), Y14
+	VMULPD       Y7, Y8, Y7
+	VFMADD231PD  Y9, Y10, Y7
+	VMULPD       Y11, Y12, Y8
+	VFMADD231PD  Y13, Y14, Y8
+	VADDPD       Y8, Y7, Y7
+	VUNPCKLPD    Y5, Y2, Y8
+	VUNPCKHPD    Y5, Y2, Y2
+	VUNPCKLPD    Y7, Y6, Y5
+	VUNPCKHPD    Y7, Y6, Y6
+	VINSERTF128  $0x01, X5, Y8, Y7
+	VINSERTF128  $0x01, X6, Y2, Y9
+	VPERM2F128   $0x31, Y5, Y8, Y5
+	VPERM2F128   $0x31, Y6, Y2, Y2
+	VMULPD       Y7, Y3, Y3
+	VFMADD231PD  Y9, Y4, Y3
+	VMULPD       Y5, Y1, Y1
+	VFMADD231PD  Y2, Y0, Y1
+	VADDPD       Y1, Y3, Y3
+	VMOVUPD      Y3, 432(SP)
+	XORQ         R8, R8
+
+grid_flush:
+	MOVQ 432(SP)(R8*8), R11
+	MOVQ 400(SP)(R8*8), R12
+	MOVQ R11, (R12)
+	INCQ R8
+	CMPQ R8, $+4
+	JB   grid_flush
+	XORQ R8, R8
+
+grid_nextpixel:
+	INCQ R10
+	CMPQ R10, side+104(FP)
+	JB   grid_pixel
+
+grid_next:
+	MOVQ side+104(FP), R11
+	LEAQ (DI)(R11*8), DI
+	INCQ R9
+	CMPQ R9, ox_len+48(FP)
+	JB   grid_row
+
+grid_final:
+	CMPQ R8, $+0
+	JE   grid_done
+	MOVQ R8, BX
+
+grid_zero:
+	MOVQ         $0x00000000, 336(SP)(BX*8)
+	MOVQ         $0x00000000, 368(SP)(BX*8)
+	INCQ         BX
+	CMPQ         BX, $+4
+	JB           grid_zero
+	VMOVUPD      336(SP), Y0
+	VMOVUPD      368(SP), Y1
+	VCVTTPD2DQY  Y0, X2
+	VCVTTPD2DQY  Y1, X3
+	VCVTDQ2PD    X2, Y4
+	VSUBPD       Y4, Y0, Y4
+	VCVTDQ2PD    X3, Y0
+	VSUBPD       Y0, Y1, Y0
+	VPMULLD      (SP), X3, X1
+	VPADDD       X2, X1, X1
+	VPADDD       16(SP), X1, X1
+	VMOVDQU      X1, 32(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y1
+	VSUBPD       Y0, Y1, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       Y1, Y1, Y3
+	VMULPD       cubicSixth<>+0(SB), Y3, Y5
+	VMULPD       Y1, Y5, Y5
+	VMULPD       cubicSixth<>+0(SB), Y2, Y1
+	VMULPD       Y0, Y1, Y1
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y0
+	VSUBPD       Y2, Y0, Y0
+	VMULPD       cubicThree<>+0(SB), Y1, Y2
+	VADDPD       Y2, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y2
+	VSUBPD       Y3, Y2, Y2
+	VMULPD       cubicThree<>+0(SB), Y5, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      Y5, 48(SP)
+	VMOVUPD      Y0, 80(SP)
+	VMOVUPD      Y2, 112(SP)
+	VMOVUPD      Y1, 144(SP)
+	VMOVUPD      cubicOne<>+0(SB), Y0
+	VSUBPD       Y4, Y0, Y0
+	VMULPD       Y4, Y4, Y1
+	VMULPD       Y0, Y0, Y2
+	VMULPD       cubicSixth<>+0(SB), Y2, Y3
+	VMULPD       Y0, Y3, Y3
+	VMULPD       cubicSixth<>+0(SB), Y1, Y0
+	VMULPD       Y4, Y0, Y0
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y4
+	VSUBPD       Y1, Y4, Y4
+	VMULPD       cubicThree<>+0(SB), Y0, Y1
+	VADDPD       Y1, Y4, Y4
+	VMOVUPD      cubicTwoThirds<>+0(SB), Y1
+	VSUBPD       Y2, Y1, Y1
+	VMULPD       cubicThree<>+0(SB), Y3, Y2
+	VADDPD       Y2, Y1, Y1
+	MOVLQSX      32(SP), BX
+	LEAQ         (AX)(BX*4), BX
+	VCVTPS2PD    (BX), Y2
+	VBROADCASTSD 48(SP), Y5
+	VCVTPS2PD    (BX)(CX*1), Y6
+	VBROADCASTSD 80(SP), Y7
+	VCVTPS2PD    (BX)(CX*2), Y8
+	VBROADCASTSD 112(SP), Y9
+	VCVTPS2PD    (BX)(DX*1), Y10
+	VBROADCASTSD 144(SP), Y11
+	VMULPD       Y2, Y5, Y2
+	VFMADD231PD  Y6, Y7, Y2
+	VMULPD       Y8, Y9, Y5
+	VFMADD231PD  Y10, Y11, Y5
+	VADDPD       Y5, Y2, Y2
+	MOVLQSX      36(SP), BX
+	LEAQ         (AX)(BX*4), BX
+	VCVTPS2PD    (BX), Y5
+	VBROADCASTSD 56(SP), Y6
+	VCVTPS2PD    (BX)(CX*1), Y7
+	VBROADCASTSD 88(SP), Y8
+	VCVTPS2PD    (BX)(CX*2), Y9
+	VBROADCASTSD 120(SP), Y10
+	VCVTPS2PD    (BX)(DX*1), Y11
+	VBROADCASTSD 152(SP), Y12
+	VMULPD       Y5, Y6, Y5
+	VFMADD231PD  Y7, Y8, Y5
+	VMULPD       Y9, Y10, Y6
+	VFMADD231PD  Y11, Y12, Y6
+	VADDPD       Y6, Y5, Y5
+	MOVLQSX      40(SP), BX
+	LEAQ         (AX)(BX*4), BX
+	VCVTPS2PD    (BX), Y6
+	VBROADCASTSD 64(SP), Y7
+	VCVTPS2PD    (BX)(CX*1), Y8
+	VBROADCASTSD 96(SP), Y9
+	VCVTPS2PD    (BX)(CX*2), Y10
+	VBROADCASTSD 128(SP), Y11
+	VCVTPS2PD    (BX)(DX*1), Y12
+	VBROADCASTSD 160(SP), Y13
+	VMULPD       Y6, Y7, Y6
+	VFMADD231PD  Y8, Y9, Y6
+	VMULPD       Y10, Y11, Y7
+	VFMADD231PD  Y12, Y13, Y7
+	VADDPD       Y7, Y6, Y6
+	MOVLQSX      44(SP), BX
+	LEAQ         (AX)(BX*4), AX
+	VCVTPS2PD    (AX), Y7
+	VBROADCASTSD 72(SP), Y8
+	VCVTPS2PD    (AX)(CX*1), Y9
+	VBROADCASTSD 104(SP), Y10
+	VCVTPS2PD    (AX)(CX*2), Y11
+	VBROADCASTSD 136(SP), Y12
+	VCVTPS2PD    (AX)(DX*1), Y13
+	VBROADCASTSD 168(SP), Y14
+	VMULPD       Y7, Y8, Y7
+	VFMADD231PD  Y9, Y10, Y7
+	VMULPD       Y11, Y12, Y8
+	VFMADD231PD  Y13, Y14, Y8
+	VADDPD       Y8, Y7, Y7
+	VUNPCKLPD    Y5, Y2, Y8
+	VUNPCKHPD    Y5, Y2, Y2
+	VUNPCKLPD    Y7, Y6, Y5
+	VUNPCKHPD    Y7, Y6, Y6
+	VINSERTF128  $0x01, X5, Y8, Y7
+	VINSERTF128  $0x01, X6, Y2, Y9
+	VPERM2F128   $0x31, Y5, Y8, Y5
+	VPERM2F128   $0x31, Y6, Y2, Y2
+	VMULPD       Y7, Y3, Y3
+	VFMADD231PD  Y9, Y4, Y3
+	VMULPD       Y5, Y1, Y1
+	VFMADD231PD  Y2, Y0, Y1
+	VADDPD       Y1, Y3, Y3
+	VMOVUPD      Y3, 432(SP)
+	XORQ         AX, AX
+
+grid_lastflush:
+	MOVQ 432(SP)(AX*8), CX
+	MOVQ 400(SP)(AX*8), DX
+	MOVQ CX, (DX)
+	INCQ AX
+	CMPQ AX, R8
+	JB   grid_lastflush
+
+grid_done:
+	VZEROUPPER
+	RET

@@ -298,8 +298,10 @@ func TestCubicVectorMatchesGo(t *testing.T) {
 
 // BenchmarkCubicValues times the cubic interpolant at the 441 positions
 // of a 21 px subset under an affine warp, by values (positions in memory,
-// the Quadratic order's path) and by lineValues (positions formed along
-// each row, the Affine order's), on each path.
+// the Quadratic order's path), by lineValues row by row (a masked
+// subset's, Affine order) and by the whole-subset kernel (a full
+// subset's, Affine order; on the Go path lineValues row by row), on each
+// path.
 func BenchmarkCubicValues(b *testing.B) {
 	const side = 21
 	sp := NewSpline(testPattern(64).render(96, 96, nil), Bicubic)
@@ -310,11 +312,26 @@ func BenchmarkCubicValues(b *testing.B) {
 			xs[j*side+i], ys[j*side+i] = 40.3+float64(i)*ax-0.001*float64(j), 30.6+float64(i)*ay+1.002*float64(j)
 		}
 	}
+	ox, oy := make([]float64, side), make([]float64, side)
+	for j := range side {
+		ox[j], oy[j] = xs[j*side], ys[j*side]
+	}
+	goGrid := func(ox, oy []float64, ax, ay float64, side int, out []float64) {
+		for r := range ox {
+			sp.cubicLineGo(ox[r], oy[r], ax, ay, 0, out[r*side:(r+1)*side])
+		}
+	}
 	for _, path := range []struct {
 		name   string
 		values func(xs, ys, out []float64)
 		line   func(x0, y0, ax, ay float64, i0 int, out []float64)
-	}{{"go", sp.cubicValuesGo, sp.cubicLineGo}, {"vector", sp.cubicValuesVector, sp.cubicLineVector}} {
+		grid   func(ox, oy []float64, ax, ay float64, side int, out []float64)
+	}{{"go", sp.cubicValuesGo, sp.cubicLineGo, goGrid}, {"vector", sp.cubicValuesVector, sp.cubicLineVector, sp.cubicGridVector}} {
+		b.Run("grid/"+path.name, func(b *testing.B) {
+			for b.Loop() {
+				path.grid(ox, oy, ax, ay, side, out)
+			}
+		})
 		b.Run("values/"+path.name, func(b *testing.B) {
 			for b.Loop() {
 				path.values(xs, ys, out)
@@ -327,5 +344,37 @@ func BenchmarkCubicValues(b *testing.B) {
 				}
 			}
 		})
+	}
+}
+
+// TestCubicGridEqualsLines checks that the whole-subset kernel gives the
+// values of the row kernel over each row bit for bit, for sides 1 … 9 and
+// 21 (every row length mod 4, so that the positions left over at the rows'
+// ends gather into blocks in every pattern) and, on the Go path, the
+// values of cubicLineGo.
+func TestCubicGridEqualsLines(t *testing.T) {
+	rng := rand.New(rand.NewPCG(65, 65))
+	sp := NewSpline(randomImage(rng, 60, 50), Bicubic)
+	const ax, ay = 0.987, -0.013
+	for _, side := range []int{1, 2, 3, 4, 5, 6, 7, 8, 9, 21} {
+		ox, oy := make([]float64, side), make([]float64, side)
+		for r := range ox {
+			ox[r], oy[r] = 5.3+0.011*float64(r), 7.9+1.004*float64(r)
+		}
+		want := make([]float64, side*side)
+		for r := range ox {
+			sp.cubicLineVector(ox[r], oy[r], ax, ay, 0, want[r*side:(r+1)*side])
+		}
+		got := make([]float64, side*side+1)
+		got[side*side] = 12345
+		sp.cubicGridVector(ox, oy, ax, ay, side, got[:side*side])
+		for k := range want {
+			if got[k] != want[k] {
+				t.Errorf("side %d: value %d %.17g, row kernel %.17g", side, k, got[k], want[k])
+			}
+		}
+		if got[side*side] != 12345 {
+			t.Errorf("side %d: the value past the end was overwritten with %g", side, got[side*side])
+		}
 	}
 }

@@ -5,6 +5,7 @@ import (
 	"math"
 
 	. "github.com/mmcloughlin/avo/build"
+	"github.com/mmcloughlin/avo/gotypes"
 	. "github.com/mmcloughlin/avo/operand"
 	. "github.com/mmcloughlin/avo/reg"
 )
@@ -310,20 +311,165 @@ func cubicKernels(ct coefType) {
 	VADDPD(c.lane, t, t)
 	VMOVUPD(t, line.Offset(4*32))
 	blockLoop("line", a, func(k Register, mask Op) (x, y VecVirtual) {
-		t := YMM()
-		VMOVUPD(line.Offset(4*32), t)
-		x, y = YMM(), YMM()
-		VMULPD(line.Offset(2*32), t, x)
-		VADDPD(line.Offset(0), x, x)
-		VMULPD(line.Offset(3*32), t, y)
-		VADDPD(line.Offset(32), y, y)
-		if mask == nil {
-			VADDPD(c.four, t, t)
-			VMOVUPD(t, line.Offset(4*32))
-		} else {
-			VANDPD(mask, x, x)
-			VANDPD(mask, y, y)
-		}
-		return x, y
+		return linePositions(line, c, mask)
 	})
+
+	cubicGrid(ct, c)
+}
+
+// paramAddr returns the stack address of a basic argument, for use as a
+// memory operand instead of a register.
+func paramAddr(c gotypes.Component) Mem {
+	b, err := c.Resolve()
+	if err != nil {
+		panic(err)
+	}
+	return b.Addr
+}
+
+// cubicGrid generates cubicGridAVX2: the values of the full square subset
+// under an affine warp in one call, row after row, as cubicLineAVX2 would
+// give them row by row. The positions past a row's last whole block wait
+// on the stack, with where their values go, until four have gathered and
+// take a block of their own: every block is full but the last.
+func cubicGrid(ct coefType, c cubicConsts) {
+	TEXT("cubicGridAVX2", NOSPLIT, fmt.Sprintf("func(coef []%s, stride, origin int, ox, oy []float64, ax, ay float64, side int, out []float64)", ct.goType))
+	Pragma("noescape")
+	Doc("cubicGridAVX2 sets out[r·side + k] to the cubic interpolant of coef",
+		"(see cubicValuesAVX2) at (ox[r] + t·ax, oy[r] + t·ay), t = k, for",
+		"every row r < len(ox) and k < side: cubicLineAVX2 over each row, bit",
+		"for bit. out holds len(ox)·side values.")
+	a := loadCubicArgs(ct, c)
+	line := AllocLocal(5 * 32) // x0, y0, ax, ay of the row, t of the block
+	for i, name := range []string{"ax", "ay"} {
+		v, b := Load(Param(name), XMM()), YMM()
+		VBROADCASTSD(v, b)
+		VMOVUPD(b, line.Offset(32*(2+i)))
+	}
+	waiting := AllocLocal(3 * 32) // x, y and the destination of up to four positions
+	last := AllocLocal(32)
+	wx, wy, wdst := waiting, waiting.Offset(32), waiting.Offset(64)
+	flush := func(name string, count Op) {
+		x, y := YMM(), YMM()
+		VMOVUPD(wx, x)
+		VMOVUPD(wy, y)
+		VMOVUPD(a.block(x, y), last)
+		j, v, p := GP64(), GP64(), GP64()
+		XORQ(j, j)
+		Label(name)
+		MOVQ(last.Idx(j, 8), v)
+		MOVQ(wdst.Idx(j, 8), p)
+		MOVQ(v, Mem{Base: p})
+		INCQ(j)
+		CMPQ(j, count)
+		JB(LabelRef(name))
+	}
+
+	ox := Load(Param("ox").Base(), GP64())
+	oy := Load(Param("oy").Base(), GP64())
+	rows := paramAddr(Param("ox").Len())
+	side := paramAddr(Param("side"))
+	dst := Load(Param("out").Base(), GP64())
+	full := AllocLocal(8) // side rounded down to whole blocks
+	fr := GP64()
+	MOVQ(side, fr)
+	ANDQ(I32(-4), fr)
+	MOVQ(fr, full)
+	cnt, r := GP64(), GP64()
+	XORQ(cnt, cnt)
+	XORQ(r, r)
+	CMPQ(rows, I32(0))
+	JE(LabelRef("grid_final"))
+
+	Label("grid_row")
+	for i, base := range []Register{ox, oy} {
+		b := YMM()
+		VBROADCASTSD(Mem{Base: base, Index: r, Scale: 8}, b)
+		VMOVUPD(b, line.Offset(32*i))
+	}
+	t := YMM()
+	VMOVUPD(c.lane, t)
+	VMOVUPD(t, line.Offset(4*32))
+	k := GP64()
+	XORQ(k, k)
+	CMPQ(full, I32(0))
+	JE(LabelRef("grid_rest"))
+	Label("grid_block")
+	x, y := linePositions(line, c, nil)
+	VMOVUPD(a.block(x, y), Mem{Base: dst, Index: k, Scale: 8})
+	ADDQ(I32(4), k)
+	CMPQ(k, full)
+	JB(LabelRef("grid_block"))
+
+	Label("grid_rest")
+	CMPQ(k, side)
+	JAE(LabelRef("grid_next"))
+	Label("grid_pixel")
+	ts, px, py := XMM(), XMM(), XMM()
+	VXORPD(ts, ts, ts)
+	VCVTSI2SDQ(k, ts, ts)
+	VMULSD(line.Offset(2*32), ts, px)
+	VADDSD(line.Offset(0), px, px)
+	VMOVSD(px, wx.Idx(cnt, 8))
+	VMULSD(line.Offset(3*32), ts, py)
+	VADDSD(line.Offset(32), py, py)
+	VMOVSD(py, wy.Idx(cnt, 8))
+	p := GP64()
+	LEAQ(Mem{Base: dst, Index: k, Scale: 8}, p)
+	MOVQ(p, wdst.Idx(cnt, 8))
+	INCQ(cnt)
+	CMPQ(cnt, I32(4))
+	JB(LabelRef("grid_nextpixel"))
+	flush("grid_flush", I32(4))
+	XORQ(cnt, cnt)
+	Label("grid_nextpixel")
+	INCQ(k)
+	CMPQ(k, side)
+	JB(LabelRef("grid_pixel"))
+
+	Label("grid_next")
+	MOVQ(side, p)
+	LEAQ(Mem{Base: dst, Index: p, Scale: 8}, dst)
+	INCQ(r)
+	CMPQ(r, rows)
+	JB(LabelRef("grid_row"))
+
+	Label("grid_final")
+	CMPQ(cnt, I32(0))
+	JE(LabelRef("grid_done"))
+	// The unused lanes at (0, 0), inside any image.
+	j := GP64()
+	MOVQ(cnt, j)
+	Label("grid_zero")
+	MOVQ(U32(0), wx.Idx(j, 8))
+	MOVQ(U32(0), wy.Idx(j, 8))
+	INCQ(j)
+	CMPQ(j, I32(4))
+	JB(LabelRef("grid_zero"))
+	flush("grid_lastflush", cnt)
+	Label("grid_done")
+	VZEROUPPER()
+	RET()
+}
+
+// linePositions returns the positions (x0 + t·ax, y0 + t·ay) of the
+// block's four lanes from line (x0, y0, ax, ay, t, each broadcast), and
+// advances t by four for a whole block (mask nil), else sets the lanes
+// outside mask to (0, 0).
+func linePositions(line Mem, c cubicConsts, mask Op) (x, y VecVirtual) {
+	t := YMM()
+	VMOVUPD(line.Offset(4*32), t)
+	x, y = YMM(), YMM()
+	VMULPD(line.Offset(2*32), t, x)
+	VADDPD(line.Offset(0), x, x)
+	VMULPD(line.Offset(3*32), t, y)
+	VADDPD(line.Offset(32), y, y)
+	if mask == nil {
+		VADDPD(c.four, t, t)
+		VMOVUPD(t, line.Offset(4*32))
+	} else {
+		VANDPD(mask, x, x)
+		VANDPD(mask, y, y)
+	}
+	return x, y
 }
