@@ -29,6 +29,10 @@ func centreScratch(side int) int { return side + 4 }
 // combined along y (kernel and derivative), then along x. colV and colD
 // are scratch of at least centreScratch(side) values.
 func (sp *Spline) centres(x0, y0, side int, v, gx, gy, colV, colD []float64) {
+	if sp.kind == Bicubic && useVector {
+		sp.cubicCentresVector(x0, y0, side, v, gx, gy)
+		return
+	}
 	if sp.kind == Bicubic {
 		sp.cubicCentres(x0, y0, side, v, gx, gy)
 		return

@@ -74,3 +74,18 @@ func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, ou
 	oy, out = oy[:len(ox)], out[:len(ox)*side]
 	cubicGridAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, ox, oy, ax, ay, side, out)
 }
+
+// cubicCentresVector is cubicCentres by cubicCentresAVX2, equal to it bit
+// for bit (the same operations in the same order, without FMA).
+func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
+	if side < 1 {
+		return
+	}
+	s := sp.stride
+	top := (y0-1+splinePad)*s + x0 - 1 + splinePad
+	// The window's last coefficient, checked here once: the kernel reads
+	// the coefficients unchecked.
+	_ = sp.coef[top+(side+1)*s+side+1]
+	v, gx, gy = v[:side*side], gx[:side*side], gy[:side*side]
+	cubicCentresAVX2(sp.coef, s, top, side, v, gx, gy)
+}

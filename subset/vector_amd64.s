@@ -1504,3 +1504,161 @@ grid_lastflush:
 grid_done:
 	VZEROUPPER
 	RET
+
+DATA centresSixth<>+0(SB)/8, $0x3fc5555555555555
+DATA centresSixth<>+8(SB)/8, $0x3fc5555555555555
+DATA centresSixth<>+16(SB)/8, $0x3fc5555555555555
+DATA centresSixth<>+24(SB)/8, $0x3fc5555555555555
+GLOBL centresSixth<>(SB), RODATA|NOPTR, $32
+
+DATA centresTwoThirds<>+0(SB)/8, $0x3fe5555555555555
+DATA centresTwoThirds<>+8(SB)/8, $0x3fe5555555555555
+DATA centresTwoThirds<>+16(SB)/8, $0x3fe5555555555555
+DATA centresTwoThirds<>+24(SB)/8, $0x3fe5555555555555
+GLOBL centresTwoThirds<>(SB), RODATA|NOPTR, $32
+
+DATA centresHalf<>+0(SB)/8, $0x3fe0000000000000
+DATA centresHalf<>+8(SB)/8, $0x3fe0000000000000
+DATA centresHalf<>+16(SB)/8, $0x3fe0000000000000
+DATA centresHalf<>+24(SB)/8, $0x3fe0000000000000
+GLOBL centresHalf<>(SB), RODATA|NOPTR, $32
+
+// func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
+// Requires: AVX
+TEXT ·cubicCentresAVX2(SB), NOSPLIT, $0-120
+	MOVQ coef_base+0(FP), AX
+	MOVQ stride+24(FP), CX
+	MOVQ top+32(FP), DX
+	MOVQ side+40(FP), BX
+	MOVQ v_base+48(FP), SI
+	MOVQ gx_base+72(FP), DI
+	MOVQ gy_base+96(FP), R8
+	LEAQ (AX)(DX*4), AX
+	SHLQ $0x02, CX
+	MOVQ BX, DX
+	ANDQ $-4, DX
+	MOVQ BX, R9
+	CMPQ R9, $+0
+	JE   centres_done
+
+centres_row:
+	LEAQ (AX)(CX*1), R10
+	LEAQ (AX)(CX*2), R11
+	XORQ R12, R12
+	CMPQ DX, $+0
+	JE   centres_rest
+
+centres_block:
+	VCVTPS2PD (AX)(R12*4), Y0
+	VCVTPS2PD (R10)(R12*4), Y1
+	VCVTPS2PD (R11)(R12*4), Y2
+	VADDPD    Y2, Y0, Y3
+	VMULPD    centresSixth<>+0(SB), Y3, Y3
+	VMULPD    centresTwoThirds<>+0(SB), Y1, Y1
+	VADDPD    Y1, Y3, Y3
+	VSUBPD    Y0, Y2, Y0
+	VMULPD    centresHalf<>+0(SB), Y0, Y0
+	VCVTPS2PD 4(AX)(R12*4), Y1
+	VCVTPS2PD 4(R10)(R12*4), Y2
+	VCVTPS2PD 4(R11)(R12*4), Y4
+	VADDPD    Y4, Y1, Y5
+	VMULPD    centresSixth<>+0(SB), Y5, Y5
+	VMULPD    centresTwoThirds<>+0(SB), Y2, Y2
+	VADDPD    Y2, Y5, Y5
+	VSUBPD    Y1, Y4, Y1
+	VMULPD    centresHalf<>+0(SB), Y1, Y1
+	VCVTPS2PD 8(AX)(R12*4), Y2
+	VCVTPS2PD 8(R10)(R12*4), Y4
+	VCVTPS2PD 8(R11)(R12*4), Y6
+	VADDPD    Y6, Y2, Y7
+	VMULPD    centresSixth<>+0(SB), Y7, Y7
+	VMULPD    centresTwoThirds<>+0(SB), Y4, Y4
+	VADDPD    Y4, Y7, Y7
+	VSUBPD    Y2, Y6, Y2
+	VMULPD    centresHalf<>+0(SB), Y2, Y2
+	VADDPD    Y7, Y3, Y4
+	VMULPD    centresSixth<>+0(SB), Y4, Y4
+	VMULPD    centresTwoThirds<>+0(SB), Y5, Y5
+	VADDPD    Y5, Y4, Y4
+	VMOVUPD   Y4, (SI)(R12*8)
+	VSUBPD    Y3, Y7, Y3
+	VMULPD    centresHalf<>+0(SB), Y3, Y3
+	VMOVUPD   Y3, (DI)(R12*8)
+	VADDPD    Y2, Y0, Y0
+	VMULPD    centresSixth<>+0(SB), Y0, Y0
+	VMULPD    centresTwoThirds<>+0(SB), Y1, Y1
+	VADDPD    Y1, Y0, Y0
+	VMOVUPD   Y0, (R8)(R12*8)
+	ADDQ      $+4, R12
+	CMPQ      R12, DX
+	JB        centres_block
+
+centres_rest:
+	CMPQ R12, BX
+	JAE  centres_next
+
+centres_pixel:
+	VXORPD    X0, X0, X0
+	VCVTSS2SD (AX)(R12*4), X0, X0
+	VXORPD    X1, X1, X1
+	VCVTSS2SD (R10)(R12*4), X1, X1
+	VXORPD    X2, X2, X2
+	VCVTSS2SD (R11)(R12*4), X2, X2
+	VADDSD    X2, X0, X3
+	VMULSD    centresSixth<>+0(SB), X3, X3
+	VMULSD    centresTwoThirds<>+0(SB), X1, X1
+	VADDSD    X1, X3, X3
+	VSUBSD    X0, X2, X0
+	VMULSD    centresHalf<>+0(SB), X0, X0
+	VXORPD    X1, X1, X1
+	VCVTSS2SD 4(AX)(R12*4), X1, X1
+	VXORPD    X2, X2, X2
+	VCVTSS2SD 4(R10)(R12*4), X2, X2
+	VXORPD    X4, X4, X4
+	VCVTSS2SD 4(R11)(R12*4), X4, X4
+	VADDSD    X4, X1, X5
+	VMULSD    centresSixth<>+0(SB), X5, X5
+	VMULSD    centresTwoThirds<>+0(SB), X2, X2
+	VADDSD    X2, X5, X5
+	VSUBSD    X1, X4, X1
+	VMULSD    centresHalf<>+0(SB), X1, X1
+	VXORPD    X2, X2, X2
+	VCVTSS2SD 8(AX)(R12*4), X2, X2
+	VXORPD    X4, X4, X4
+	VCVTSS2SD 8(R10)(R12*4), X4, X4
+	VXORPD    X6, X6, X6
+	VCVTSS2SD 8(R11)(R12*4), X6, X6
+	VADDSD    X6, X2, X7
+	VMULSD    centresSixth<>+0(SB), X7, X7
+	VMULSD    centresTwoThirds<>+0(SB), X4, X4
+	VADDSD    X4, X7, X7
+	VSUBSD    X2, X6, X2
+	VMULSD    centresHalf<>+0(SB), X2, X2
+	VADDSD    X7, X3, X4
+	VMULSD    centresSixth<>+0(SB), X4, X4
+	VMULSD    centresTwoThirds<>+0(SB), X5, X5
+	VADDSD    X5, X4, X4
+	VMOVSD    X4, (SI)(R12*8)
+	VSUBSD    X3, X7, X3
+	VMULSD    centresHalf<>+0(SB), X3, X3
+	VMOVSD    X3, (DI)(R12*8)
+	VADDSD    X2, X0, X0
+	VMULSD    centresSixth<>+0(SB), X0, X0
+	VMULSD    centresTwoThirds<>+0(SB), X1, X1
+	VADDSD    X1, X0, X0
+	VMOVSD    X0, (R8)(R12*8)
+	INCQ      R12
+	CMPQ      R12, BX
+	JB        centres_pixel
+
+centres_next:
+	ADDQ CX, AX
+	LEAQ (SI)(BX*8), SI
+	LEAQ (DI)(BX*8), DI
+	LEAQ (R8)(BX*8), R8
+	DECQ R9
+	JNZ  centres_row
+
+centres_done:
+	VZEROUPPER
+	RET

@@ -31,3 +31,8 @@ func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, ou
 		sp.cubicLineGo(ox[r], oy[r], ax, ay, 0, out[r*side:(r+1)*side])
 	}
 }
+
+// cubicCentresVector is cubicCentres where there is no vector kernel.
+func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
+	sp.cubicCentres(x0, y0, side, v, gx, gy)
+}

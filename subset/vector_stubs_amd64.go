@@ -39,3 +39,12 @@ func cubicLineAVX2(coef []float32, stride int, origin int, x0 float64, y0 float6
 //
 //go:noescape
 func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, side int, out []float64)
+
+// cubicCentresAVX2 sets v, gx and gy (row-major, side×side) to the cubic
+// interpolant and its gradient at the pixel centres of a window, top
+// being the offset in coef (rows stride apart) of the coefficient up
+// and left of its first pixel, as cubicCentres does, bit for bit. The
+// window must lie inside the image and v, gx, gy hold side² values.
+//
+//go:noescape
+func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)

@@ -14,5 +14,6 @@ func main() {
 	ConstraintExpr("!purego")
 	deformedSums()
 	cubicKernels(float32Coef)
+	cubicCentresKernel()
 	Generate()
 }

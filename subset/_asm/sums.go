@@ -48,24 +48,27 @@ type lanes struct {
 	load          func(m Mem, r Op)
 	sub, add, mul func(a, b, dst Op) // dst = a − b, a + b, a·b
 	fma           func(a, b, acc Op) // acc += a·b
+	store         func(r Op, m Mem)
 }
 
 var vector = lanes{
 	width: 4, reg: YMM,
-	load: func(m Mem, r Op) { VMOVUPD(m, r) },
-	sub:  func(a, b, d Op) { VSUBPD(b, a, d) },
-	add:  func(a, b, d Op) { VADDPD(b, a, d) },
-	mul:  func(a, b, d Op) { VMULPD(b, a, d) },
-	fma:  func(a, b, acc Op) { VFMADD231PD(b, a, acc) },
+	load:  func(m Mem, r Op) { VMOVUPD(m, r) },
+	sub:   func(a, b, d Op) { VSUBPD(b, a, d) },
+	add:   func(a, b, d Op) { VADDPD(b, a, d) },
+	mul:   func(a, b, d Op) { VMULPD(b, a, d) },
+	fma:   func(a, b, acc Op) { VFMADD231PD(b, a, acc) },
+	store: func(r Op, m Mem) { VMOVUPD(r, m) },
 }
 
 var scalar = lanes{
 	width: 1, reg: XMM,
-	load: func(m Mem, r Op) { VMOVSD(m, r) },
-	sub:  func(a, b, d Op) { VSUBSD(b, a, d) },
-	add:  func(a, b, d Op) { VADDSD(b, a, d) },
-	mul:  func(a, b, d Op) { VMULSD(b, a, d) },
-	fma:  func(a, b, acc Op) { VFMADD231SD(b, a, acc) },
+	load:  func(m Mem, r Op) { VMOVSD(m, r) },
+	sub:   func(a, b, d Op) { VSUBSD(b, a, d) },
+	add:   func(a, b, d Op) { VADDSD(b, a, d) },
+	mul:   func(a, b, d Op) { VMULSD(b, a, d) },
+	fma:   func(a, b, acc Op) { VFMADD231SD(b, a, acc) },
+	store: func(r Op, m Mem) { VMOVSD(r, m) },
 }
 
 // sumLoop runs body over the n pixels: in vectors of four while four
