@@ -89,3 +89,27 @@ func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
 	v, gx, gy = v[:side*side], gx[:side*side], gy[:side*side]
 	cubicCentresAVX2(sp.coef, s, top, side, v, gx, gy)
 }
+
+// affineMomentsVector is affineMomentsGo by affineMomentsAVX2, over all
+// valid pixels at once with their own offsets (see affineSumsVector):
+// equal to rounding.
+func (s *Solver) affineMomentsVector(m *gradMoments) {
+	n := s.n
+	var o [30]float64
+	affineMomentsAVX2(s.gx[:n], s.gy[:n], s.fc[:n], s.dx[:n], s.dy[:n], &o)
+	for k := range m.q {
+		r, q := o[6*k:6*k+6], &m.q[k]
+		q[0][0] += r[0]
+		q[1][0] += r[1]
+		q[2][0] += r[2]
+		q[0][1] += r[3]
+		q[1][1] += r[4]
+		q[0][2] += r[5]
+	}
+	for k := range m.h {
+		r, h := o[18+3*k:21+3*k], &m.h[k]
+		h[0][0] += r[0]
+		h[1][0] += r[1]
+		h[0][1] += r[2]
+	}
+}

@@ -1662,3 +1662,402 @@ centres_next:
 centres_done:
 	VZEROUPPER
 	RET
+
+// func affineMomentsAVX2(gx []float64, gy []float64, fc []float64, dx []float64, dy []float64, out *[30]float64)
+// Requires: AVX, FMA3
+TEXT ·affineMomentsAVX2(SB), NOSPLIT, $0-128
+	MOVQ   gx_base+0(FP), AX
+	MOVQ   gy_base+24(FP), CX
+	MOVQ   fc_base+48(FP), DX
+	MOVQ   dx_base+72(FP), BX
+	MOVQ   dy_base+96(FP), SI
+	MOVQ   gx_len+8(FP), DI
+	MOVQ   out+120(FP), R8
+	VXORPD Y0, Y0, Y0
+	VXORPD Y1, Y1, Y1
+	VXORPD Y2, Y2, Y2
+	VXORPD Y3, Y3, Y3
+	VXORPD Y4, Y4, Y4
+	VXORPD Y5, Y5, Y5
+	VXORPD Y6, Y6, Y6
+	VXORPD Y7, Y7, Y7
+	VXORPD Y8, Y8, Y8
+	XORQ   R9, R9
+	MOVQ   DI, R10
+	ANDQ   $-4, R10
+	CMPQ   R10, $+0
+	JE     sweep0_reduce
+
+sweep0_vector:
+	VMOVUPD     (AX)(R9*8), Y9
+	VMOVUPD     (CX)(R9*8), Y10
+	VMOVUPD     (DX)(R9*8), Y10
+	VMOVUPD     (BX)(R9*8), Y10
+	VMOVUPD     (SI)(R9*8), Y11
+	VMULPD      Y9, Y9, Y12
+	VADDPD      Y12, Y0, Y0
+	VMULPD      Y10, Y12, Y13
+	VMULPD      Y11, Y12, Y12
+	VADDPD      Y13, Y1, Y1
+	VFMADD231PD Y10, Y13, Y2
+	VADDPD      Y12, Y3, Y3
+	VFMADD231PD Y11, Y13, Y4
+	VFMADD231PD Y11, Y12, Y5
+	VADDPD      Y9, Y6, Y6
+	VFMADD231PD Y10, Y9, Y7
+	VFMADD231PD Y11, Y9, Y8
+	ADDQ        $+4, R9
+	CMPQ        R9, R10
+	JB          sweep0_vector
+
+sweep0_reduce:
+	VEXTRACTF128 $0x01, Y0, X9
+	VADDPD       X9, X0, X0
+	VUNPCKHPD    X0, X0, X9
+	VADDSD       X9, X0, X0
+	VEXTRACTF128 $0x01, Y1, X9
+	VADDPD       X9, X1, X1
+	VUNPCKHPD    X1, X1, X9
+	VADDSD       X9, X1, X1
+	VEXTRACTF128 $0x01, Y2, X9
+	VADDPD       X9, X2, X2
+	VUNPCKHPD    X2, X2, X9
+	VADDSD       X9, X2, X2
+	VEXTRACTF128 $0x01, Y3, X9
+	VADDPD       X9, X3, X3
+	VUNPCKHPD    X3, X3, X9
+	VADDSD       X9, X3, X3
+	VEXTRACTF128 $0x01, Y4, X9
+	VADDPD       X9, X4, X4
+	VUNPCKHPD    X4, X4, X9
+	VADDSD       X9, X4, X4
+	VEXTRACTF128 $0x01, Y5, X9
+	VADDPD       X9, X5, X5
+	VUNPCKHPD    X5, X5, X9
+	VADDSD       X9, X5, X5
+	VEXTRACTF128 $0x01, Y6, X9
+	VADDPD       X9, X6, X6
+	VUNPCKHPD    X6, X6, X9
+	VADDSD       X9, X6, X6
+	VEXTRACTF128 $0x01, Y7, X9
+	VADDPD       X9, X7, X7
+	VUNPCKHPD    X7, X7, X9
+	VADDSD       X9, X7, X7
+	VEXTRACTF128 $0x01, Y8, X9
+	VADDPD       X9, X8, X8
+	VUNPCKHPD    X8, X8, X9
+	VADDSD       X9, X8, X8
+	CMPQ         R9, DI
+	JAE          sweep0_done
+
+sweep0_scalar:
+	VMOVSD      (AX)(R9*8), X9
+	VMOVSD      (CX)(R9*8), X10
+	VMOVSD      (DX)(R9*8), X10
+	VMOVSD      (BX)(R9*8), X10
+	VMOVSD      (SI)(R9*8), X11
+	VMULSD      X9, X9, X12
+	VADDSD      X12, X0, X0
+	VMULSD      X10, X12, X13
+	VMULSD      X11, X12, X12
+	VADDSD      X13, X1, X1
+	VFMADD231SD X10, X13, X2
+	VADDSD      X12, X3, X3
+	VFMADD231SD X11, X13, X4
+	VFMADD231SD X11, X12, X5
+	VADDSD      X9, X6, X6
+	VFMADD231SD X10, X9, X7
+	VFMADD231SD X11, X9, X8
+	INCQ        R9
+	CMPQ        R9, DI
+	JB          sweep0_scalar
+
+sweep0_done:
+	VMOVSD X0, (R8)
+	VMOVSD X1, 8(R8)
+	VMOVSD X2, 16(R8)
+	VMOVSD X3, 24(R8)
+	VMOVSD X4, 32(R8)
+	VMOVSD X5, 40(R8)
+	VMOVSD X6, 144(R8)
+	VMOVSD X7, 152(R8)
+	VMOVSD X8, 160(R8)
+	VXORPD Y0, Y0, Y0
+	VXORPD Y1, Y1, Y1
+	VXORPD Y2, Y2, Y2
+	VXORPD Y3, Y3, Y3
+	VXORPD Y4, Y4, Y4
+	VXORPD Y5, Y5, Y5
+	VXORPD Y6, Y6, Y6
+	VXORPD Y7, Y7, Y7
+	VXORPD Y8, Y8, Y8
+	XORQ   R9, R9
+	MOVQ   DI, R10
+	ANDQ   $-4, R10
+	CMPQ   R10, $+0
+	JE     sweep1_reduce
+
+sweep1_vector:
+	VMOVUPD     (AX)(R9*8), Y9
+	VMOVUPD     (CX)(R9*8), Y10
+	VMOVUPD     (DX)(R9*8), Y11
+	VMOVUPD     (BX)(R9*8), Y11
+	VMOVUPD     (SI)(R9*8), Y12
+	VMULPD      Y10, Y9, Y9
+	VADDPD      Y9, Y0, Y0
+	VMULPD      Y11, Y9, Y13
+	VMULPD      Y12, Y9, Y9
+	VADDPD      Y13, Y1, Y1
+	VFMADD231PD Y11, Y13, Y2
+	VADDPD      Y9, Y3, Y3
+	VFMADD231PD Y12, Y13, Y4
+	VFMADD231PD Y12, Y9, Y5
+	VADDPD      Y10, Y6, Y6
+	VFMADD231PD Y11, Y10, Y7
+	VFMADD231PD Y12, Y10, Y8
+	ADDQ        $+4, R9
+	CMPQ        R9, R10
+	JB          sweep1_vector
+
+sweep1_reduce:
+	VEXTRACTF128 $0x01, Y0, X9
+	VADDPD       X9, X0, X0
+	VUNPCKHPD    X0, X0, X9
+	VADDSD       X9, X0, X0
+	VEXTRACTF128 $0x01, Y1, X9
+	VADDPD       X9, X1, X1
+	VUNPCKHPD    X1, X1, X9
+	VADDSD       X9, X1, X1
+	VEXTRACTF128 $0x01, Y2, X9
+	VADDPD       X9, X2, X2
+	VUNPCKHPD    X2, X2, X9
+	VADDSD       X9, X2, X2
+	VEXTRACTF128 $0x01, Y3, X9
+	VADDPD       X9, X3, X3
+	VUNPCKHPD    X3, X3, X9
+	VADDSD       X9, X3, X3
+	VEXTRACTF128 $0x01, Y4, X9
+	VADDPD       X9, X4, X4
+	VUNPCKHPD    X4, X4, X9
+	VADDSD       X9, X4, X4
+	VEXTRACTF128 $0x01, Y5, X9
+	VADDPD       X9, X5, X5
+	VUNPCKHPD    X5, X5, X9
+	VADDSD       X9, X5, X5
+	VEXTRACTF128 $0x01, Y6, X9
+	VADDPD       X9, X6, X6
+	VUNPCKHPD    X6, X6, X9
+	VADDSD       X9, X6, X6
+	VEXTRACTF128 $0x01, Y7, X9
+	VADDPD       X9, X7, X7
+	VUNPCKHPD    X7, X7, X9
+	VADDSD       X9, X7, X7
+	VEXTRACTF128 $0x01, Y8, X9
+	VADDPD       X9, X8, X8
+	VUNPCKHPD    X8, X8, X9
+	VADDSD       X9, X8, X8
+	CMPQ         R9, DI
+	JAE          sweep1_done
+
+sweep1_scalar:
+	VMOVSD      (AX)(R9*8), X9
+	VMOVSD      (CX)(R9*8), X10
+	VMOVSD      (DX)(R9*8), X11
+	VMOVSD      (BX)(R9*8), X11
+	VMOVSD      (SI)(R9*8), X12
+	VMULSD      X10, X9, X9
+	VADDSD      X9, X0, X0
+	VMULSD      X11, X9, X13
+	VMULSD      X12, X9, X9
+	VADDSD      X13, X1, X1
+	VFMADD231SD X11, X13, X2
+	VADDSD      X9, X3, X3
+	VFMADD231SD X12, X13, X4
+	VFMADD231SD X12, X9, X5
+	VADDSD      X10, X6, X6
+	VFMADD231SD X11, X10, X7
+	VFMADD231SD X12, X10, X8
+	INCQ        R9
+	CMPQ        R9, DI
+	JB          sweep1_scalar
+
+sweep1_done:
+	VMOVSD X0, 48(R8)
+	VMOVSD X1, 56(R8)
+	VMOVSD X2, 64(R8)
+	VMOVSD X3, 72(R8)
+	VMOVSD X4, 80(R8)
+	VMOVSD X5, 88(R8)
+	VMOVSD X6, 168(R8)
+	VMOVSD X7, 176(R8)
+	VMOVSD X8, 184(R8)
+	VXORPD Y0, Y0, Y0
+	VXORPD Y1, Y1, Y1
+	VXORPD Y2, Y2, Y2
+	VXORPD Y3, Y3, Y3
+	VXORPD Y4, Y4, Y4
+	VXORPD Y5, Y5, Y5
+	XORQ   R9, R9
+	MOVQ   DI, R10
+	ANDQ   $-4, R10
+	CMPQ   R10, $+0
+	JE     sweep2_reduce
+
+sweep2_vector:
+	VMOVUPD     (AX)(R9*8), Y6
+	VMOVUPD     (CX)(R9*8), Y6
+	VMOVUPD     (DX)(R9*8), Y7
+	VMOVUPD     (BX)(R9*8), Y7
+	VMOVUPD     (SI)(R9*8), Y8
+	VMULPD      Y6, Y6, Y6
+	VADDPD      Y6, Y0, Y0
+	VMULPD      Y7, Y6, Y9
+	VMULPD      Y8, Y6, Y6
+	VADDPD      Y9, Y1, Y1
+	VFMADD231PD Y7, Y9, Y2
+	VADDPD      Y6, Y3, Y3
+	VFMADD231PD Y8, Y9, Y4
+	VFMADD231PD Y8, Y6, Y5
+	ADDQ        $+4, R9
+	CMPQ        R9, R10
+	JB          sweep2_vector
+
+sweep2_reduce:
+	VEXTRACTF128 $0x01, Y0, X6
+	VADDPD       X6, X0, X0
+	VUNPCKHPD    X0, X0, X6
+	VADDSD       X6, X0, X0
+	VEXTRACTF128 $0x01, Y1, X6
+	VADDPD       X6, X1, X1
+	VUNPCKHPD    X1, X1, X6
+	VADDSD       X6, X1, X1
+	VEXTRACTF128 $0x01, Y2, X6
+	VADDPD       X6, X2, X2
+	VUNPCKHPD    X2, X2, X6
+	VADDSD       X6, X2, X2
+	VEXTRACTF128 $0x01, Y3, X6
+	VADDPD       X6, X3, X3
+	VUNPCKHPD    X3, X3, X6
+	VADDSD       X6, X3, X3
+	VEXTRACTF128 $0x01, Y4, X6
+	VADDPD       X6, X4, X4
+	VUNPCKHPD    X4, X4, X6
+	VADDSD       X6, X4, X4
+	VEXTRACTF128 $0x01, Y5, X6
+	VADDPD       X6, X5, X5
+	VUNPCKHPD    X5, X5, X6
+	VADDSD       X6, X5, X5
+	CMPQ         R9, DI
+	JAE          sweep2_done
+
+sweep2_scalar:
+	VMOVSD      (AX)(R9*8), X6
+	VMOVSD      (CX)(R9*8), X6
+	VMOVSD      (DX)(R9*8), X7
+	VMOVSD      (BX)(R9*8), X7
+	VMOVSD      (SI)(R9*8), X8
+	VMULSD      X6, X6, X6
+	VADDSD      X6, X0, X0
+	VMULSD      X7, X6, X9
+	VMULSD      X8, X6, X6
+	VADDSD      X9, X1, X1
+	VFMADD231SD X7, X9, X2
+	VADDSD      X6, X3, X3
+	VFMADD231SD X8, X9, X4
+	VFMADD231SD X8, X6, X5
+	INCQ        R9
+	CMPQ        R9, DI
+	JB          sweep2_scalar
+
+sweep2_done:
+	VMOVSD X0, 96(R8)
+	VMOVSD X1, 104(R8)
+	VMOVSD X2, 112(R8)
+	VMOVSD X3, 120(R8)
+	VMOVSD X4, 128(R8)
+	VMOVSD X5, 136(R8)
+	VXORPD Y0, Y0, Y0
+	VXORPD Y1, Y1, Y1
+	VXORPD Y2, Y2, Y2
+	VXORPD Y3, Y3, Y3
+	VXORPD Y4, Y4, Y4
+	VXORPD Y5, Y5, Y5
+	XORQ   R9, R9
+	MOVQ   DI, R10
+	ANDQ   $-4, R10
+	CMPQ   R10, $+0
+	JE     sweep3_reduce
+
+sweep3_vector:
+	VMOVUPD     (AX)(R9*8), Y6
+	VMOVUPD     (CX)(R9*8), Y7
+	VMOVUPD     (DX)(R9*8), Y8
+	VMOVUPD     (BX)(R9*8), Y9
+	VMOVUPD     (SI)(R9*8), Y10
+	VMULPD      Y8, Y6, Y6
+	VADDPD      Y6, Y0, Y0
+	VFMADD231PD Y9, Y6, Y1
+	VFMADD231PD Y10, Y6, Y2
+	VMULPD      Y8, Y7, Y6
+	VADDPD      Y6, Y3, Y3
+	VFMADD231PD Y9, Y6, Y4
+	VFMADD231PD Y10, Y6, Y5
+	ADDQ        $+4, R9
+	CMPQ        R9, R10
+	JB          sweep3_vector
+
+sweep3_reduce:
+	VEXTRACTF128 $0x01, Y0, X6
+	VADDPD       X6, X0, X0
+	VUNPCKHPD    X0, X0, X6
+	VADDSD       X6, X0, X0
+	VEXTRACTF128 $0x01, Y1, X6
+	VADDPD       X6, X1, X1
+	VUNPCKHPD    X1, X1, X6
+	VADDSD       X6, X1, X1
+	VEXTRACTF128 $0x01, Y2, X6
+	VADDPD       X6, X2, X2
+	VUNPCKHPD    X2, X2, X6
+	VADDSD       X6, X2, X2
+	VEXTRACTF128 $0x01, Y3, X6
+	VADDPD       X6, X3, X3
+	VUNPCKHPD    X3, X3, X6
+	VADDSD       X6, X3, X3
+	VEXTRACTF128 $0x01, Y4, X6
+	VADDPD       X6, X4, X4
+	VUNPCKHPD    X4, X4, X6
+	VADDSD       X6, X4, X4
+	VEXTRACTF128 $0x01, Y5, X6
+	VADDPD       X6, X5, X5
+	VUNPCKHPD    X5, X5, X6
+	VADDSD       X6, X5, X5
+	CMPQ         R9, DI
+	JAE          sweep3_done
+
+sweep3_scalar:
+	VMOVSD      (AX)(R9*8), X6
+	VMOVSD      (CX)(R9*8), X7
+	VMOVSD      (DX)(R9*8), X8
+	VMOVSD      (BX)(R9*8), X9
+	VMOVSD      (SI)(R9*8), X10
+	VMULSD      X8, X6, X6
+	VADDSD      X6, X0, X0
+	VFMADD231SD X9, X6, X1
+	VFMADD231SD X10, X6, X2
+	VMULSD      X8, X7, X6
+	VADDSD      X6, X3, X3
+	VFMADD231SD X9, X6, X4
+	VFMADD231SD X10, X6, X5
+	INCQ        R9
+	CMPQ        R9, DI
+	JB          sweep3_scalar
+
+sweep3_done:
+	VMOVSD X0, 192(R8)
+	VMOVSD X1, 200(R8)
+	VMOVSD X2, 208(R8)
+	VMOVSD X3, 216(R8)
+	VMOVSD X4, 224(R8)
+	VMOVSD X5, 232(R8)
+	VZEROUPPER
+	RET

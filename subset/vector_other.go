@@ -36,3 +36,6 @@ func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, ou
 func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
 	sp.cubicCentres(x0, y0, side, v, gx, gy)
 }
+
+// affineMomentsVector is affineMomentsGo where there is no vector kernel.
+func (s *Solver) affineMomentsVector(m *gradMoments) { s.affineMomentsGo(m) }

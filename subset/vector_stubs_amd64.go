@@ -48,3 +48,11 @@ func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []fl
 //
 //go:noescape
 func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
+
+// affineMomentsAVX2 sets out to the moments over the len(gx) pixels:
+// for q = gx², gx·gy, gy² in turn Σq, Σq·dx, Σq·dx², Σq·dy, Σq·dx·dy,
+// Σq·dy² (out[0 … 17]), then for h = gx, gy, gx·fc, gy·fc in turn Σh,
+// Σh·dx, Σh·dy (out[18 … 29]). All slices hold at least len(gx) values.
+//
+//go:noescape
+func affineMomentsAVX2(gx []float64, gy []float64, fc []float64, dx []float64, dy []float64, out *[30]float64)

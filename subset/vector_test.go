@@ -430,3 +430,88 @@ func BenchmarkCubicCentres(b *testing.B) {
 		})
 	}
 }
+
+// TestAffineMomentsVectorMatchesGo compares the reference-side moments of
+// the Affine order of both paths (the Go path's paired loops for a full
+// square, its run loops for a masked subset) on subsets of radius 1, 2,
+// 10 and 15, each moment within 2·(n+2)·u·Σ|terms| (see sumsBound).
+func TestAffineMomentsVectorMatchesGo(t *testing.T) {
+	skipWithoutVector(t)
+	const u, size = 0x1p-53, 96
+	ref := NewSpline(testPattern(68).render(size, size, nil), Bicubic)
+	rng := rand.New(rand.NewPCG(68, 68))
+	mask := make([]uint8, size*size)
+	for i := range mask {
+		if rng.Float64() < 0.85 {
+			mask[i] = 1
+		}
+	}
+	checked := 0
+	for _, radius := range []int{1, 2, 10, 15} {
+		for _, m := range [][]uint8{nil, mask} {
+			s := NewSolver(Config{Radius: radius, MinValidFraction: 0.5})
+			for _, c := range [][2]int{{40, 40}, {47, 53}} {
+				if s.Prepare(ref, m, c[0], c[1]) != Converged {
+					continue
+				}
+				var want, got, abs gradMoments
+				withPath(t, false, func() { s.affineMoments(&want) })
+				s.affineMomentsVector(&got)
+				for k := range s.n {
+					X, Y, F, dx, dy := s.gx[k], s.gy[k], s.fc[k], math.Abs(s.dx[k]), math.Abs(s.dy[k])
+					for i := 0; i <= 2; i++ {
+						for j := 0; i+j <= 2; j++ {
+							w := math.Pow(dx, float64(i)) * math.Pow(dy, float64(j))
+							for q, v := range [3]float64{X * X, X * Y, Y * Y} {
+								abs.q[q][i][j] += math.Abs(v) * w
+							}
+							if i+j <= 1 {
+								for h, v := range [4]float64{X, Y, X * F, Y * F} {
+									abs.h[h][i][j] += math.Abs(v) * w
+								}
+							}
+						}
+					}
+				}
+				bound := 2 * float64(s.n+2) * u
+				for i := 0; i <= 2; i++ {
+					for j := 0; i+j <= 2; j++ {
+						for q := range 3 {
+							if d := math.Abs(got.q[q][i][j] - want.q[q][i][j]); !(d <= bound*abs.q[q][i][j]) {
+								t.Errorf("radius %d mask=%t at %v: q%d moment (%d, %d) %.17g, Go %.17g (bound %.3g)", radius, m != nil, c, q, i, j, got.q[q][i][j], want.q[q][i][j], bound*abs.q[q][i][j])
+							}
+						}
+						for h := range 4 {
+							if d := math.Abs(got.h[h][i][j] - want.h[h][i][j]); !(d <= bound*abs.h[h][i][j]) {
+								t.Errorf("radius %d mask=%t at %v: h%d moment (%d, %d) %.17g, Go %.17g (bound %.3g)", radius, m != nil, c, h, i, j, got.h[h][i][j], want.h[h][i][j], bound*abs.h[h][i][j])
+							}
+						}
+					}
+				}
+				checked++
+			}
+		}
+	}
+	if checked < 12 {
+		t.Fatalf("only %d subsets prepared", checked)
+	}
+}
+
+// BenchmarkAffineMoments times the reference-side moments of a 21 px
+// subset (Prepare, once per point and reference) on each path.
+func BenchmarkAffineMoments(b *testing.B) {
+	ref := NewSpline(testPattern(69).render(96, 96, nil), Bicubic)
+	s := NewSolver(Config{Radius: 10})
+	s.Prepare(ref, nil, 48, 48)
+	for _, path := range []struct {
+		name    string
+		moments func(*gradMoments)
+	}{{"go", s.affineMomentsGo}, {"vector", s.affineMomentsVector}} {
+		b.Run(path.name, func(b *testing.B) {
+			for b.Loop() {
+				var m gradMoments
+				path.moments(&m)
+			}
+		})
+	}
+}

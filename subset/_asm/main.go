@@ -15,5 +15,6 @@ func main() {
 	deformedSums()
 	cubicKernels(float32Coef)
 	cubicCentresKernel()
+	affineMoments()
 	Generate()
 }
