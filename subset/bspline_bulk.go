@@ -146,15 +146,17 @@ func (sp *Spline) quinticValues(xs, ys, out []float64) {
 // y0 + t·ay), t = i0 + i, for every i: the pixels of one row of a subset
 // under an affine warp, their positions formed as affineWarp would form
 // them, so the values equal those of values at those positions bit for
-// bit, without the positions going through memory. Every position must
-// lie in [0, W-1] × [0, H-1], as for values.
+// bit, without the positions going through memory. The product t·ax is
+// rounded before the sum (the conversions keep the compiler from fusing
+// the two at GOAMD64=v3), as the vector kernel rounds it. Every position
+// must lie in [0, W-1] × [0, H-1], as for values.
 func (sp *Spline) lineValues(x0, y0, ax, ay float64, i0 int, out []float64) {
 	s, c := sp.stride, sp.coef
 	if sp.kind == Biquintic {
 		origin := (splinePad-2)*s + splinePad - 2
 		for k := range out {
 			t := float64(i0 + k)
-			out[k] = quinticAt(c, s, origin, x0+t*ax, y0+t*ay)
+			out[k] = quinticAt(c, s, origin, x0+float64(t*ax), y0+float64(t*ay))
 		}
 		return
 	}
@@ -172,7 +174,7 @@ func (sp *Spline) cubicLineGo(x0, y0, ax, ay float64, i0 int, out []float64) {
 	origin := (splinePad-1)*s + splinePad - 1
 	for k := range out {
 		t := float64(i0 + k)
-		out[k] = cubicAt(c, s, origin, x0+t*ax, y0+t*ay)
+		out[k] = cubicAt(c, s, origin, x0+float64(t*ax), y0+float64(t*ay))
 	}
 }
 
