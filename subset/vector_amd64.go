@@ -83,9 +83,9 @@ func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
 	}
 	s := sp.stride
 	top := (y0-1+splinePad)*s + x0 - 1 + splinePad
-	// The window's last coefficient, checked here once: the kernel reads
-	// the coefficients unchecked.
-	_ = sp.coef[top+(side+1)*s+side+1]
+	// The window's first and last coefficients, checked here once: the
+	// kernel reads the coefficients unchecked.
+	_, _ = sp.coef[top], sp.coef[top+(side+1)*s+side+1]
 	v, gx, gy = v[:side*side], gx[:side*side], gy[:side*side]
 	cubicCentresAVX2(sp.coef, s, top, side, v, gx, gy)
 }
