@@ -16,7 +16,8 @@ import (
 //
 //   - the integer parts, fractions and window offsets of four positions
 //     at once, and their weights by cubicAt's own formulas in the same
-//     order (no FMA), so the weights equal cubicAt's bit for bit;
+//     order (no FMA), so the weights equal cubicAt's bit for bit (as the
+//     Go compiler forms them below GOAMD64=v3, where it does not fuse);
 //   - for each position, the sum over the window's four rows of its
 //     y-weight times the row (a vector over the four taps along x), with
 //     the y-weight broadcast from the stack and FMA;
