@@ -29,6 +29,10 @@ func centreScratch(side int) int { return side + 4 }
 // combined along y (kernel and derivative), then along x. colV and colD
 // are scratch of at least centreScratch(side) values.
 func (sp *Spline) centres(x0, y0, side int, v, gx, gy, colV, colD []float64) {
+	if sp.kind == Bicubic && useVector {
+		sp.cubicCentresVector(x0, y0, side, v, gx, gy)
+		return
+	}
 	if sp.kind == Bicubic {
 		sp.cubicCentres(x0, y0, side, v, gx, gy)
 		return
@@ -45,7 +49,7 @@ func (sp *Spline) centres(x0, y0, side int, v, gx, gy, colV, colD []float64) {
 		for i := range colV {
 			var sv, sd float64
 			for t, wt := range w {
-				c := sp.coef[top+t*s+i]
+				c := float64(sp.coef[top+t*s+i])
 				sv += wt * c
 				sd += d[t] * c
 			}
@@ -80,10 +84,14 @@ func (sp *Spline) cubicCentres(x0, y0, side int, v, gx, gy []float64) {
 		xr, yr = xr[:len(vr)], yr[:len(vr)]
 		a, b, c = a[:len(vr)+2], b[:len(vr)+2], c[:len(vr)+2]
 		// Column i: kernel sum cv and derivative cd along y.
-		cv0, cd0 := sixth*(a[0]+c[0])+twoThirds*b[0], 0.5*(c[0]-a[0])
-		cv1, cd1 := sixth*(a[1]+c[1])+twoThirds*b[1], 0.5*(c[1]-a[1])
+		col := func(i int) (cv, cd float64) {
+			ai, bi, ci := float64(a[i]), float64(b[i]), float64(c[i])
+			return sixth*(ai+ci) + twoThirds*bi, 0.5 * (ci - ai)
+		}
+		cv0, cd0 := col(0)
+		cv1, cd1 := col(1)
 		for i := range vr {
-			cv2, cd2 := sixth*(a[i+2]+c[i+2])+twoThirds*b[i+2], 0.5*(c[i+2]-a[i+2])
+			cv2, cd2 := col(i + 2)
 			vr[i] = sixth*(cv0+cv2) + twoThirds*cv1
 			xr[i] = 0.5 * (cv2 - cv0)
 			yr[i] = sixth*(cd0+cd2) + twoThirds*cd1
@@ -104,8 +112,18 @@ func (sp *Spline) values(xs, ys, out []float64) {
 	sp.cubicValues(xs, ys, out)
 }
 
-// cubicValues is values for the cubic kernel.
+// cubicValues is values for the cubic kernel: by the vector kernel when
+// there is one (useVector), else by cubicValuesGo.
 func (sp *Spline) cubicValues(xs, ys, out []float64) {
+	if useVector {
+		sp.cubicValuesVector(xs, ys, out)
+		return
+	}
+	sp.cubicValuesGo(xs, ys, out)
+}
+
+// cubicValuesGo is cubicValues in Go: the reference of the vector kernel.
+func (sp *Spline) cubicValuesGo(xs, ys, out []float64) {
 	s, c := sp.stride, sp.coef
 	origin := (splinePad-1)*s + splinePad - 1
 	xs, ys = xs[:len(out)], ys[:len(out)]
@@ -128,22 +146,35 @@ func (sp *Spline) quinticValues(xs, ys, out []float64) {
 // y0 + t·ay), t = i0 + i, for every i: the pixels of one row of a subset
 // under an affine warp, their positions formed as affineWarp would form
 // them, so the values equal those of values at those positions bit for
-// bit, without the positions going through memory. Every position must
-// lie in [0, W-1] × [0, H-1], as for values.
+// bit, without the positions going through memory. The product t·ax is
+// rounded before the sum (the conversions keep the compiler from fusing
+// the two at GOAMD64=v3), as the vector kernel rounds it. Every position
+// must lie in [0, W-1] × [0, H-1], as for values.
 func (sp *Spline) lineValues(x0, y0, ax, ay float64, i0 int, out []float64) {
 	s, c := sp.stride, sp.coef
 	if sp.kind == Biquintic {
 		origin := (splinePad-2)*s + splinePad - 2
 		for k := range out {
 			t := float64(i0 + k)
-			out[k] = quinticAt(c, s, origin, x0+t*ax, y0+t*ay)
+			out[k] = quinticAt(c, s, origin, x0+float64(t*ax), y0+float64(t*ay))
 		}
 		return
 	}
+	if useVector {
+		sp.cubicLineVector(x0, y0, ax, ay, i0, out)
+		return
+	}
+	sp.cubicLineGo(x0, y0, ax, ay, i0, out)
+}
+
+// cubicLineGo is lineValues for the cubic kernel in Go: the reference of
+// the vector kernel.
+func (sp *Spline) cubicLineGo(x0, y0, ax, ay float64, i0 int, out []float64) {
+	s, c := sp.stride, sp.coef
 	origin := (splinePad-1)*s + splinePad - 1
 	for k := range out {
 		t := float64(i0 + k)
-		out[k] = cubicAt(c, s, origin, x0+t*ax, y0+t*ay)
+		out[k] = cubicAt(c, s, origin, x0+float64(t*ax), y0+float64(t*ay))
 	}
 }
 
@@ -154,7 +185,7 @@ func (sp *Spline) lineValues(x0, y0, ax, ay float64, i0 int, out []float64) {
 // cubes; pairwise sums shorten the chain of dependent additions. It is
 // the one cubic kernel of values and lineValues, so the two agree bit for
 // bit.
-func cubicAt(c []float64, s, origin int, x, y float64) float64 {
+func cubicAt(c []float32, s, origin int, x, y float64) float64 {
 	const sixth, twoThirds = 1.0 / 6, 2.0 / 3
 	ix, iy := int(x), int(y)
 	tx, ty := x-float64(ix), y-float64(iy)
@@ -168,27 +199,26 @@ func cubicAt(c []float64, s, origin int, x, y float64) float64 {
 	// One bounds check for the 4×4 window (its last row's end), then the
 	// rows by constant offsets from its start.
 	win := c[base : base+3*s+4]
-	r0 := (*[4]float64)(win)
-	r1 := (*[4]float64)(win[s:])
-	r2 := (*[4]float64)(win[2*s:])
-	r3 := (*[4]float64)(win[3*s:])
-	c0 := (w0*r0[0] + w1*r0[1]) + (w2*r0[2] + w3*r0[3])
-	c1 := (w0*r1[0] + w1*r1[1]) + (w2*r1[2] + w3*r1[3])
-	c2 := (w0*r2[0] + w1*r2[1]) + (w2*r2[2] + w3*r2[3])
-	c3 := (w0*r3[0] + w1*r3[1]) + (w2*r3[2] + w3*r3[3])
+	row := func(r *[4]float32) float64 {
+		return (w0*float64(r[0]) + w1*float64(r[1])) + (w2*float64(r[2]) + w3*float64(r[3]))
+	}
+	c0 := row((*[4]float32)(win))
+	c1 := row((*[4]float32)(win[s:]))
+	c2 := row((*[4]float32)(win[2*s:]))
+	c3 := row((*[4]float32)(win[3*s:]))
 	return (v0*c0 + v1*c1) + (v2*c2 + v3*c3)
 }
 
 // quinticAt is cubicAt for the quintic kernel (origin two coefficients up
 // and left of pixel (0, 0)).
-func quinticAt(c []float64, s, origin int, x, y float64) float64 {
+func quinticAt(c []float32, s, origin int, x, y float64) float64 {
 	ix, iy := int(x), int(y)
 	x0, x1, x2, x3, x4, x5 := quinticWeights(x - float64(ix))
 	y0, y1, y2, y3, y4, y5 := quinticWeights(y - float64(iy))
 	base := origin + iy*s + ix
 	row := func(j int) float64 {
-		r := (*[6]float64)(c[base+j*s:])
-		return (x0*r[0] + x1*r[1]) + (x2*r[2] + x3*r[3]) + (x4*r[4] + x5*r[5])
+		r := (*[6]float32)(c[base+j*s:])
+		return (x0*float64(r[0]) + x1*float64(r[1])) + (x2*float64(r[2]) + x3*float64(r[3])) + (x4*float64(r[4]) + x5*float64(r[5]))
 	}
 	return (y0*row(0) + y1*row(1)) + (y2*row(2) + y3*row(3)) + (y4*row(4) + y5*row(5))
 }

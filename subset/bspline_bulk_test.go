@@ -76,7 +76,7 @@ func TestLineValues(t *testing.T) {
 		sp := NewSpline(img, kind)
 		xs, ys := make([]float64, n), make([]float64, n)
 		for i := range xs {
-			xs[i], ys[i] = x0+float64(i)*ax, y0+float64(i)*ay
+			xs[i], ys[i] = x0+float64(float64(i)*ax), y0+float64(float64(i)*ay)
 		}
 		want := make([]float64, n)
 		sp.values(xs, ys, want)

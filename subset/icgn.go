@@ -451,9 +451,7 @@ func (s *Solver) sample(def *Spline, p *Params, shared bool, d *deformedSums) bo
 	case shared:
 		s.sampleShared(def)
 	case s.cfg.Order == Affine:
-		for k, rn := range s.runs {
-			def.lineValues(s.ox[k], s.oy[k], s.ax, s.ay, 0, s.gs[rn.k0:rn.k0+rn.n])
-		}
+		s.sampleRuns(def)
 	default:
 		def.values(s.xs[:s.n], s.ys[:s.n], s.gs[:s.n])
 	}

@@ -67,10 +67,20 @@ func foldRun(mo [][5]float64, r []float64, dy float64, deg int) {
 	}
 }
 
-// affineMoments sets the moments of m that the Affine order needs. The
-// per-run sums are split over three sweeps so that their accumulators
-// stay in registers.
+// affineMoments sets the moments of m that the Affine order needs: by the
+// vector kernel when there is one (useVector), else by affineMomentsGo.
 func (s *Solver) affineMoments(m *gradMoments) {
+	if useVector {
+		s.affineMomentsVector(m)
+		return
+	}
+	s.affineMomentsGo(m)
+}
+
+// affineMomentsGo is affineMoments in Go, run by run: the reference the
+// vector kernel is tested against. The per-run sums are split over three
+// sweeps so that their accumulators stay in registers.
+func (s *Solver) affineMomentsGo(m *gradMoments) {
 	if s.square {
 		s.affineMomentsSquare(m)
 		return

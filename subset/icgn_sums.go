@@ -7,8 +7,27 @@ package subset
 // where dy is constant.
 
 // affineSums returns Σg, Σg² and Σ(f - f̄)·g and adds Σ J·g for the Affine
-// order to the first six entries of sJg.
+// order to the first six entries of sJg: by the vector kernel when there
+// is one (useVector), else by affineSumsGo.
 func (s *Solver) affineSums(sJg *[12]float64) (sg, sgg, sfg float64) {
+	if useVector {
+		return s.affineSumsVector(sJg)
+	}
+	return s.affineSumsGo(sJg)
+}
+
+// quadraticSums is affineSums for the Quadratic order: it adds Σ J·g to
+// all twelve entries of sJg.
+func (s *Solver) quadraticSums(sJg *[12]float64) (sg, sgg, sfg float64) {
+	if useVector {
+		return s.quadraticSumsVector(sJg)
+	}
+	return s.quadraticSumsGo(sJg)
+}
+
+// affineSumsGo is affineSums in Go, run by run: the reference the vector
+// kernel is tested against.
+func (s *Solver) affineSumsGo(sJg *[12]float64) (sg, sgg, sfg float64) {
 	fm := s.fMean
 	for _, rn := range s.runs {
 		k0, k1 := rn.k0, rn.k0+rn.n
@@ -38,9 +57,8 @@ func (s *Solver) affineSums(sJg *[12]float64) (sg, sgg, sfg float64) {
 	return sg, sgg, sfg
 }
 
-// quadraticSums is affineSums for the Quadratic order: it adds Σ J·g to
-// all twelve entries of sJg.
-func (s *Solver) quadraticSums(sJg *[12]float64) (sg, sgg, sfg float64) {
+// quadraticSumsGo is quadraticSums in Go (see affineSumsGo).
+func (s *Solver) quadraticSumsGo(sJg *[12]float64) (sg, sgg, sfg float64) {
 	fm := s.fMean
 	for _, rn := range s.runs {
 		k0, k1 := rn.k0, rn.k0+rn.n
