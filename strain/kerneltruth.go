@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"spallscope/dic"
+	"spallscope/subset"
 )
 
 // KernelTruth is a damage feature's own strain as a run measures it with
@@ -51,6 +52,14 @@ type KernelTruth struct {
 	// Max[f] is the largest of Values[f], at point Peak[f] (−1: none).
 	Max  []float64
 	Peak []int
+	// Gain[i] is the window's noise gain at point i: the standard
+	// deviation of its displacement gradient for independent displacement
+	// noise of equal variance at every point, relative to a full window's
+	// (1 on a full window, more on the one-sided ones at walls and edges;
+	// NaN where there is no strain). The least-squares slope is a weighted
+	// sum Σ_j w_j·u_j, so its variance is σ²·Σ_j w_j²; Gain is
+	// √((Σ w_x² + Σ w_y²) / (2·Σ w_full²)) over the slopes along x and y.
+	Gain []float64
 }
 
 // KernelTruth passes a feature's own displacement fields through the
@@ -104,7 +113,85 @@ func (w Window) KernelTruth(fields []*dic.Field, ind Indicator) (KernelTruth, er
 		}
 		kt.Values[f], kt.Max[f], kt.Peak[f] = vals, best, at
 	}
+	gain, err := w.noiseGain(ref)
+	if err != nil {
+		return KernelTruth{}, err
+	}
+	kt.Gain = gain
 	return kt, nil
+}
+
+// noiseGain is the window's noise gain at every point of ref's grid (see
+// KernelTruth.Gain). The weights w_j come from the window itself: a field
+// of unit impulses in u at points Size apart in both directions puts at
+// most one impulse into any window, so each window's gradient is its
+// weight of that impulse; Size² such fields cover every point once, and
+// the squared gradients summed over them are Σ w_j² (for the slopes along
+// x and y; v has the same design). The window is taken with engineering
+// strain for this, whose gradient is linear in the displacement.
+func (w Window) noiseGain(ref *dic.Field) ([]float64, error) {
+	w.Measure = Engineering
+	g := ref.Grid
+	n := g.Len()
+	sx, sy := make([]float64, n), make([]float64, n)
+	probe := &dic.Field{Grid: g, Points: make([]dic.Point, n)}
+	for i, p := range ref.Points {
+		probe.Points[i] = dic.Point{X: p.X, Y: p.Y, Status: p.Status, ZNCC: p.ZNCC}
+	}
+	for oy := range w.Size {
+		for ox := range w.Size {
+			for i := range probe.Points {
+				c, r := i%g.Cols, i/g.Cols
+				probe.Points[i].P = subset.Params{}
+				if c%w.Size == ox && r%w.Size == oy {
+					probe.Points[i].P[subset.PU] = 1
+				}
+			}
+			sf, err := w.Strain(probe)
+			if err != nil {
+				return nil, fmt.Errorf("kernel truth: noise gain: %w", err)
+			}
+			for i := range sf.Points {
+				p := &sf.Points[i]
+				sx[i] += p.Exx * p.Exx
+				sy[i] += 4 * p.Exy * p.Exy // ∂u/∂y = 2·exy with v = 0
+			}
+		}
+	}
+	// A full window: Σ w² = 1 / (Size · Σdx² · step²) for either slope.
+	half := w.Size / 2
+	var sxx float64
+	for d := -half; d <= half; d++ {
+		sxx += float64(d * d)
+	}
+	step := float64(g.Step)
+	full := 1 / (float64(w.Size) * sxx * step * step)
+	gain := make([]float64, n)
+	for i := range gain {
+		gain[i] = math.NaN()
+		if ref.Points[i].Valid() {
+			if v := (sx[i] + sy[i]) / (2 * full); v > 0 {
+				gain[i] = math.Sqrt(v)
+			}
+		}
+	}
+	return gain, nil
+}
+
+// FirstAboveNoise is FirstAbove with each point's limit scaled by its
+// noise gain (at least 1): limit·max(1, Gain[i]). A run whose bar at a
+// point is raised by that point's own noise relative to the face's (the
+// one-sided windows at walls, see Finder.SetNoise) can see the feature
+// there only above the raised bar.
+func (kt KernelTruth) FirstAboveNoise(limit float64) int {
+	for f, vals := range kt.Values {
+		for i, v := range vals {
+			if !math.IsNaN(v) && !math.IsNaN(kt.Gain[i]) && v > limit*math.Max(1, kt.Gain[i]) {
+				return f
+			}
+		}
+	}
+	return -1
 }
 
 // FirstAbove is the kernel truth's detectable frame at a detection limit:
