@@ -66,6 +66,21 @@ func TestKernelTruthUniformStrainIsExact(t *testing.T) {
 		if n < 3*measured*8/10 {
 			t.Errorf("order %d: %d points with a strain over 3 frames, want at least 80 %% of the %d measured ones in each", order, n, measured)
 		}
+		// The noise gain: 1 on a full window (Σw² of the Savitzky–Golay
+		// slope, worked in KernelTruth's comment), more on the one-sided
+		// windows at the opening and the edges (fewer points, off-centre):
+		// at the left edge a plane's window has 4 columns of 7 points, the
+		// x-slope the offsets 0…3 only, Σ(x − x̄)² = 7·5 = 35 against 196
+		// on a full window, its y-slope 4·28 = 112 against 196; the
+		// variances are 196/35 = 5.6 and 196/112 = 1.75 times a full
+		// window's and the gain √((5.6 + 1.75)/2) = 1.917 (by hand; more for
+		// a quadratic).
+		if gi := kt.Gain[g.Index(3, 3)]; math.Abs(gi-1) > 1e-12 {
+			t.Errorf("order %d: noise gain %.15g on a full window, want 1", order, gi)
+		}
+		if ge := kt.Gain[g.Index(0, 8)]; (order == 1 && math.Abs(ge-math.Sqrt((5.6+1.75)/2)) > 1e-9) || !(ge > 1.9) {
+			t.Errorf("order %d: noise gain %.6g at the left edge, want %.6g for a plane, more for a quadratic", order, ge, math.Sqrt((5.6+1.75)/2))
+		}
 		if f := kt.FirstAbove(0.6 * want); f != 2 {
 			t.Errorf("order %d: first above %.3g in frame %d, want 2", order, 0.6*want, f)
 		}
