@@ -288,7 +288,11 @@ func seedCases() []seedCase {
 // at least 18 of 20 in 10 of 12 (the crack at σ 1 and 2: 17 and 15 of
 // 20). So minWithin1, maxEarly and minCovered hold what
 // is achieved (75 %, 15 %, 15 of 20), not the aim; the log gives the
-// counts.
+// counts. The pillar band's first onset is in the pillar sector in 16, 15
+// and 11 of 20 seeds (held: at least half); in the others its zone is
+// placed in the left opening's invert or crown (the zone-placement rule,
+// by the majority of its cells, is not this test's subject). The other
+// cases are in their sector in all 20 seeds (held: 90 %).
 func TestSeedOnsets(t *testing.T) {
 	const seeds, minWithin1, maxEarly, minCovered = 20, 75, 15, 15
 	vsg := strain.Window{Size: 7}.VSG(seedStep, seedSubset)
@@ -332,7 +336,7 @@ func TestSeedOnsets(t *testing.T) {
 					det, detPlain, detBox := kernel[o.Indicator].FirstAboveNoise(limit), kernel[o.Indicator].FirstAbove(limit), box.FirstAbove(limit)
 					iv := o.Interval
 					row.detsPlain = append(row.detsPlain, float64(detPlain))
-					row.add(o, det, detBox, c.sector == strain.Pillar || o.Sector == c.sector)
+					row.add(o, det, detBox, o.Sector == c.sector)
 					if o.Frame > o.TriggerFrame {
 						t.Errorf("σ %g seed %d: onset %d after its trigger %d", sigma, s, o.Frame, o.TriggerFrame)
 					}
@@ -345,8 +349,12 @@ func TestSeedOnsets(t *testing.T) {
 				if row.n < seeds {
 					t.Errorf("σ %g: %d of %d seeds with a localization onset, want all", sigma, row.n, seeds)
 				}
-				if row.sector < seeds*9/10 {
-					t.Errorf("σ %g: onset in the %s sector in %d of %d seeds, want at least 90 %%", sigma, c.sector, row.sector, seeds)
+				minSector := seeds * 9 / 10
+				if c.sector == strain.Pillar {
+					minSector = seeds / 2 // see above: the zone's placement, not its timing
+				}
+				if row.sector < minSector {
+					t.Errorf("σ %g: onset in the %s sector in %d of %d seeds, want at least %d", sigma, c.sector, row.sector, seeds, minSector)
 				}
 				if row.within1 < seeds*minWithin1/100 {
 					t.Errorf("σ %g: onset within 1 frame of the kernel truth's detectable frame in %d of %d seeds, want at least %d %%", sigma, row.within1, seeds, minWithin1)
