@@ -207,8 +207,9 @@ func (d *Dating) Add(fr Frame) {
 // its change point (EstimateDriftChange on the zone's normalised signal,
 // over the frames after calibration up to the trigger) says when the
 // signal began, and the onset is the first frame from there at which the
-// fitted change, at the zone's strongest cell, reaches the indicator's
-// detection limit (its noise floor, Finder.Floor). A change in the mean
+// fitted change, at the zone's strongest cell (its inelastic deviator
+// projected on the direction of its change, projectedCell), reaches the
+// indicator's detection limit (its noise floor, Finder.Floor). A change in the mean
 // smaller than the limit is no onset however long it lasts: this is the
 // rule of Page's CUSUM with its reference value at the limit (Page 1954,
 // "Continuous inspection schemes", Biometrika 41, 100–115; from memory), whose
@@ -228,7 +229,8 @@ func (d *Dating) Add(fr Frame) {
 // likelihood-ratio set (EarliestPlausibleOnset; Hinkley 1970 for the
 // change point, Siegmund 1988 for the set) —, its upper end the latest
 // frame by which the CUSUM (Page 1954) of the bootstrap's draws had
-// reached the limit. A young feature reaches the limit between the two;
+// reached the limit, the later of the bootstraps over the projected cell
+// and over the cell's own indicator value. A young feature reaches the limit between the two;
 // measured on the seed tests (strain/onsetseed_test.go) the estimate
 // itself lags that frame by 0 to 3 frames, which an interval of the
 // estimate's noise alone held in 0–20 of 20 seeds (0–8 for the notch and the crack).
@@ -274,7 +276,7 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 				continue // no change noise could not give: a noise trigger
 			}
 			if ok {
-				peakCell := d.peakSeries(k, c, stress, trigger, n)
+				peakCell := d.peakSeries(k, c, stress, trigger, n, true)
 				limit := iv.Limit
 				if o.Indicator == Decorrelation {
 					limit = decorrelatedCell
@@ -287,6 +289,14 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 				// normalisation says, the bootstrap takes their width.
 				sigma := math.Max(1, c.ResidualSigma(z))
 				lo, hi := bootstrapOnset(c, z, peakCell, stress, from, trigger, sigma, est, seedOf(o))
+				// The upper end stays conservative: the later of the
+				// projected cell's and the indicator's own (its γmax or
+				// e1, which the tracked demo's onsets followed more
+				// closely; see projectedCell).
+				if own := d.peakSeries(k, c, stress, trigger, n, false); own != nil {
+					_, hiOwn := bootstrapOnset(c, z, own, stress, from, trigger, sigma, est, seedOf(o))
+					hi = max(hi, hiOwn, est(c, own))
+				}
 				iv.Model, iv.LogLik = c.Model, c.LogLik
 				// The lower end: the signal began no earlier than the
 				// change point's own interval says — the earlier of its
@@ -318,12 +328,12 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 // strain: of the zone's cells, the one whose own fitted change (change c's
 // shape and onset over a line in the stress, see changeAmplitude) is the
 // largest, less the median of the ring around the zone in each frame (nil
-// without cells). For γmax and e1 a cell's series is its projected
-// deviator (projectedCell), linear in the noise and in the elastic
-// baseline's error; otherwise, and where that cannot be formed, the
-// indicator itself. A frame where a cell has no value takes the previous
+// without cells). With project, for γmax and e1 a cell's series is its
+// projected deviator (projectedCell), linear in the noise and in the
+// elastic baseline's error; otherwise, and where that cannot be formed,
+// the indicator itself. A frame where a cell has no value takes the previous
 // frame's.
-func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, trigger, n int) []float64 {
+func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, trigger, n int, project bool) []float64 {
 	if len(d.cells[k]) == 0 {
 		return nil
 	}
@@ -357,7 +367,7 @@ func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, trigger, n i
 		if seen < n/2 {
 			continue
 		}
-		if p := d.projectedCell(k, j, c.Onset, trigger, n); p != nil {
+		if p := d.projectedCell(k, j, c.Onset, trigger, n); project && p != nil {
 			copy(y, p)
 		}
 		if amp, ok := changeAmplitude(c, y, stress); ok && amp > bestAmp {

@@ -285,16 +285,15 @@ func seedCases() []seedCase {
 // 8 of the 12 rows (band 18/19/16, crack 20/17/16, notch 20/19/15, pillar
 // band 20/20/18 at σ 0.5/1/2), more than 1 frame early in at most 10 % in
 // 11 of 12 (the crack at σ 2: 3 of 20), the truth inside the interval in
-// at least 18 of 20 in 10 of 12 (the crack at σ 1 and 2: 17 and 15 of
-// 20). So minWithin1, maxEarly and minCovered hold what
-// is achieved (75 %, 15 %, 15 of 20), not the aim; the log gives the
-// counts. The pillar band's first onset is in the pillar sector in 16, 15
+// at least 18 of 20 in 11 of 12 (the crack at σ 2: 17 of 20). So
+// minWithin1, maxEarly and minCovered hold what is achieved (75 %, 15 %,
+// 17 of 20), not the aim; the log gives the counts. The pillar band's first onset is in the pillar sector in 16, 15
 // and 11 of 20 seeds (held: at least half); in the others its zone is
 // placed in the left opening's invert or crown (the zone-placement rule,
 // by the majority of its cells, is not this test's subject). The other
 // cases are in their sector in all 20 seeds (held: 90 %).
 func TestSeedOnsets(t *testing.T) {
-	const seeds, minWithin1, maxEarly, minCovered = 20, 75, 15, 15
+	const seeds, minWithin1, maxEarly, minCovered = 20, 75, 15, 17
 	vsg := strain.Window{Size: 7}.VSG(seedStep, seedSubset)
 	for _, c := range seedCases() {
 		t.Run(c.name, func(t *testing.T) {
