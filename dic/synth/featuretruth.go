@@ -6,7 +6,9 @@ import (
 	"runtime"
 	"sync"
 
+	"spallscope/dic"
 	"spallscope/dic/sector"
+	"spallscope/subset"
 )
 
 // Feature kinds in FeatureTruth.
@@ -358,4 +360,163 @@ func (m *windowMeans) maxMean(vsg int, grid *Placement) (best, cx, cy float64) {
 		}
 	}
 	return best, cx, cy
+}
+
+// FeatureFieldOnGrid returns damage field i's own displacement at frame —
+// Scenario.Fields[i] alone at its drive's factor, without the elastic
+// field, the other features and noise — at the points of grid g, as a
+// tracked field would hold it: the exact displacement a run on that grid
+// would measure of that feature alone. A point is masked where measured
+// (one flag per grid point; nil: every point) is false or it lies off the
+// rock (in an opening). A frame before the feature moves gives zero
+// displacement at the measured points. This is the input of the strain
+// layer's truth through the run's own strain window (strain.KernelTruth).
+//
+// subsetSize ≤ 1 samples the displacement at the grid points, as a field
+// of exact point values (the seed tests' runs) is; a larger odd size gives
+// each point the mean displacement over the rock pixels of the square
+// subset of that side centred on it, clipped to the image: what a subset
+// with a first-order shape function reports of a field that varies inside
+// it, to first order — the least-squares affine fit of the field over the
+// subset, whose value at the centre is the subset mean on a symmetric
+// subset, with the pattern's gradients taken as uniform (Schreier and
+// Sutton 2002, Exp. Mech. 42, 303–310, on undermatched shape functions;
+// from memory).
+func (sc *Scenario) FeatureFieldOnGrid(i, frame int, g dic.Grid, measured []bool, subsetSize int) (*dic.Field, error) {
+	if i < 0 || i >= len(sc.Fields) {
+		return nil, fmt.Errorf("feature field: field %d, expected 0 to %d", i, len(sc.Fields)-1)
+	}
+	if _, _, _, ok := damageKind(sc.Fields[i]); !ok {
+		return nil, fmt.Errorf("feature field: field %d is not a damage feature (band, crack or notch)", i)
+	}
+	if frame < 0 || frame >= sc.Frames {
+		return nil, fmt.Errorf("feature field: frame %d, expected 0 to %d", frame, sc.Frames-1)
+	}
+	if measured != nil && len(measured) != g.Len() {
+		return nil, fmt.Errorf("feature field: %d measured flags for a %dx%d grid, expected %d", len(measured), g.Cols, g.Rows, g.Len())
+	}
+	if subsetSize > 1 && subsetSize%2 == 0 {
+		return nil, fmt.Errorf("feature field: subset %d px, expected an odd size", subsetSize)
+	}
+	var field Field
+	if s := sc.Factor(i, frame); s > 0 {
+		field = sc.Fields[i].scalable().Scaled(s)
+		if subsetSize > 1 {
+			field = sc.subsetMeans(field, subsetSize)
+		}
+	}
+	out := &dic.Field{Index: frame, Name: sc.FrameName(frame), Grid: g, Points: make([]dic.Point, g.Len())}
+	for k := range out.Points {
+		x, y := g.Pos(k)
+		p := &out.Points[k]
+		p.X, p.Y = x, y
+		if (measured != nil && !measured[k]) || !sc.Material(float64(x), float64(y), 0) {
+			p.Status = subset.Masked
+			continue
+		}
+		p.Status, p.ZNCC = subset.Converged, 1
+		if field != nil {
+			m := field.At(float64(x), float64(y))
+			p.P[subset.PU], p.P[subset.PV] = m.U, m.V
+		}
+	}
+	return out, nil
+}
+
+// FeatureBoxGammaOnGrid returns, per point of grid g, the box-mean truth
+// of damage field i at frame: γmax of the feature's own mean displacement
+// gradient over the square VSG window centred on the point (the windows of
+// FeatureTruthOnGrid, see Placement), NaN where that window leaves the
+// image or holds less than half its links in rock. It is FeatureTruthOnGrid's
+// value cell by cell, for comparison with a strain window's response.
+func (sc *Scenario) FeatureBoxGammaOnGrid(i, frame, vsg int, g dic.Grid) ([]float64, error) {
+	if vsg < 2 || vsg >= sc.Width || vsg >= sc.Height {
+		return nil, fmt.Errorf("feature box truth: VSG %d px, expected 2 px up to less than the %dx%d image", vsg, sc.Width, sc.Height)
+	}
+	if i < 0 || i >= len(sc.Fields) {
+		return nil, fmt.Errorf("feature box truth: field %d, expected 0 to %d", i, len(sc.Fields)-1)
+	}
+	if frame < 0 || frame >= sc.Frames {
+		return nil, fmt.Errorf("feature box truth: frame %d, expected 0 to %d", frame, sc.Frames-1)
+	}
+	out := make([]float64, g.Len())
+	for k := range out {
+		out[k] = math.NaN()
+	}
+	s := sc.Factor(i, frame)
+	rock := make([]bool, sc.Width*sc.Height)
+	for y := 0; y < sc.Height; y++ {
+		for x := 0; x < sc.Width; x++ {
+			rock[y*sc.Width+x] = sc.Material(float64(x), float64(y), 0)
+		}
+	}
+	m := newWindowMeans(sc.Width, sc.Height, rock)
+	var field Field = Sum{} // no motion before the feature moves
+	if s > 0 {
+		field = sc.Fields[i].scalable().Scaled(s)
+	}
+	m.sample(field)
+	full := float64(vsg * (vsg + 1))
+	for k := range out {
+		px, py := g.Pos(k)
+		x0, y0 := px-vsg/2, py-vsg/2
+		x1, y1 := x0+vsg, y0+vsg
+		if x0 < 0 || y0 < 0 || x1 >= m.w || y1 >= m.h {
+			continue
+		}
+		nh, nv := m.box(m.hn, x0, y0, x1-1, y1), m.box(m.vn, x0, y0, x1, y1-1)
+		if 2*nh < full || 2*nv < full {
+			continue
+		}
+		ux, vx := m.box(m.hu, x0, y0, x1-1, y1)/nh, m.box(m.hv, x0, y0, x1-1, y1)/nh
+		uy, vy := m.box(m.vu, x0, y0, x1, y1-1)/nv, m.box(m.vv, x0, y0, x1, y1-1)/nv
+		out[k] = gammaMax(ux, uy, vx, vy)
+	}
+	return out, nil
+}
+
+// subsetMean is a field's mean displacement over the rock pixels of the
+// square subset centred on a pixel (summed-area tables of the field
+// sampled at every pixel); At takes the nearest pixel.
+type subsetMean struct {
+	w, h, half int
+	su, sv, sn []float64 // (w+1)×(h+1) summed-area tables
+}
+
+func (sc *Scenario) subsetMeans(field Field, size int) subsetMean {
+	w, h := sc.Width, sc.Height
+	m := subsetMean{w: w, h: h, half: size / 2, su: make([]float64, (w+1)*(h+1)), sv: make([]float64, (w+1)*(h+1)), sn: make([]float64, (w+1)*(h+1))}
+	s := w + 1
+	for y := 0; y < h; y++ {
+		var ru, rv, rn float64
+		for x := 0; x < w; x++ {
+			if sc.Material(float64(x), float64(y), 0) {
+				mo := field.At(float64(x), float64(y))
+				ru, rv, rn = ru+mo.U, rv+mo.V, rn+1
+			}
+			i, up := (y+1)*s+x+1, y*s+x+1
+			m.su[i], m.sv[i], m.sn[i] = m.su[up]+ru, m.sv[up]+rv, m.sn[up]+rn
+		}
+	}
+	return m
+}
+
+// At returns the mean displacement of the subset centred on the pixel
+// nearest (x, y); its gradients are left zero (only U and V are read).
+func (m subsetMean) At(x, y float64) Motion {
+	cx, cy := int(math.Round(x)), int(math.Round(y))
+	x0, y0 := max(cx-m.half, 0), max(cy-m.half, 0)
+	x1, y1 := min(cx+m.half, m.w-1), min(cy+m.half, m.h-1)
+	if x0 > x1 || y0 > y1 {
+		return Motion{}
+	}
+	s := m.w + 1
+	box := func(t []float64) float64 {
+		return t[(y1+1)*s+x1+1] - t[y0*s+x1+1] - t[(y1+1)*s+x0] + t[y0*s+x0]
+	}
+	n := box(m.sn)
+	if n == 0 {
+		return Motion{}
+	}
+	return Motion{U: box(m.su) / n, V: box(m.sv) / n}
 }

@@ -4,7 +4,9 @@ import (
 	"math"
 	"testing"
 
+	"spallscope/dic"
 	"spallscope/dic/sector"
+	"spallscope/subset"
 )
 
 // straightBand is a band along x through y = 60 whose taper and decay are
@@ -181,5 +183,67 @@ func TestFeatureTruthOpeningsAndSectors(t *testing.T) {
 	}
 	if _, err := sc.FeatureTruth(20, 0); err == nil {
 		t.Error("a zero limit was accepted")
+	}
+}
+
+// A feature's own displacement on a grid (FeatureFieldOnGrid), worked by
+// hand on the straight band (u = (S/2)·tanh((y − 60)/h) along x): point
+// samples are the profile itself; a 21 px subset's mean on the centre line
+// is 0 (an odd profile over a symmetric subset), and 5 px off it the terms
+// at y − 60 = −5…5 cancel, leaving (S/2)·Σ_{d=−15}^{−6} tanh(d/h) / 21.
+// Points flagged unmeasured, and a frame before the band moves, give
+// masked points and zero displacement.
+func TestFeatureFieldOnGrid(t *testing.T) {
+	const slip, h = 2.0, 2.0
+	b := straightBand(slip, h)
+	sc := flatScenario(FieldSpec{Band: &b, Drive: DriveGrowth, StartFrame: 10, FullFrame: 30})
+	g := dic.Grid{X0: 20, Y0: 20, Step: 5, Cols: 16, Rows: 16} // rows at 20, 25, …, 95
+	measured := make([]bool, g.Len())
+	for i := range measured {
+		measured[i] = i%7 != 0
+	}
+	row := func(y int) int { return g.Index(3, (y-20)/5) }
+	pts, err := sc.FeatureFieldOnGrid(0, 30, g, measured, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got, want := pts.Points[row(55)].P[subset.PU], slip/2*math.Tanh(-5/h); math.Abs(got-want) > 1e-6 {
+		t.Errorf("point sample at y = 55: u %.9f, want %.9f", got, want)
+	}
+	mean, err := sc.FeatureFieldOnGrid(0, 30, g, measured, 21)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var tail float64
+	for d := -15; d <= -6; d++ {
+		tail += math.Tanh(float64(d) / h)
+	}
+	for _, c := range []struct {
+		y    int
+		want float64
+	}{{60, 0}, {55, slip / 2 * tail / 21}} {
+		if got := mean.Points[row(c.y)].P[subset.PU]; math.Abs(got-c.want) > 1e-6 {
+			t.Errorf("21 px subset mean at y = %d: u %.9f, want %.9f", c.y, got, c.want)
+		}
+	}
+	for i, p := range mean.Points {
+		if p.Valid() != measured[i] {
+			t.Fatalf("point %d valid %v, want %v (the measured flags)", i, p.Valid(), measured[i])
+		}
+	}
+	before, err := sc.FeatureFieldOnGrid(0, 5, g, nil, 21)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, p := range before.Points {
+		if p.P[subset.PU] != 0 || p.P[subset.PV] != 0 || !p.Valid() {
+			t.Fatalf("frame 5, before the band moves: %+v, want a measured point at rest", p)
+		}
+	}
+	if _, err := sc.FeatureFieldOnGrid(0, 30, g, measured, 20); err == nil {
+		t.Error("an even subset: no error")
+	}
+	if _, err := sc.FeatureFieldOnGrid(0, 30, g, measured[:3], 0); err == nil {
+		t.Error("3 measured flags for 256 points: no error")
 	}
 }

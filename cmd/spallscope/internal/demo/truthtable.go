@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"strconv"
 
+	"spallscope/dic"
 	"spallscope/dic/runfolder"
 	"spallscope/dic/synth"
 	"spallscope/strain"
@@ -16,7 +17,14 @@ import (
 
 // TruthRow is one line of the demo's truth table: a damage feature of a
 // face, where it starts, when it starts (its hidden start) and the first
-// frame at which the face's run could report it (synth.FeatureTruth).
+// frame at which the face's run could report it. With the face's run at
+// hand that is the kernel truth (strain.KernelTruth: the feature's own
+// displacement, as the run's subsets would report it at the run's measured
+// grid points, through the run's own strain window, above the run's γmax
+// detection limit raised at each point by its window's noise gain), the
+// earliest frame a run with that strain window could report; the box
+// truth (synth.FeatureTruthOnGrid: the exact gradient averaged over the
+// VSG, windows centred on the grid's points) is kept beside it.
 type TruthRow struct {
 	Face    string
 	Feature string
@@ -25,9 +33,13 @@ type TruthRow struct {
 	Sector  string
 	Wall    string // in a pillar, the pillar's wall of that opening
 	// HiddenStart and Detectable are frame indices (Detectable −1:
-	// never), with their frames' names.
+	// never), with their frames' names. Detectable is the kernel truth's
+	// where Kernel, else the box truth's (BoxDetectable).
 	HiddenStart, Detectable        int
 	HiddenName, DetectableName     string
+	Kernel                         bool
+	BoxDetectable                  int
+	BoxDetectableName              string
 	VSG                            int
 	Limit                          float64 // the γmax limit applied
 	LimitFromRun                   bool    // the face run's own limit, VSG and grid, not the truth file's nominal ones
@@ -53,7 +65,8 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 			continue
 		}
 		features, limit, fromRun := f.truth.Features, f.truth.Detection.Limit, false
-		if run, ok := runMeasurement(faceDir(f.name)); ok {
+		run, haveRun := runMeasurement(faceDir(f.name))
+		if haveRun {
 			if fs, err := f.sc.FeatureTruthOnGrid(run.vsg, run.limit, run.grid); err == nil {
 				features, limit, fromRun = fs, run.limit, true
 			}
@@ -71,22 +84,50 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 			return f.sc.Stress(i)
 		}
 		for _, ft := range features {
-			det := ft.FirstAbove(limit)
+			boxDet := ft.FirstAbove(limit)
+			det, kernel := boxDet, false
+			if fromRun && run.window.Size > 0 && ft.Kind != synth.FeatureSpall {
+				if kt, err := kernelTruth(f.sc, ft.Field, run); err == nil {
+					det, kernel = kt.FirstAboveNoise(run.limit), true
+				}
+			}
 			rows = append(rows, TruthRow{Face: f.name, Feature: ft.Feature, Kind: ft.Kind, Opening: OpeningName(ft.Opening),
 				Sector: string(ft.Sector), Wall: string(ft.Wall), HiddenStart: ft.HiddenStart, Detectable: det,
-				HiddenName: name(ft.HiddenStart), DetectableName: name(det), VSG: ft.VSG, Limit: limit, LimitFromRun: fromRun,
-				HiddenStress: stress(ft.HiddenStart), DetectableStress: stress(det)})
+				HiddenName: name(ft.HiddenStart), DetectableName: name(det), Kernel: kernel, BoxDetectable: boxDet, BoxDetectableName: name(boxDet),
+				VSG: ft.VSG, Limit: limit, LimitFromRun: fromRun, HiddenStress: stress(ft.HiddenStart), DetectableStress: stress(det)})
 		}
 	}
 	return rows
 }
 
 // measurement is what a run measured strain with: its γmax detection
-// limit, its VSG and its grid.
+// limit, its VSG and its grid; and, when its strain record and first
+// field are readable, its strain window, subset size and measured points
+// (window.Size 0: not known).
 type measurement struct {
-	limit float64
-	vsg   int
-	grid  synth.Placement
+	limit    float64
+	vsg      int
+	grid     synth.Placement
+	track    dic.Grid
+	window   strain.Window
+	subset   int
+	measured []bool
+}
+
+// kernelTruth is field i's kernel truth in γmax on run's grid: its own
+// displacement as the run's subsets report it (synth.FeatureFieldOnGrid,
+// the subset's mean) at the run's measured points, through the run's
+// strain window.
+func kernelTruth(sc *synth.Scenario, i int, run measurement) (strain.KernelTruth, error) {
+	fields := make([]*dic.Field, sc.Frames)
+	for f := range fields {
+		df, err := sc.FeatureFieldOnGrid(i, f, run.track, run.measured, run.subset)
+		if err != nil {
+			return strain.KernelTruth{}, err
+		}
+		fields[f] = df
+	}
+	return run.window.KernelTruth(fields, strain.MaxShear)
 }
 
 // runMeasurement reads the γmax detection limit and VSG of the run in dir
@@ -108,30 +149,60 @@ func runMeasurement(dir string) (measurement, bool) {
 	}
 	for _, l := range rep.Limits {
 		if l.Indicator == strain.MaxShear && l.Strain > 0 && l.VSG >= 2 {
-			return measurement{limit: l.Strain, vsg: l.VSG, grid: synth.Placement{X0: track.Grid.X0, Y0: track.Grid.Y0, Step: track.Grid.Step}}, true
+			m := measurement{limit: l.Strain, vsg: l.VSG, grid: synth.Placement{X0: track.Grid.X0, Y0: track.Grid.Y0, Step: track.Grid.Step}, track: track.Grid}
+			m.window, m.subset, m.measured = runWindow(dir, track)
+			return m, true
 		}
 	}
 	return measurement{}, false
+}
+
+// runWindow reads the strain window and subset size of the run in dir
+// (run.json's strain section) and its measured points (those valid in the
+// field of its first tracked frame, on the track grid); a zero window
+// when either is missing.
+func runWindow(dir string, track runfolder.TrackRecord) (strain.Window, int, []bool) {
+	var sr strainfile.StrainRecord
+	if runfolder.Section(dir, "strain", &sr) != nil || sr.Window < 3 || len(track.Frames) == 0 {
+		return strain.Window{}, 0, nil
+	}
+	ref, err := runfolder.ReadField(runfolder.FieldPath(dir, track.Frames[0]))
+	if err != nil || ref.Grid != track.Grid {
+		return strain.Window{}, 0, nil
+	}
+	measured := make([]bool, len(ref.Points))
+	for i, p := range ref.Points {
+		measured[i] = p.Valid()
+	}
+	return strain.Window{Size: sr.Window, Order: sr.Order, Measure: sr.Measure}, sr.Subset, measured
 }
 
 // WriteTruthTable writes the rows as CSV (atomically): face, feature,
 // kind, opening, sector, wall, hidden_start_frame, hidden_start_name,
 // hidden_start_stress_MPa, detectable_frame (−1: never), detectable_name,
 // detectable_stress_MPa, vsg_px, limit_gamma_max, limit_source (run or
-// nominal).
+// nominal), detectable_source (kernel: the kernel truth, box: the box
+// truth), box_detectable_frame and box_detectable_name (the box truth's,
+// beside the kernel truth's).
 func WriteTruthTable(path string, rows []TruthRow) error {
 	return runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
 		cw := csv.NewWriter(w)
 		cw.Write([]string{"face", "feature", "kind", "opening", "sector", "wall", "hidden_start_frame", "hidden_start_name",
-			"hidden_start_stress_MPa", "detectable_frame", "detectable_name", "detectable_stress_MPa", "vsg_px", "limit_gamma_max", "limit_source"})
+			"hidden_start_stress_MPa", "detectable_frame", "detectable_name", "detectable_stress_MPa", "vsg_px", "limit_gamma_max", "limit_source",
+			"detectable_source", "box_detectable_frame", "box_detectable_name"})
 		f := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
 		for _, r := range rows {
 			src := "nominal"
 			if r.LimitFromRun {
 				src = "run"
 			}
+			truth := "box"
+			if r.Kernel {
+				truth = "kernel"
+			}
 			cw.Write([]string{r.Face, r.Feature, r.Kind, r.Opening, r.Sector, r.Wall, strconv.Itoa(r.HiddenStart), r.HiddenName,
-				f(r.HiddenStress), strconv.Itoa(r.Detectable), r.DetectableName, f(r.DetectableStress), strconv.Itoa(r.VSG), f(r.Limit), src})
+				f(r.HiddenStress), strconv.Itoa(r.Detectable), r.DetectableName, f(r.DetectableStress), strconv.Itoa(r.VSG), f(r.Limit), src,
+				truth, strconv.Itoa(r.BoxDetectable), r.BoxDetectableName})
 		}
 		cw.Flush()
 		return cw.Error()

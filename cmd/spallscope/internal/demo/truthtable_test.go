@@ -83,3 +83,63 @@ func TestDemoDetectionIsTheStrainStagesVSG(t *testing.T) {
 		t.Errorf("synth.DemoDetection.VSG %d px, want the strain stage's %d px", synth.DemoDetection.VSG, want)
 	}
 }
+
+// With the run's strain record and its first field at hand, the table's
+// detectable frame is the kernel truth's (strain.KernelTruth), the box
+// truth's kept beside it. Worked by hand (strain's TestKernelTruthWorkedBand):
+// a straight band of slip 2 px and half-width 1 px at y = 63 px, growing
+// linearly from frame 10 to 30, on a step-8 grid from 4 px through a
+// 7-point strain window reads 2·3/(2·7·8) = 0.0536·g on the rows at 60 and
+// 68 px (point samples: a 1 px subset), above the limit 0.02 from frame 18;
+// the 69 px box centred there reads 2/69 = 0.0290·g, above it from frame 24.
+// The CSV's detectable_source says kernel, its box columns say 24.
+func TestTruthTableTakesTheKernelTruth(t *testing.T) {
+	b := synth.ShearBand{X0: -1000, Y0: 63, X1: 1e8, Y1: 63, Slip: 2, HalfWidth: 1, Decay: 1e9}
+	sc := &synth.Scenario{Name: "tk", Width: 120, Height: 120, Frames: 31, FPS: 1,
+		Pattern: synth.Pattern{Radius: 2, Coverage: 0.5, Seed: 1},
+		Fields:  []synth.FieldSpec{{Band: &b, Drive: synth.DriveGrowth, StartFrame: 10, FullFrame: 30}}}
+	features, err := sc.FeatureTruth(69, 0.02)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := &Demo{Front: sc, Truth: &synth.Truth{Detection: synth.Detection{VSG: 69, Limit: 0.02}, Features: features}}
+	dir := t.TempDir()
+	g := dic.Grid{X0: 4, Y0: 4, Step: 8, Cols: 14, Rows: 14}
+	rep := map[string]any{"detection_limits": []strainfile.DetectionLimit{{Indicator: strain.MaxShear, Strain: 0.02, VSG: 69}}}
+	if err := runfolder.WriteJSON(filepath.Join(dir, strainfile.OnsetJSON), rep); err != nil {
+		t.Fatal(err)
+	}
+	if err := runfolder.SetSection(dir, "track", runfolder.TrackRecord{Grid: g, Frames: []string{sc.FrameName(0)}}); err != nil {
+		t.Fatal(err)
+	}
+	if err := runfolder.SetSection(dir, "strain", strainfile.StrainRecord{Window: 7, Order: 1, Measure: strain.Engineering, Step: 8, Subset: 1, VSG: 69}); err != nil {
+		t.Fatal(err)
+	}
+	ref, err := sc.FeatureFieldOnGrid(0, 0, g, nil, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.MkdirAll(filepath.Join(dir, runfolder.FieldsDir), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := runfolder.WriteField(runfolder.FieldPath(dir, sc.FrameName(0)), ref, 0); err != nil {
+		t.Fatal(err)
+	}
+	rows := d.TruthTable(func(string) string { return dir })
+	if len(rows) != 1 || !rows[0].Kernel || rows[0].Detectable != 18 || rows[0].BoxDetectable != 24 {
+		t.Fatalf("rows %+v, want one, the kernel truth's detectable frame 18 and the box truth's 24", rows)
+	}
+	path := filepath.Join(dir, TruthCSV)
+	if err := WriteTruthTable(path, rows); err != nil {
+		t.Fatal(err)
+	}
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, err := csv.NewReader(f).ReadAll()
+	if err != nil || len(recs) != 2 || recs[0][15] != "detectable_source" || recs[1][9] != "18" || recs[1][15] != "kernel" || recs[1][16] != "24" {
+		t.Errorf("csv %v %v", recs, err)
+	}
+}
