@@ -251,7 +251,9 @@ func (t *Tracker) nearestTrackable(x, y int) int {
 // returns its field in the original reference's coordinates. Frames must
 // come in order; the reference frame itself gives zero displacement. A
 // point whose deformed subset lands on a pixel of img that is NaN or
-// infinite is lost.
+// infinite is lost. The tracker holds no reference to img once Track
+// returns (in incremental mode it keeps a copy), so the caller may decode
+// the next frame into img's storage (frames.Sequence.ReadInto).
 func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, error) {
 	if !img.SameSize(t.origin) {
 		return nil, fmt.Errorf("frame %d (%s): size %dx%d, expected %dx%d like the reference", index, name, img.Width, img.Height, t.origin.Width, t.origin.Height)
@@ -296,8 +298,7 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 }
 
 // keepLast copies img into the tracker's own image of the last frame, so
-// that the caller may reuse img's storage for the next frame (see
-// frames.Reader). When the last copy has become the reference, a former
+// that the caller may reuse img's storage for the next frame. When the last copy has become the reference, a former
 // reference's copy is reused if there is one.
 func (t *Tracker) keepLast(img *subset.Image) {
 	if t.last == nil || t.last == t.ref {

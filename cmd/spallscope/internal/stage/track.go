@@ -12,6 +12,7 @@ import (
 	"spallscope/dic/frames"
 	"spallscope/dic/lens"
 	"spallscope/dic/runfolder"
+	"spallscope/subset"
 )
 
 // ErrNothingMeasured is wrapped by Track's error when no point was
@@ -54,11 +55,15 @@ func Track(ctx context.Context, dir string, seq frames.Sequence, tracker *dic.Tr
 	for i := 0; i < from && i < seq.Len(); i++ {
 		rec.Frames = append(rec.Frames, seq.Name(i))
 	}
+	// Every frame is decoded into the storage of the one before: the
+	// tracker keeps no frame of the caller's (dic.Tracker.Track).
+	var img *subset.Image
 	for i := from; i < seq.Len(); i++ {
 		if ctx.Err() != nil {
 			return rec, &Stopped{Stage: "track", Done: i, Total: seq.Len(), Cause: context.Cause(ctx)}
 		}
-		img, err := seq.Read(i)
+		var err error
+		img, err = seq.ReadInto(i, img)
 		if err != nil {
 			return rec, fmt.Errorf("track stopped; the fields of frames before %d are in %s: %w", i, filepath.Join(dir, runfolder.FieldsDir), err)
 		}
