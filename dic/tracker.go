@@ -386,7 +386,7 @@ func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, st *starts) []
 	n := t.grid.Len()
 	c := &t.work
 	c.tr, c.ref, c.def, c.refImg, c.image, c.mask, c.centres = t, t.refSp, sp, t.ref, img, t.refMask, t.centres
-	c.state, c.res = resized(c.state, n), resized(c.res, n)
+	c.state, c.res, c.queue = resized(c.state, n), resized(c.res, n), c.queue[:0]
 	for i := range c.state {
 		switch {
 		case t.static[i] != subset.Converged:
@@ -448,7 +448,14 @@ func (t *Tracker) compose(inc []subset.Result, index int, name string) *Field {
 // displacement field. sp is img's spline, or nil to build it.
 func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *subset.Spline) {
 	t.ref, t.refIndex, t.base = img, index, base
-	if sp == nil {
+	switch {
+	case sp != nil:
+	case t.refSp != nil:
+		// The former reference's spline is not needed again: reloaded
+		// rather than left to the collector (4 bytes a pixel).
+		t.refSp.Reload(img)
+		sp = t.refSp
+	default:
 		sp = subset.NewSpline(img, t.s.Interpolation)
 	}
 	t.refSp = sp

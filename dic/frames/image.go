@@ -47,6 +47,7 @@ func ReadImageInto(path string, dst *subset.Image) (*subset.Image, error) {
 	if err := checkImageHeader(path); err != nil {
 		return nil, err
 	}
+	returnLargeBlocks()
 	m := gocv.IMRead(path, gocv.IMReadAnyDepth|gocv.IMReadAnyColor)
 	defer m.Close()
 	if m.Empty() {
@@ -70,6 +71,7 @@ func FromMat(m gocv.Mat) (*subset.Image, error) { return FromMatInto(m, nil) }
 // at 20 MP); they equal OpenCV's own conversion (convertTo CV_32F), which
 // is exact for integers below 2²⁴.
 func FromMatInto(m gocv.Mat, dst *subset.Image) (*subset.Image, error) {
+	returnLargeBlocks()
 	gray := m
 	switch m.Channels() {
 	case 1:
