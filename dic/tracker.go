@@ -298,8 +298,9 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 }
 
 // keepLast copies img into the tracker's own image of the last frame, so
-// that the caller may reuse img's storage for the next frame. When the last copy has become the reference, a former
-// reference's copy is reused if there is one.
+// that the caller may reuse img's storage for the next frame. When the
+// last copy has become the reference, a former reference's copy (spare
+// for the length of one Track) is reused if there is one.
 func (t *Tracker) keepLast(img *subset.Image) {
 	if t.last == nil || t.last == t.ref {
 		t.last, t.spareImage = t.spareImage, nil
