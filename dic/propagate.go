@@ -45,6 +45,50 @@ type correlation struct {
 	// seed's jump from its own in part k.
 	st   *starts
 	jump [][2]float64
+	// znssd is scratch for flagResiduals.
+	znssd []float64
+	// made counts the sample buffers made, at most maxSamples; slab is
+	// the rest of the block the next ones are cut from.
+	made int
+	slab samplesSlab
+}
+
+// resized returns s with length n and every element zero, in s's storage
+// when it is large enough.
+func resized[S ~[]E, E any](s S, n int) S {
+	if cap(s) < n {
+		return make(S, n)
+	}
+	s = s[:n]
+	clear(s)
+	return s
+}
+
+// samplesSlab hands out sample buffers cut from blocks of samplesBlock,
+// so that a buffer costs its values and no more: one made alone, 3528 B
+// for a 21 px subset, takes a 4096 B size class of the allocator.
+type samplesSlab struct {
+	bufs []subset.Samples
+	vals []float64
+}
+
+// samplesBlock is the number of buffers allocated at a time.
+const samplesBlock = 256
+
+// next returns an empty Samples for subsets of the given radius, as
+// subset.NewSamples makes it (its values G, side×side, and nothing else
+// set).
+func (s *samplesSlab) next(radius int) *subset.Samples {
+	side := 2*radius + 1
+	if len(s.bufs) == 0 || len(s.vals) < side*side {
+		s.bufs = make([]subset.Samples, samplesBlock)
+		s.vals = make([]float64, samplesBlock*side*side)
+	}
+	b := &s.bufs[0]
+	s.bufs = s.bufs[1:]
+	b.G = s.vals[: side*side : side*side]
+	s.vals = s.vals[side*side:]
+	return b
 }
 
 // maxSamples bounds the sample buffers a tracker holds. The propagation
@@ -68,23 +112,22 @@ func (c *correlation) keepFor(i int) *subset.Samples {
 		c.spare = c.spare[:n-1]
 		return s
 	}
-	if c.tr.samplesMade >= maxSamples {
+	if c.made >= maxSamples {
 		return nil
 	}
-	c.tr.samplesMade++
-	return subset.NewSamples(c.tr.s.Subset / 2)
+	c.made++
+	return c.slab.next(c.tr.s.Subset / 2)
 }
 
-// reclaim returns every sample buffer of the correlation, spare or still
-// held, for the next frame's.
-func (c *correlation) reclaim() []*subset.Samples {
+// reclaim returns every sample buffer still held to the spare ones, for
+// the next frame's.
+func (c *correlation) reclaim() {
 	for i, s := range c.samples {
 		if s != nil {
 			c.spare = append(c.spare, s)
 			c.samples[i] = nil
 		}
 	}
-	return c.spare
 }
 
 // release returns point i's samples, if any, to the spare buffers.
@@ -107,7 +150,7 @@ func (c *correlation) release(i int) {
 func (c *correlation) run(st *starts) []subset.Result {
 	t := c.tr
 	c.st = st
-	c.jump = make([][2]float64, len(t.seeds))
+	c.jump = resized(c.jump, len(t.seeds))
 	for comp, cands := range t.seeds {
 		c.jump[comp], _ = c.seed(cands, st)
 	}
@@ -150,12 +193,13 @@ func (c *correlation) flagResiduals() {
 	if k <= 0 {
 		return
 	}
-	var z []float64
+	z := c.znssd[:0]
 	for _, r := range c.res {
 		if r.Status == subset.Converged {
 			z = append(z, 2*(1-r.ZNCC))
 		}
 	}
+	c.znssd = z
 	limit := math.Max(k*median(z), 2*(1-0.995))
 	for i, r := range c.res {
 		if r.Status == subset.Converged && 2*(1-r.ZNCC) > limit {

@@ -41,6 +41,9 @@ func acceptBelow(neighbourZNCC float64) float64 {
 // ratio of the index steps): frames of a test come at a steady rate or
 // close to it, and where the motion departs from the line (a hold, an
 // unloading) the neighbour's guess, which is tried first, takes over.
+// The extrapolated guesses are written over the older solution, which
+// nothing needs after them (Track recycles its storage): startsFor is
+// called once a frame.
 func (t *Tracker) startsFor(index int) *starts {
 	if t.prevInc == nil {
 		return nil
@@ -50,16 +53,17 @@ func (t *Tracker) startsFor(index int) *starts {
 		return st
 	}
 	r := float64(index-t.prevIndex) / float64(t.prevIndex-t.olderIndex)
-	st.guess = make([]subset.Params, len(t.prevInc))
+	guess := t.olderInc
 	for i, p := range t.prevInc {
-		st.guess[i] = p
+		q := guess[i]
+		guess[i] = p
 		if !t.prevIncOK[i] || !t.olderIncOK[i] {
 			continue
 		}
-		q := t.olderInc[i]
 		for k := range p {
-			st.guess[i][k] = p[k] + r*(p[k]-q[k])
+			guess[i][k] = p[k] + r*(p[k]-q[k])
 		}
 	}
+	st.guess = guess
 	return st
 }

@@ -42,18 +42,22 @@ type Tracker struct {
 	prevIncOK []bool
 	prevIndex int // its frame's index
 	// The solution of the frame before prev's against the same reference
-	// (nil if none), for extrapolating each point's motion in time.
+	// (nil if none), for extrapolating each point's motion in time;
+	// startsFor overwrites it with the next frame's first guesses.
 	olderInc   []subset.Params
 	olderIncOK []bool
 	olderIndex int
-	last       *subset.Image  // last frame (prevIndex), a candidate new reference
+	// spareInc and spareIncOK are the storage of a solution no longer
+	// needed, for the next frame's: at 20 MP a solution is 19 MB.
+	spareInc   []subset.Params
+	spareIncOK []bool
+	last       *subset.Image  // last frame (prevIndex), a candidate new reference: the tracker's own copy
+	spareImage *subset.Image  // a former reference's copy, for the next copy of a frame
 	cur        *subset.Spline // the frame being tracked, reloaded frame after frame
-	// spare are sample buffers for propagation kept from frame to frame:
-	// a frame holds up to one per point of its propagation queue, 3.5 kB
-	// each for 21 px subsets, which would otherwise be left to the
-	// collector each frame.
-	spare       []*subset.Samples
-	samplesMade int // buffers made, at most maxSamples
+	// work is the correlation of one frame, its per-point state, results,
+	// queue and sample buffers kept from frame to frame, so that a frame
+	// allocates nothing per point but its field (see correlation).
+	work correlation
 }
 
 // NewTracker prepares tracking of the grid over mask (nil: the whole
@@ -247,7 +251,9 @@ func (t *Tracker) nearestTrackable(x, y int) int {
 // returns its field in the original reference's coordinates. Frames must
 // come in order; the reference frame itself gives zero displacement. A
 // point whose deformed subset lands on a pixel of img that is NaN or
-// infinite is lost.
+// infinite is lost. The tracker holds no reference to img once Track
+// returns (in incremental mode it keeps a copy), so the caller may decode
+// the next frame into img's storage (frames.Sequence.ReadInto).
 func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, error) {
 	if !img.SameSize(t.origin) {
 		return nil, fmt.Errorf("frame %d (%s): size %dx%d, expected %dx%d like the reference", index, name, img.Width, img.Height, t.origin.Width, t.origin.Height)
@@ -266,24 +272,63 @@ func (t *Tracker) Track(img *subset.Image, index int, name string) (*Field, erro
 		// and correlate this one again against it.
 		// The points whose subsets reached unmeasured pixels of that frame
 		// were lost there, so none is correlated against them now.
+		displaced := t.ref
 		t.setReference(t.last, t.prevIndex, t.prev, nil)
+		if displaced != t.origin {
+			t.spareImage = displaced
+		}
 		inc = t.correlateFrame(img, sp, bad, nil)
 		f = t.compose(inc, index, name)
 	}
 	// After a reference update prevInc is nil: nothing older against the
-	// new reference.
+	// new reference. The older solution's storage, which startsFor turned
+	// into this frame's guesses, takes this frame's solution.
+	t.recycle(t.olderInc, t.olderIncOK)
 	t.olderInc, t.olderIncOK, t.olderIndex = t.prevInc, t.prevIncOK, t.prevIndex
-	t.prevInc = make([]subset.Params, len(inc))
-	t.prevIncOK = make([]bool, len(inc))
+	t.prevInc, t.prevIncOK = t.solutionStorage(len(inc))
 	for i, r := range inc {
 		t.prevInc[i], t.prevIncOK[i] = r.P, r.Status == subset.Converged
 	}
 	t.prevIndex = index
 	t.prev = f
 	if t.s.Reference == IncrementalReference {
-		t.last = img
+		t.keepLast(img)
 	}
 	return f, nil
+}
+
+// keepLast copies img into the tracker's own image of the last frame, so
+// that the caller may reuse img's storage for the next frame. When the
+// last copy has become the reference, a former reference's copy (spare
+// for the length of one Track) is reused if there is one.
+func (t *Tracker) keepLast(img *subset.Image) {
+	if t.last == nil || t.last == t.ref {
+		t.last, t.spareImage = t.spareImage, nil
+		if t.last == nil {
+			t.last = &subset.Image{Width: img.Width, Height: img.Height, Pix: make([]float32, len(img.Pix))}
+		}
+	}
+	t.last.Depth = img.Depth
+	copy(t.last.Pix, img.Pix)
+}
+
+// recycle keeps the storage of a solution no longer needed (nil: none)
+// for solutionStorage.
+func (t *Tracker) recycle(p []subset.Params, ok []bool) {
+	if p != nil && cap(p) >= cap(t.spareInc) {
+		t.spareInc, t.spareIncOK = p, ok
+	}
+}
+
+// solutionStorage returns storage for a solution of n points: the spare
+// one when there is one, else new.
+func (t *Tracker) solutionStorage(n int) ([]subset.Params, []bool) {
+	p, ok := t.spareInc, t.spareIncOK
+	t.spareInc, t.spareIncOK = nil, nil
+	if cap(p) < n || cap(ok) < n {
+		return make([]subset.Params, n), make([]bool, n)
+	}
+	return p[:n], ok[:n]
 }
 
 // correlateFrame correlates a frame whose unmeasured pixels (nil: none)
@@ -336,14 +381,13 @@ func (t *Tracker) Resume(fields ...*Field) error {
 	return nil
 }
 
-// correlate runs one frame against the current reference.
+// correlate runs one frame against the current reference. The results
+// are the tracker's storage, valid until the next call.
 func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, st *starts) []subset.Result {
 	n := t.grid.Len()
-	c := &correlation{
-		tr: t, ref: t.refSp, def: sp, refImg: t.ref, image: img, mask: t.refMask,
-		centres: t.centres, state: make([]uint8, n), res: make([]subset.Result, n),
-		spare: t.spare,
-	}
+	c := &t.work
+	c.tr, c.ref, c.def, c.refImg, c.image, c.mask, c.centres = t, t.refSp, sp, t.ref, img, t.refMask, t.centres
+	c.state, c.res, c.queue = resized(c.state, n), resized(c.res, n), c.queue[:0]
 	for i := range c.state {
 		switch {
 		case t.static[i] != subset.Converged:
@@ -355,7 +399,9 @@ func (t *Tracker) correlate(img *subset.Image, sp *subset.Spline, st *starts) []
 		}
 	}
 	res := c.run(st)
-	t.spare = c.reclaim()
+	c.reclaim()
+	// The frame and its guesses are not held between frames.
+	c.def, c.image, c.st = nil, nil, nil
 	return res
 }
 
@@ -403,7 +449,14 @@ func (t *Tracker) compose(inc []subset.Result, index int, name string) *Field {
 // displacement field. sp is img's spline, or nil to build it.
 func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *subset.Spline) {
 	t.ref, t.refIndex, t.base = img, index, base
-	if sp == nil {
+	switch {
+	case sp != nil:
+	case t.refSp != nil:
+		// The former reference's spline is not needed again: reloaded
+		// rather than left to the collector (4 bytes a pixel).
+		t.refSp.Reload(img)
+		sp = t.refSp
+	default:
 		sp = subset.NewSpline(img, t.s.Interpolation)
 	}
 	t.refSp = sp
@@ -411,6 +464,7 @@ func (t *Tracker) setReference(img *subset.Image, index int, base *Field, sp *su
 	n := t.grid.Len()
 	t.centres = make([][2]int, n)
 	t.frac = make([][2]float64, n)
+	t.recycle(t.prevInc, t.prevIncOK)
 	t.prevInc, t.prevIncOK = nil, nil
 	t.olderInc, t.olderIncOK = nil, nil
 	for i := 0; i < n; i++ {

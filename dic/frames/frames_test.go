@@ -1,15 +1,18 @@
 package frames
 
 import (
+	"fmt"
 	"image"
 	"image/color"
 	"image/png"
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 	"time"
+	"unsafe"
 
 	"gocv.io/x/gocv"
 	"golang.org/x/image/bmp"
@@ -359,5 +362,81 @@ func TestFrameTimesRefused(t *testing.T) {
 	os.Chtimes(filepath.Join(dir, "a_2.png"), at.Add(time.Second), at.Add(time.Second))
 	if _, err := ModTimes(seq); err == nil || !strings.Contains(err.Error(), "a_3.png is not modified after") || !strings.Contains(err.Error(), "(-1.000 s)") {
 		t.Errorf("backward file times: error %v, want a_3 named, 1 s back", err)
+	}
+}
+
+// A sequence read into one image fills that image's storage frame after
+// frame, with every level as Go's image/png encoded it (an encoder
+// independent of OpenCV): 8-bit and 16-bit frames, and a 32-bit float
+// Mat through FromMatInto. A frame of another size gets a new image.
+func TestReadIntoReusesStorage(t *testing.T) {
+	dir := t.TempDir()
+	level8 := func(k int) func(x, y int) uint8 { return func(x, y int) uint8 { return uint8(x*7 + y*13 + k*29) } }
+	for k := range 3 {
+		m := image.NewGray(image.Rect(0, 0, 31, 17))
+		for y := 0; y < 17; y++ {
+			for x := 0; x < 31; x++ {
+				m.SetGray(x, y, color.Gray{Y: level8(k)(x, y)})
+			}
+		}
+		writePNG(t, filepath.Join(dir, fmt.Sprintf("f%d.png", k)), m)
+	}
+	seq, err := Open(dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var img *subset.Image
+	var first *float32
+	for k := range 3 {
+		if img, err = seq.ReadInto(k, img); err != nil {
+			t.Fatal(err)
+		}
+		if k == 0 {
+			first = &img.Pix[0]
+		} else if &img.Pix[0] != first {
+			t.Fatalf("frame %d: decoded into new storage, want the image passed in", k)
+		}
+		for y := 0; y < 17; y++ {
+			for x := 0; x < 31; x++ {
+				if got, want := img.At(x, y), float32(level8(k)(x, y)); got != want {
+					t.Fatalf("frame %d pixel (%d,%d) = %v, want %v", k, x, y, got, want)
+				}
+			}
+		}
+		if img.Depth != 8 {
+			t.Fatalf("frame %d: depth %d, want 8", k, img.Depth)
+		}
+	}
+
+	level16 := func(x, y int) uint16 { return uint16(x*1031 + y*4099 + 7) }
+	path := filepath.Join(dir, "g.png")
+	writePNG(t, path, gray16(31, 17, level16))
+	back, err := ReadImageInto(path, img)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if back != img || back.Depth != 16 || back.At(30, 16) != float32(level16(30, 16)) {
+		t.Errorf("16-bit frame into the 8-bit frame's image: same image %v, depth %d, last pixel %v, want true, 16, %v",
+			back == img, back.Depth, back.At(30, 16), level16(30, 16))
+	}
+	small := filepath.Join(dir, "s.png")
+	writePNG(t, small, gray16(5, 4, level16))
+	if back, err = ReadImageInto(small, img); err != nil || back == img || back.Width != 5 || back.At(4, 3) != float32(level16(4, 3)) {
+		t.Errorf("5x4 frame into a 31x17 image: error %v, same image %v, want a new 5x4 image", err, back == img)
+	}
+
+	f := subset.NewImage(6, 2, 0)
+	for i := range f.Pix {
+		f.Pix[i] = float32(i)*0.37 - 1
+	}
+	mat, err := gocv.NewMatFromBytes(2, 6, gocv.MatTypeCV32F, unsafe.Slice((*byte)(unsafe.Pointer(&f.Pix[0])), 4*len(f.Pix)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer mat.Close()
+	dst := subset.NewImage(6, 2, 8)
+	got, err := FromMatInto(mat, dst)
+	if err != nil || got != dst || got.Depth != 0 || !slices.Equal(got.Pix, f.Pix) {
+		t.Errorf("float Mat into a 6x2 image: error %v, same image %v, depth %d, levels %v, want %v", err, got == dst, got.Depth, got.Pix, f.Pix)
 	}
 }

@@ -22,8 +22,12 @@ type Sequence interface {
 	Name(i int) string
 	// Source is where frame i comes from: its file path, or "video#i".
 	Source(i int) string
-	// Read decodes frame i.
+	// Read decodes frame i into a new image.
 	Read(i int) (*subset.Image, error)
+	// ReadInto decodes frame i into dst's storage when dst (nil: none)
+	// has the frame's size, else into a new image, and returns the
+	// image: a run reads its frames one after the other into one image.
+	ReadInto(i int, dst *subset.Image) (*subset.Image, error)
 	// ExpectSize sets the frame size every frame must have.
 	ExpectSize(width, height int)
 	// Close releases the decoder (video files keep one open).
@@ -154,16 +158,17 @@ func newFileSequence(paths []string) *fileSequence {
 	return s
 }
 
-func (s *fileSequence) Len() int            { return len(s.paths) }
-func (s *fileSequence) Name(i int) string   { return s.names[i] }
-func (s *fileSequence) Source(i int) string { return s.paths[i] }
-func (s *fileSequence) ExpectSize(w, h int) { s.size.set(w, h) }
-func (s *fileSequence) Close() error        { return nil }
-func (s *fileSequence) Read(i int) (*subset.Image, error) {
+func (s *fileSequence) Len() int                          { return len(s.paths) }
+func (s *fileSequence) Name(i int) string                 { return s.names[i] }
+func (s *fileSequence) Source(i int) string               { return s.paths[i] }
+func (s *fileSequence) ExpectSize(w, h int)               { s.size.set(w, h) }
+func (s *fileSequence) Close() error                      { return nil }
+func (s *fileSequence) Read(i int) (*subset.Image, error) { return s.ReadInto(i, nil) }
+func (s *fileSequence) ReadInto(i int, dst *subset.Image) (*subset.Image, error) {
 	if i < 0 || i >= len(s.paths) {
 		return nil, fmt.Errorf("frame %d: out of range (sequence has %d frames)", i, len(s.paths))
 	}
-	img, err := ReadImage(s.paths[i])
+	img, err := ReadImageInto(s.paths[i], dst)
 	if err != nil {
 		return nil, fmt.Errorf("frame %d: %w", i, err)
 	}

@@ -91,7 +91,8 @@ func (v *videoSequence) Source(i int) string {
 }
 func (v *videoSequence) ExpectSize(w, h int) { v.size.set(w, h) }
 
-func (v *videoSequence) Read(i int) (*subset.Image, error) {
+func (v *videoSequence) Read(i int) (*subset.Image, error) { return v.ReadInto(i, nil) }
+func (v *videoSequence) ReadInto(i int, dst *subset.Image) (*subset.Image, error) {
 	if i < 0 || i >= v.n {
 		return nil, fmt.Errorf("frame %d: out of range (video %s has %d frames)", i, v.path, v.n)
 	}
@@ -106,7 +107,7 @@ func (v *videoSequence) Read(i int) (*subset.Image, error) {
 		}
 		v.next++
 	}
-	img, err := FromMat(v.mat)
+	img, err := FromMatInto(v.mat, dst)
 	if err != nil {
 		return nil, fmt.Errorf("frame %d (%s): %w", i, v.Source(i), err)
 	}
