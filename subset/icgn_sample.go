@@ -15,3 +15,22 @@ func (s *Solver) sampleRuns(def *Spline) {
 		def.lineValues(s.ox[k], s.oy[k], s.ax, s.ay, 0, s.gs[rn.k0:rn.k0+rn.n])
 	}
 }
+
+// sampleRows sets the rows k0 ≤ k < k1 of gs (row k of a full square
+// subset is run k) to the deformed values under the affine warp already
+// set: in one call of the rows kernel on a cubic spline when there is one
+// (useVector), else row by row with lineValues, the same values bit for
+// bit.
+func (s *Solver) sampleRows(def *Spline, k0, k1 int) {
+	if k0 >= k1 {
+		return
+	}
+	side := 2*s.cfg.Radius + 1
+	if useVector && def.kind == Bicubic {
+		def.cubicGridVector(s.ox[k0:k1], s.oy[k0:k1], s.ax, s.ay, side, s.gs[k0*side:k1*side])
+		return
+	}
+	for k := k0; k < k1; k++ {
+		def.lineValues(s.ox[k], s.oy[k], s.ax, s.ay, 0, s.gs[k*side:(k+1)*side])
+	}
+}
