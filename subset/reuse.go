@@ -86,16 +86,18 @@ func (s *Solver) solveShared(ref, def *Spline, mask []uint8, x, y int, guess Par
 // centre) is pixel (i - dx, j - dy) of the prior's, where (dx, dy) is the
 // prior's centre minus this one's.
 //
-// The rows that share nothing, a block above or below the shared ones,
-// take one call of the rows kernel (sampleRows); the pieces of the other
-// rows either side of their shared span, a few pixels each, take one call
-// of the kernel at listed positions (values) rather than a call of
-// lineValues per piece: their positions are gathered into xs and ys
+// The pixels not shared take as few kernel calls as the layout allows,
+// rather than a call of lineValues per row piece: the rows that share
+// nothing (a block above or below the shared ones) one call of the rows
+// kernel (sampleRows); the pieces left of the shared spans (the prior to
+// the right), which start their rows, another, a pieces' width a row; the
+// pieces right of them (the prior to the left) one call of the kernel at
+// listed positions (values), their positions gathered into xs and ys
 // (free in the Affine order, which forms its positions on the fly) as
-// lineValues forms them, their values into ls, and scattered into gs
-// beside the shared ones. The kernels' values do not depend on the call,
-// block or lane a position falls in (see vector_amd64.go), so gs is, bit
-// for bit, what lineValues row piece by row piece would give.
+// lineValues forms them. The values go through ls into gs beside the
+// shared ones. The kernels' values do not depend on the call, block or
+// lane a position falls in (see vector_amd64.go), so gs is, bit for bit,
+// what lineValues row piece by row piece would give.
 func (s *Solver) sampleShared(def *Spline) {
 	r := s.cfg.Radius
 	side := 2*r + 1
@@ -117,15 +119,28 @@ func (s *Solver) sampleShared(def *Spline) {
 		}
 		return
 	}
+	rows := j1 - j0 + 1
+	if b == side {
+		// Only the pieces left of the shared span, each of a pixels from
+		// the row's start: the rows kernel over a pixels a row.
+		ls := s.ls[:rows*a]
+		s.sampleRowsInto(def, j0+r, j1+r+1, a, ls)
+		for j := j0; j <= j1; j++ {
+			row := s.gs[(j+r)*side : (j+r+1)*side]
+			pk := (j-dy+r)*side + a - dx
+			ls = ls[copy(row[:a], ls):]
+			copy(row[a:], s.prior.G[pk:pk+side-a])
+		}
+		return
+	}
+	// Only the pieces right of the shared span (the span starts each
+	// row, a is 0), which lineValues forms from pixel b on: their
+	// positions gathered as it forms them, for the kernel at listed
+	// positions.
 	xs, ys, ax, ay := s.xs, s.ys, s.ax, s.ay
 	m := 0
 	for j := j0; j <= j1; j++ {
 		ox, oy := s.ox[j+r], s.oy[j+r]
-		for i := 0; i < a; i++ {
-			t := float64(i)
-			xs[m], ys[m] = ox+float64(t*ax), oy+float64(t*ay)
-			m++
-		}
 		for i := b; i < side; i++ {
 			t := float64(i)
 			xs[m], ys[m] = ox+float64(t*ax), oy+float64(t*ay)
@@ -136,9 +151,8 @@ func (s *Solver) sampleShared(def *Spline) {
 	def.values(xs[:m], ys[:m], ls)
 	for j := j0; j <= j1; j++ {
 		row := s.gs[(j+r)*side : (j+r+1)*side]
-		pk := (j-dy+r)*side + a - dx
-		ls = ls[copy(row[:a], ls):]
-		copy(row[a:b], s.prior.G[pk:pk+b-a])
+		pk := (j-dy+r)*side - dx
+		copy(row[:b], s.prior.G[pk:pk+b])
 		ls = ls[copy(row[b:], ls):]
 	}
 }

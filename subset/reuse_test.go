@@ -129,7 +129,7 @@ func TestSampleSharedEqualsRows(t *testing.T) {
 	defImg := pat.render(testSize, testSize, func(x, y float64) (float64, float64) { return x - 0.37, y + 0.61 })
 	const radius = 10
 	const side = 2*radius + 1
-	offsets := [][2]int{{0, 0}, {5, 0}, {-10, 0}, {0, 7}, {3, -4}, {-20, 20}, {20, 0}, {0, -20}, {side, 0}, {0, -side}, {side, side}}
+	offsets := [][2]int{{0, 0}, {5, 0}, {-10, 0}, {1, 0}, {-1, 0}, {0, 7}, {3, -4}, {-3, 4}, {-20, 20}, {20, 0}, {0, -20}, {side, 0}, {0, -side}, {side, side}}
 	p := Params{PU: 0.37, PUx: 0.013, PUy: -0.007, PV: -0.61, PVx: 0.004, PVy: -0.011}
 	for _, kind := range kinds {
 		ref, def := NewSpline(refImg, kind), NewSpline(defImg, kind)
@@ -192,7 +192,8 @@ func abs(a int) int {
 }
 
 // BenchmarkSampleShared times one sampling of a full square subset with
-// samples shared with a neighbour a step away along x or y: sampleShared
+// samples shared with a neighbour a step away to the right, left, below
+// or above: sampleShared
 // (the pixels not shared in one listed call) against sampleSharedRows
 // (lineValues per row piece) on the same inputs in one run; their ratio
 // is the batching's gain.
@@ -209,16 +210,16 @@ func BenchmarkSampleShared(b *testing.B) {
 		}
 		s.prior = NewSamples(radius)
 		for _, step := range []int{5, 10} {
-			for _, along := range []string{"x", "y"} {
-				s.priorDX, s.priorDY = step, 0
-				if along == "y" {
-					s.priorDX, s.priorDY = 0, step
-				}
+			for _, along := range []struct {
+				name   string
+				dx, dy int
+			}{{"right", step, 0}, {"left", -step, 0}, {"below", 0, step}, {"above", 0, -step}} {
+				s.priorDX, s.priorDY = along.dx, along.dy
 				for _, way := range []struct {
 					name string
 					f    func(*Spline)
 				}{{"rows", s.sampleSharedRows}, {"listed", s.sampleShared}} {
-					b.Run(fmt.Sprintf("side=%d/step=%d/%s/%s", 2*radius+1, step, along, way.name), func(b *testing.B) {
+					b.Run(fmt.Sprintf("side=%d/step=%d/%s/%s", 2*radius+1, step, along.name, way.name), func(b *testing.B) {
 						for b.Loop() {
 							way.f(def)
 						}
