@@ -154,6 +154,7 @@ type Solver struct {
 	winV, winX, winY []float64
 	colV, colD       []float64
 	xs, ys, gs       []float64
+	ls               []float64 // the values sampleShared interpolates, listed (n)
 	// The affine warp of the current iteration: where each run's first
 	// pixel lands, and the step along the runs (see affineWarp).
 	ox, oy []float64
@@ -183,7 +184,7 @@ func NewSolver(cfg Config) *Solver {
 	side := 2*cfg.Radius + 1
 	area := side * side
 	np := cfg.Order.NumParams()
-	buf := make([]float64, 11*area+2*centreScratch(side))
+	buf := make([]float64, 12*area+2*centreScratch(side))
 	next := func(m int) []float64 {
 		b := buf[:m:m]
 		buf = buf[m:]
@@ -198,7 +199,7 @@ func NewSolver(cfg Config) *Solver {
 		dx: next(area), dy: next(area),
 		fc: next(area), gx: next(area), gy: next(area),
 		winV: next(area), winX: next(area), winY: next(area),
-		xs: next(area), ys: next(area), gs: next(area),
+		xs: next(area), ys: next(area), gs: next(area), ls: next(area),
 		colV: next(centreScratch(side)), colD: next(centreScratch(side)),
 	}
 	r := float64(cfg.Radius)

@@ -15,3 +15,30 @@ func (s *Solver) sampleRuns(def *Spline) {
 		def.lineValues(s.ox[k], s.oy[k], s.ax, s.ay, 0, s.gs[rn.k0:rn.k0+rn.n])
 	}
 }
+
+// sampleRows sets the rows k0 ≤ k < k1 of gs (row k of a full square
+// subset is run k) to the deformed values under the affine warp already
+// set (see sampleRowsInto).
+func (s *Solver) sampleRows(def *Spline, k0, k1 int) {
+	side := 2*s.cfg.Radius + 1
+	s.sampleRowsInto(def, k0, k1, side, s.gs[k0*side:max(k0, k1)*side])
+}
+
+// sampleRowsInto sets out to the deformed values of the first width
+// pixels of each of the rows k0 ≤ k < k1 of a full square subset under
+// the affine warp already set, row after row: in one call of the rows
+// kernel on a cubic spline when there is one (useVector), else row by
+// row with lineValues, the same values bit for bit.
+func (s *Solver) sampleRowsInto(def *Spline, k0, k1, width int, out []float64) {
+	if k0 >= k1 || width <= 0 {
+		return
+	}
+	if useVector && def.kind == Bicubic {
+		def.cubicGridVector(s.ox[k0:k1], s.oy[k0:k1], s.ax, s.ay, width, out)
+		return
+	}
+	for k := k0; k < k1; k++ {
+		o := (k - k0) * width
+		def.lineValues(s.ox[k], s.oy[k], s.ax, s.ay, 0, out[o:o+width])
+	}
+}

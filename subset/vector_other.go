@@ -2,8 +2,12 @@
 
 package subset
 
-// useVector is false where there are no vector kernels (other
-// architectures, or the purego build tag): the pure-Go loops run.
+// hasVector is false where there are no vector kernels (other
+// architectures, or the purego build tag).
+const hasVector = false
+
+// useVector is false where there are no vector kernels: the pure-Go
+// loops run.
 var useVector = false
 
 // affineSumsVector is affineSumsGo where there is no vector kernel.

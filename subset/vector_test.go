@@ -533,3 +533,25 @@ func BenchmarkAffineMoments(b *testing.B) {
 		})
 	}
 }
+
+// SetVectorForTesting switches the kernels off everywhere and on only
+// where they can run, and its restore puts back the choice before it.
+func TestSetVectorForTesting(t *testing.T) {
+	saved := useVector
+	restore, ok := SetVectorForTesting(false)
+	if !ok || useVector {
+		t.Errorf("switched off: ok %t, vector kernels in use %t", ok, useVector)
+	}
+	restore()
+	if useVector != saved {
+		t.Errorf("restored: vector kernels in use %t, want %t", useVector, saved)
+	}
+	restore, ok = SetVectorForTesting(true)
+	if ok != hasVector || useVector != hasVector {
+		t.Errorf("switched on: ok %t, in use %t, want both %t (the kernels can run)", ok, useVector, hasVector)
+	}
+	restore()
+	if useVector != saved {
+		t.Errorf("restored: vector kernels in use %t, want %t", useVector, saved)
+	}
+}
