@@ -59,6 +59,12 @@ func (r *testRun) track(ctx context.Context, resume bool) error {
 	return err
 }
 
+// doneTracking lets go of the reference and the mask: the later stages
+// need only their size (the outputs stage reads the reference again).
+func (r *testRun) doneTracking() {
+	r.tp.in.release()
+}
+
 // prepareStrain reads the strain window.
 func (r *testRun) prepareStrain() ([]any, error) {
 	win, err := r.t.Strain.StrainWindow()
