@@ -62,7 +62,7 @@ var pipeline = []step{
 	{name: "zones", prepare: (*testRun).prepareZones, run: (*testRun).zones,
 		outputs: []string{strainfile.ZonesCSV, strainfile.ZoneCellsCSV, strainfile.OnsetJSON}},
 	{name: "outputs", prepare: (*testRun).prepareOutputs, run: (*testRun).outputs,
-		largeArrays: true, outputs: []string{render.OverlaysDir, render.VideoFile(render.VideoMP4), render.VideoFile(render.VideoAVI),
+		outputs: []string{render.OverlaysDir, render.VideoFile(render.VideoMP4), render.VideoFile(render.VideoAVI),
 			render.ReportFile, render.PlotsDir, model.Dir, export.VTKDir, export.NPYDir}},
 }
 
