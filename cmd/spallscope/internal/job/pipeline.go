@@ -41,13 +41,6 @@ type step struct {
 	// outputs are the stage's files and folders in the run folder,
 	// removed before it runs afresh and whenever a stage before it runs.
 	outputs []string
-	// largeArrays says the stage holds photo-sized arrays from frame to
-	// frame (photos, splines, canvases): the collector's growth is low
-	// while it runs (stage.CollectOften), so that the heap does not grow to
-	// twice their size with dead frames. Stages over grid values keep Go's
-	// default: at 5 % of their small heaps the collector would run
-	// hundreds of times a stage.
-	largeArrays bool
 	// done, if set, lets go of what only this stage needed, once it has
 	// run or been skipped.
 	done func(r *testRun)
@@ -56,7 +49,7 @@ type step struct {
 // pipeline is the stage table of a test's run, in order.
 var pipeline = []step{
 	{name: "track", prepare: (*testRun).prepareTrack, run: (*testRun).track, resumable: true,
-		outputs: []string{runfolder.FieldsDir, runfolder.PhotoFieldsDir}, largeArrays: true, done: (*testRun).doneTracking},
+		outputs: []string{runfolder.FieldsDir, runfolder.PhotoFieldsDir}, done: (*testRun).doneTracking},
 	{name: "strain", prepare: (*testRun).prepareStrain, run: (*testRun).strain,
 		outputs: []string{strainfile.StrainDir}},
 	{name: "zones", prepare: (*testRun).prepareZones, run: (*testRun).zones,
@@ -151,7 +144,7 @@ func runStages(ctx context.Context, r *testRun) (skipped []string, seconds map[s
 		if err := runfolder.SetSection(r.out, "stages", records); err != nil {
 			return skipped, seconds, err
 		}
-		if err := runStage(s, r, ctx, resume); err != nil {
+		if err := s.run(r, ctx, resume); err != nil {
 			var st *stage.Stopped
 			switch {
 			case errors.As(err, &st):
@@ -171,15 +164,6 @@ func runStages(ctx context.Context, r *testRun) (skipped []string, seconds map[s
 		}
 	}
 	return skipped, seconds, nil
-}
-
-// runStage runs stage s, with the collector's growth low while it runs
-// when it holds photo-sized arrays.
-func runStage(s step, r *testRun, ctx context.Context, resume bool) error {
-	if s.largeArrays {
-		defer stage.CollectOften()()
-	}
-	return s.run(r, ctx, resume)
 }
 
 // removeOutputs removes a stage's outputs from run folder out.
