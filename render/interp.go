@@ -69,13 +69,18 @@ type Raster struct {
 // other exclusions; nil keeps all) stay NaN whatever the grid holds, so an
 // opening stays clear even where its edge points are valid.
 func (g *GridValues) Raster(width, height int, keep *region.Mask) (*Raster, error) {
+	return g.rasterIn(nil, width, height, keep)
+}
+
+// rasterIn is Raster into buf's raster array when buf is not nil.
+func (g *GridValues) rasterIn(buf *overlayBuffers, width, height int, keep *region.Mask) (*Raster, error) {
 	if err := g.check(); err != nil {
 		return nil, err
 	}
 	if keep != nil && (keep.Width != width || keep.Height != height) {
 		return nil, fmt.Errorf("raster: mask %dx%d for a %dx%d image", keep.Width, keep.Height, width, height)
 	}
-	r := newRaster(width, height)
+	r := buf.newRaster(width, height)
 	x0, y0, x1, y1 := g.bounds(width, height)
 	for y := y0; y <= y1; y++ {
 		row := r.Pix[y*width : (y+1)*width]
@@ -91,9 +96,17 @@ func (g *GridValues) Raster(width, height int, keep *region.Mask) (*Raster, erro
 	return r, nil
 }
 
-// newRaster returns a raster with nothing drawn.
-func newRaster(width, height int) *Raster {
-	r := &Raster{Width: width, Height: height, Pix: make([]float32, width*height)}
+// newRaster returns a raster with nothing drawn, in buf's raster array
+// when buf is not nil.
+func (buf *overlayBuffers) newRaster(width, height int) *Raster {
+	var pix []float32
+	if buf != nil {
+		buf.raster = resize(buf.raster, width*height)
+		pix = buf.raster
+	} else {
+		pix = make([]float32, width*height)
+	}
+	r := &Raster{Width: width, Height: height, Pix: pix}
 	nan := float32(math.NaN())
 	for i := range r.Pix {
 		r.Pix[i] = nan

@@ -80,6 +80,11 @@ func (d *Deformation) Reference(x, y, gu, gv float64) (X, Y float64, ok bool) {
 // whose reference position it excludes stays NaN, so openings stay clear as
 // they deform.
 func (g *GridValues) RasterOn(d *Deformation, width, height int, keep *region.Mask) (*Raster, error) {
+	return g.rasterOnIn(nil, d, width, height, keep)
+}
+
+// rasterOnIn is RasterOn into buf's raster array when buf is not nil.
+func (g *GridValues) rasterOnIn(buf *overlayBuffers, d *Deformation, width, height int, keep *region.Mask) (*Raster, error) {
 	if err := g.check(); err != nil {
 		return nil, err
 	}
@@ -90,7 +95,7 @@ func (g *GridValues) RasterOn(d *Deformation, width, height int, keep *region.Ma
 		return nil, fmt.Errorf("raster: mask %dx%d for a %dx%d image", keep.Width, keep.Height, width, height)
 	}
 	umin, umax, vmin, vmax := 0.0, 0.0, 0.0, 0.0
-	r := newRaster(width, height)
+	r := buf.newRaster(width, height)
 	if d.moves() {
 		if err := d.U.check(); err != nil {
 			return nil, fmt.Errorf("displacement u: %w", err)

@@ -89,6 +89,9 @@ type OverlayOptions struct {
 	// has the same size.
 	ReserveOnsets int
 	ReserveZones  bool
+	// buffers, when set, are Run's arrays kept from frame to frame; the
+	// overlay returned views them and is closed before the next one.
+	buffers *overlayBuffers
 }
 
 // Overlay draws values (a field on its grid, reference px) over photo and
@@ -123,14 +126,14 @@ func Overlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.
 	var r *Raster
 	var err error
 	if opt.Deform != nil {
-		r, err = values.RasterOn(opt.Deform, w, h, opt.Keep)
+		r, err = values.rasterOnIn(opt.buffers, opt.Deform, w, h, opt.Keep)
 	} else {
-		r, err = values.Raster(w, h, opt.Keep)
+		r, err = values.rasterIn(opt.buffers, w, h, opt.Keep)
 	}
 	if err != nil {
 		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: %w", opt.Stamp.Frame, err)
 	}
-	blended, err := blendField(photo, r, opt.Map, opt.Limits, alpha)
+	blended, err := blendField(opt.buffers, photo, r, opt.Map, opt.Limits, alpha)
 	if err != nil {
 		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: %w", opt.Stamp.Frame, err)
 	}
@@ -149,8 +152,12 @@ func Overlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.
 // photoGray returns the photo as 8-bit gray levels (16-bit photos scaled
 // from their full range, images of unknown depth taken as 0–1).
 func photoGray(photo *subset.Image) []byte {
+	return photoGrayInto(make([]byte, len(photo.Pix)), photo)
+}
+
+// photoGrayInto is photoGray into out, of the photo's pixel count.
+func photoGrayInto(out []byte, photo *subset.Image) []byte {
 	full := photo.MaxLevel()
-	out := make([]byte, len(photo.Pix))
 	for i, v := range photo.Pix {
 		out[i] = unit8(float64(v) / full)
 	}
@@ -159,11 +166,18 @@ func photoGray(photo *subset.Image) []byte {
 
 // blendField colours the raster with the map and blends it over the gray
 // photo at opacity alpha (OpenCV AddWeighted): colour·α + gray·(1 − α) where
-// the field is drawn, the photo's gray elsewhere.
-func blendField(photo *subset.Image, r *Raster, m Colormap, lim Limits, alpha float64) (gocv.Mat, error) {
+// the field is drawn, the photo's gray elsewhere. Its gray and colour
+// arrays are buf's when buf is not nil (the Mats that view them are closed
+// here, before buf's next use).
+func blendField(buf *overlayBuffers, photo *subset.Image, r *Raster, m Colormap, lim Limits, alpha float64) (gocv.Mat, error) {
 	w, h := photo.Width, photo.Height
-	gray := photoGray(photo)
-	colour := make([]byte, 3*w*h)
+	var gray, colour []byte
+	if buf != nil {
+		buf.gray, buf.colour = resize(buf.gray, len(photo.Pix)), resize(buf.colour, 3*w*h)
+		gray, colour = photoGrayInto(buf.gray, photo), buf.colour
+	} else {
+		gray, colour = photoGray(photo), make([]byte, 3*w*h)
+	}
 	for i, v := range r.Pix {
 		if math.IsNaN(float64(v)) {
 			g := gray[i]
@@ -216,7 +230,7 @@ func composeCanvas(blended gocv.Mat, opt OverlayOptions, l panelLayout, badges [
 	}
 	drawPanel(measure, opt, gain, over, under)
 	H := max(h, measure.y+l.margin)
-	canvas := image.NewRGBA(image.Rect(0, 0, w+l.width, H))
+	canvas := opt.buffers.newRGBA(w+l.width, H)
 	for i := range canvas.Pix {
 		canvas.Pix[i] = 0xff
 	}
@@ -245,13 +259,21 @@ func composeCanvas(blended gocv.Mat, opt OverlayOptions, l panelLayout, badges [
 			onsetBadge(canvas, face, b.at.X, b.at.Y, l.badgeR, b.number)
 		}
 	}
-	return rgbaToBGR(canvas)
+	return rgbaToBGR(opt.buffers, canvas)
 }
 
-// rgbaToBGR converts an opaque RGBA image to an OpenCV BGR image.
-func rgbaToBGR(img *image.RGBA) (gocv.Mat, error) {
+// rgbaToBGR converts an opaque RGBA image to an OpenCV BGR image, which
+// views buf's BGR array when buf is not nil (the caller closes it before
+// buf's next use).
+func rgbaToBGR(buf *overlayBuffers, img *image.RGBA) (gocv.Mat, error) {
 	w, h := img.Rect.Dx(), img.Rect.Dy()
-	out := make([]byte, 3*w*h)
+	var out []byte
+	if buf != nil {
+		buf.bgr = resize(buf.bgr, 3*w*h)
+		out = buf.bgr
+	} else {
+		out = make([]byte, 3*w*h)
+	}
 	for y := 0; y < h; y++ {
 		row := img.Pix[y*img.Stride:]
 		dst := out[3*y*w:]

@@ -255,6 +255,7 @@ type renderRun struct {
 	onsets   []strainfile.OnsetRecord
 	res      *strainfile.ResolutionRecord
 	notes    []string
+	buffers  overlayBuffers // the overlays' arrays, reused from frame to frame
 }
 
 // openRenderRun reads the run folder's records and opens its photos.
@@ -505,7 +506,7 @@ func (rr *renderRun) frameValues(q Quantity, name string, disp bool) (frameData,
 // overlayOptions returns the drawing options of frame k, name.
 func (rr *renderRun) overlayOptions(q Quantity, lim Limits, k int, name string) OverlayOptions {
 	ov := OverlayOptions{Quantity: q, Limits: lim, Scale: rr.scale, Keep: rr.keep, Lens: rr.lens,
-		Zones: rr.zones[name], ReserveZones: len(rr.zones) > 0, ReserveOnsets: len(rr.onsets)}
+		Zones: rr.zones[name], ReserveZones: len(rr.zones) > 0, ReserveOnsets: len(rr.onsets), buffers: &rr.buffers}
 	ov.Stamp = Stamp{Frame: name, Peak: rr.peak}
 	if t, ok := rr.times[name]; ok {
 		ov.Stamp.Time, ov.Stamp.HasTime = t, true

@@ -70,7 +70,7 @@ func (r *testRun) recordFarFieldMotion(res *strainfile.ResolutionRecord) error {
 		return err
 	}
 	rec := runfolder.MotionRecord{Source: runfolder.MotionFromFarField, StandoffMM: r.t.StandoffMM}
-	w, h := r.tp.in.Ref.Width, r.tp.in.Ref.Height
+	w, h := r.tp.in.Width, r.tp.in.Height
 	rec.Centre, rec.CentreIs = [2]float64{float64(w-1) / 2, float64(h-1) / 2}, "image centre (no lens file: the principal point of an ideal camera)"
 	if r.tp.lens != nil {
 		rec.Centre, rec.CentreIs = [2]float64{r.tp.lens.Model.Cx, r.tp.lens.Model.Cy}, "principal point of the lens file"

@@ -11,12 +11,22 @@ import (
 )
 
 // photos are a test's opened photos: the sequence, the reference image and
-// its index (−1 for a separate file), and the measured-pixel mask.
+// its index (−1 for a separate file), and the measured-pixel mask. Width
+// and Height are the reference's size, kept when Ref and Mask are let go
+// (release).
 type photos struct {
-	Seq      frames.Sequence
-	Ref      *subset.Image
-	RefIndex int
-	Mask     *region.Mask
+	Seq           frames.Sequence
+	Ref           *subset.Image
+	RefIndex      int
+	Mask          *region.Mask
+	Width, Height int
+}
+
+// release lets go of the reference and the mask, which only tracking
+// needs: at 20 MP they are 100 MB that the later stages would otherwise
+// hold beside their own (the outputs stage reads the reference again).
+func (in *photos) release() {
+	in.Ref, in.Mask = nil, nil
 }
 
 // Open opens the photo sequence images and the reference (a frame index,
@@ -50,6 +60,7 @@ func openPhotos(images, reference, roi string, exclude []string, maskFile string
 		}
 		in.RefIndex = -1
 	}
+	in.Width, in.Height = in.Ref.Width, in.Ref.Height
 	seq.ExpectSize(in.Ref.Width, in.Ref.Height)
 	var layout region.Layout
 	if roi != "" {

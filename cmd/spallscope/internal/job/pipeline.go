@@ -41,12 +41,15 @@ type step struct {
 	// outputs are the stage's files and folders in the run folder,
 	// removed before it runs afresh and whenever a stage before it runs.
 	outputs []string
+	// done, if set, lets go of what only this stage needed, once it has
+	// run or been skipped.
+	done func(r *testRun)
 }
 
 // pipeline is the stage table of a test's run, in order.
 var pipeline = []step{
 	{name: "track", prepare: (*testRun).prepareTrack, run: (*testRun).track, resumable: true,
-		outputs: []string{runfolder.FieldsDir, runfolder.PhotoFieldsDir}},
+		outputs: []string{runfolder.FieldsDir, runfolder.PhotoFieldsDir}, done: (*testRun).doneTracking},
 	{name: "strain", prepare: (*testRun).prepareStrain, run: (*testRun).strain,
 		outputs: []string{strainfile.StrainDir}},
 	{name: "zones", prepare: (*testRun).prepareZones, run: (*testRun).zones,
@@ -121,6 +124,9 @@ func runStages(ctx context.Context, r *testRun) (skipped []string, seconds map[s
 		if !rerun && old.Fingerprint == fp && old.Complete {
 			skipped = append(skipped, s.name)
 			seconds[s.name] = time.Since(start).Seconds()
+			if s.done != nil {
+				s.done(r)
+			}
 			continue
 		}
 		if err := ctx.Err(); err != nil {
@@ -147,6 +153,9 @@ func runStages(ctx context.Context, r *testRun) (skipped []string, seconds map[s
 				return skipped, seconds, r.stopped(&stage.Stopped{Stage: s.name, Cause: context.Cause(ctx)})
 			}
 			return skipped, seconds, inTest(r.t, err)
+		}
+		if s.done != nil {
+			s.done(r)
 		}
 		seconds[s.name] = time.Since(start).Seconds()
 		records[s.name] = stageRecord{Fingerprint: fp, Complete: true, Seconds: seconds[s.name]}

@@ -195,5 +195,5 @@ func (tp *trackInputs) compensation(dir string, from int) *stage.Compensation {
 	if tp.plate == nil {
 		return nil
 	}
-	return tp.plate.compensation(dir, tp.in.Ref.Width, tp.in.Ref.Height, tp.lens, from)
+	return tp.plate.compensation(dir, tp.in.Width, tp.in.Height, tp.lens, from)
 }

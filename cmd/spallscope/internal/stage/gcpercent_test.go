@@ -20,7 +20,7 @@ func gcPercent() int {
 	return p
 }
 
-// The collector's growth is trackGCPercent while a tracker the stage ran
+// The collector's growth is lowGCPercent while a tracker the stage ran
 // is live, and back to what it was once the collector has freed it; a
 // GOGC in the environment is left alone (runtime/debug's documented
 // semantics: SetGCPercent returns the previous setting).
@@ -45,13 +45,13 @@ func TestCollectOftenWhileTrackerLives(t *testing.T) {
 	a, b := newTracker(), newTracker()
 	collectOften(a)
 	collectOften(b)
-	if p := gcPercent(); p != trackGCPercent {
-		t.Fatalf("growth %d %% with trackers live, want %d", p, trackGCPercent)
+	if p := gcPercent(); p != lowGCPercent {
+		t.Fatalf("growth %d %% with trackers live, want %d", p, lowGCPercent)
 	}
 	a = nil
 	collectUntil(func() bool { return false }, 200*time.Millisecond)
-	if p := gcPercent(); p != trackGCPercent {
-		t.Errorf("growth %d %% with one of two trackers freed, want %d", p, trackGCPercent)
+	if p := gcPercent(); p != lowGCPercent {
+		t.Errorf("growth %d %% with one of two trackers freed, want %d", p, lowGCPercent)
 	}
 	runtime.KeepAlive(b)
 	b = nil
@@ -78,4 +78,29 @@ func collectUntil(done func() bool, limit time.Duration) bool {
 		time.Sleep(10 * time.Millisecond)
 	}
 	return done()
+}
+
+// The job's hold nests with a tracker's: the growth stays low until both
+// have let go, and a second call of the same restore does not let go of
+// another holder's (runtime/debug's documented semantics, as above).
+func TestCollectOftenNests(t *testing.T) {
+	if v, set := os.LookupEnv("GOGC"); set {
+		defer os.Setenv("GOGC", v)
+		os.Unsetenv("GOGC")
+	}
+	defer debug.SetGCPercent(debug.SetGCPercent(100))
+	job := CollectOften()
+	tracker := CollectOften()
+	if p := gcPercent(); p != lowGCPercent {
+		t.Fatalf("growth %d %% with two holders, want %d", p, lowGCPercent)
+	}
+	job()
+	job()
+	if p := gcPercent(); p != lowGCPercent {
+		t.Errorf("growth %d %% after the job let go twice with a tracker left, want %d", p, lowGCPercent)
+	}
+	tracker()
+	if p := gcPercent(); p != 100 {
+		t.Errorf("growth %d %% after both let go, want 100 restored", p)
+	}
 }

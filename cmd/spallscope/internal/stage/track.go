@@ -6,9 +6,6 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
-	"runtime"
-	"runtime/debug"
-	"sync"
 	"time"
 
 	"spallscope/dic"
@@ -22,55 +19,6 @@ import (
 // measured in any frame: a run of blank photos must not read as a quiet
 // test.
 var ErrNothingMeasured = errors.New("nothing measured")
-
-// trackGCPercent is the garbage collector's heap growth between
-// collections while a tracker is live, in per cent of the live heap (Go's
-// default, GOGC, is 100). The track stage's live heap is the tracker's
-// frames and splines, held from frame to frame (587 MB at 20 MP and a
-// 10 px step, measured: the reference, the frame read into one image,
-// their two spline planes, the points' prepared sums and sample
-// buffers); what a frame leaves behind is little more than its field,
-// 33 MB. With the default the heap grows to twice the live size, 1.2 GB
-// at 20 MP, to hold dead fields between collections. A collection's work
-// is the pointers it scans, a few MB here whatever the frame size, as
-// frames, planes and fields hold none: measured at 20 MP, 10–15 ms of
-// wall time and 5–8 ms of CPU a collection, about one a frame at 5 %,
-// against 5–6 s a frame.
-const trackGCPercent = 5
-
-// lowGC counts the trackers for which the collector's growth is lowered,
-// and holds the growth to restore when none is left.
-var lowGC struct {
-	sync.Mutex
-	trackers int
-	restore  int
-}
-
-// collectOften sets the collector's growth to trackGCPercent until
-// tracker has been collected, unless GOGC is set in the environment
-// (GOGC=100 keeps Go's default). The growth is restored when the
-// collector frees the tracker, not when the stage returns: restored while
-// the caller still holds the tracker, the next collection's goal would be
-// twice the tracker's live heap, which the next stage would fill on top
-// of the dead tracker (measured: 1.27 GB at 20 MP, against 0.8 GB).
-func collectOften(tracker *dic.Tracker) {
-	if _, set := os.LookupEnv("GOGC"); set {
-		return
-	}
-	lowGC.Lock()
-	if lowGC.trackers == 0 {
-		lowGC.restore = debug.SetGCPercent(trackGCPercent)
-	}
-	lowGC.trackers++
-	lowGC.Unlock()
-	runtime.AddCleanup(tracker, func(struct{}) {
-		lowGC.Lock()
-		defer lowGC.Unlock()
-		if lowGC.trackers--; lowGC.trackers == 0 {
-			debug.SetGCPercent(lowGC.restore)
-		}
-	}, struct{}{})
-}
 
 // Track runs tracker over the frames of seq from index from on (the fields
 // of earlier frames are already in dir and the tracker resumed after them)
