@@ -31,10 +31,14 @@ var ErrForeignFolder = errors.New("not a run folder")
 // it is empty or already a run folder — one with the mark, or one written
 // before the mark existed, whose run.json has a stages or track section.
 // Any other folder with files in it is refused, so that a mistyped --out
-// never loses the files of a folder the tool did not make.
+// never loses the files of a folder the tool did not make. The lock and
+// WriteAtomic's temporaries do not count as files: the frame parts of one
+// test claim its folder at the same time on several nodes, and one may
+// look while another is writing the mark (seen on a real Slurm: the
+// folder held only ".run.json.partial-…" and was refused).
 func Claim(dir, tool string) error {
 	entries, err := os.ReadDir(dir)
-	entries = slices.DeleteFunc(entries, func(e fs.DirEntry) bool { return e.Name() == LockFile })
+	entries = slices.DeleteFunc(entries, func(e fs.DirEntry) bool { return e.Name() == LockFile || isPartial(e.Name()) })
 	switch {
 	case errors.Is(err, fs.ErrNotExist):
 		if err := os.MkdirAll(dir, 0o755); err != nil {

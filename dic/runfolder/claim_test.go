@@ -73,3 +73,25 @@ func TestRemovePartials(t *testing.T) {
 		}
 	}
 }
+
+// A folder whose only entries are the lock and another process's
+// temporary run.json (a frame part claiming the test folder at the same
+// moment) is claimed; a temporary beside a foreign file does not make the
+// folder claimable.
+func TestClaimWhileAnotherWritesTheMark(t *testing.T) {
+	dir := t.TempDir()
+	os.WriteFile(filepath.Join(dir, "."+ManifestFile+partialMark+"3866761699"), []byte(`{"fol`), 0o644)
+	os.WriteFile(filepath.Join(dir, LockFile), []byte("1 host 2026-12-03T00:00:00Z\n"), 0o644)
+	if err := Claim(dir, "spallscope test"); err != nil {
+		t.Fatalf("folder with only a temporary run.json and the lock: %v", err)
+	}
+	if !IsRunFolder(dir) {
+		t.Fatal("claimed folder not marked")
+	}
+	foreign := t.TempDir()
+	os.WriteFile(filepath.Join(foreign, "."+ManifestFile+partialMark+"1"), nil, 0o644)
+	os.WriteFile(filepath.Join(foreign, "notes.txt"), []byte("mine"), 0o644)
+	if err := Claim(foreign, "spallscope test"); !errors.Is(err, ErrForeignFolder) {
+		t.Fatalf("foreign file beside a temporary: got %v, want ErrForeignFolder", err)
+	}
+}

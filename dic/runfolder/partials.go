@@ -20,8 +20,7 @@ func RemovePartials(dir string) (int, error) {
 		if err != nil {
 			return err
 		}
-		name := d.Name()
-		if !d.IsDir() && strings.HasPrefix(name, ".") && strings.Contains(name, partialMark) {
+		if !d.IsDir() && isPartial(d.Name()) {
 			if err := os.Remove(path); err != nil {
 				return err
 			}
@@ -30,4 +29,10 @@ func RemovePartials(dir string) (int, error) {
 		return nil
 	})
 	return n, err
+}
+
+// isPartial reports whether a file name is one WriteAtomic gives its
+// temporary files (".<name>.partial-<random>").
+func isPartial(name string) bool {
+	return strings.HasPrefix(name, ".") && strings.Contains(name, partialMark)
 }
