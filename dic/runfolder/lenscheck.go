@@ -1,11 +1,7 @@
 package runfolder
 
 import (
-	"crypto/sha256"
-	"encoding/hex"
 	"fmt"
-	"io"
-	"os"
 )
 
 // Unchanged checks that the lens file at path (the record's file, or where
@@ -19,16 +15,11 @@ func (r *LensRecord) Unchanged(path string) error {
 	if r == nil || r.SHA256 == "" {
 		return nil
 	}
-	f, err := os.Open(path)
+	now, err := FileSHA256(path)
 	if err != nil {
 		return fmt.Errorf("lens file the fields were corrected with: %w", err)
 	}
-	defer f.Close()
-	h := sha256.New()
-	if _, err := io.Copy(h, f); err != nil {
-		return fmt.Errorf("lens file %s: %w", path, err)
-	}
-	if now := hex.EncodeToString(h.Sum(nil)); now != r.SHA256 {
+	if now != r.SHA256 {
 		return fmt.Errorf("lens file %s has changed since tracking (SHA-256 %.12s… then, %.12s… now): the fields are corrected for the lens it held then; restore that file or track again with the new one", path, r.SHA256, now)
 	}
 	return nil

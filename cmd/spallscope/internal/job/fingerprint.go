@@ -4,11 +4,10 @@ import (
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
-	"fmt"
-	"io"
 	"os"
 
 	"spallscope/dic/frames"
+	"spallscope/dic/runfolder"
 )
 
 // fingerprint hashes the JSON form of parts (SHA-256, hex).
@@ -26,16 +25,7 @@ func fileHash(path string) (string, error) {
 	if path == "" {
 		return "", nil
 	}
-	f, err := os.Open(path)
-	if err != nil {
-		return "", err
-	}
-	defer f.Close()
-	h := sha256.New()
-	if _, err := io.Copy(h, f); err != nil {
-		return "", fmt.Errorf("%s: %w", path, err)
-	}
-	return hex.EncodeToString(h.Sum(nil)), nil
+	return runfolder.FileSHA256(path)
 }
 
 // sequenceDigest identifies a photo sequence by its frames' sources, sizes
