@@ -27,13 +27,19 @@ func (s *Solver) affineSumsVector(sJg *[12]float64) (sg, sgg, sfg float64) {
 	n := s.n
 	var o [9]float64
 	affineSumsAVX2(s.gs[:n], s.fc[:n], s.gx[:n], s.gy[:n], s.dx[:n], s.dy[:n], s.fMean, &o)
-	sJg[PU] += o[3]
-	sJg[PUx] += o[4]
-	sJg[PUy] += o[5]
-	sJg[PV] += o[6]
-	sJg[PVx] += o[7]
-	sJg[PVy] += o[8]
+	addAffineJg(sJg, o[3:9])
 	return o[0], o[1], o[2]
+}
+
+// addAffineJg adds the kernels' six affine sums (Σ gx·g, Σ gx·g·dx,
+// Σ gx·g·dy, then the same for gy) to the entries of Σ J·g they belong to.
+func addAffineJg(sJg *[12]float64, a []float64) {
+	sJg[PU] += a[0]
+	sJg[PUx] += a[1]
+	sJg[PUy] += a[2]
+	sJg[PV] += a[3]
+	sJg[PVx] += a[4]
+	sJg[PVy] += a[5]
 }
 
 // quadraticSumsVector is quadraticSumsGo by quadraticSumsAVX2 (see
@@ -42,12 +48,7 @@ func (s *Solver) quadraticSumsVector(sJg *[12]float64) (sg, sgg, sfg float64) {
 	n := s.n
 	var o [15]float64
 	quadraticSumsAVX2(s.gs[:n], s.fc[:n], s.gx[:n], s.gy[:n], s.dx[:n], s.dy[:n], s.fMean, &o)
-	sJg[PU] += o[3]
-	sJg[PUx] += o[4]
-	sJg[PUy] += o[5]
-	sJg[PV] += o[6]
-	sJg[PVx] += o[7]
-	sJg[PVy] += o[8]
+	addAffineJg(sJg, o[3:9])
 	sJg[PUxx] += 0.5 * o[9]
 	sJg[PUxy] += o[10]
 	sJg[PUyy] += 0.5 * o[11]
