@@ -243,6 +243,17 @@ type seedCase struct {
 	indicator strain.Indicator // the indicator the feature is scored on
 }
 
+// scenario is the case's seed scenario (one opening, or the twin
+// openings) with its feature added.
+func (c seedCase) scenario() *synth.Scenario {
+	sc := seedScenario()
+	if c.twin {
+		sc = twinSeedScenario()
+	}
+	sc.Fields = append(sc.Fields, c.feature)
+	return sc
+}
+
 // seedCases: a band at the right sidewall, a crack at the crown, a notch
 // (a V of two bands) at the right sidewall, and a band at a pillar wall of
 // twin openings (a stronger band: 1.5 px of slip); each starts moving at
@@ -299,11 +310,7 @@ func TestSeedOnsets(t *testing.T) {
 	for _, c := range seedCases() {
 		t.Run(c.name, func(t *testing.T) {
 			t.Parallel()
-			sc := seedScenario()
-			if c.twin {
-				sc = twinSeedScenario()
-			}
-			sc.Fields = append(sc.Fields, c.feature)
+			sc := c.scenario()
 			// Scored against the kernel truth (the feature through the
 			// run's own strain window) in the onset's indicator; the box
 			// truth on the run's grid is logged beside it.
@@ -494,11 +501,7 @@ func TestSeedKernelTruthIsTheNoiseFreeRun(t *testing.T) {
 	for _, c := range seedCases() {
 		t.Run(c.name, func(t *testing.T) {
 			t.Parallel()
-			sc := seedScenario()
-			if c.twin {
-				sc = twinSeedScenario()
-			}
-			sc.Fields = append(sc.Fields, c.feature)
+			sc := c.scenario()
 			kt := seedKernelTruth(t, sc, c.indicator)
 			r := runSeed(t, sc, 0, 1)
 			worst := 0.0
