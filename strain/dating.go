@@ -174,24 +174,30 @@ func (d *Dating) Add(fr Frame) {
 		}
 		return vals
 	}
-	tensors := func(cells []int) []Tensor {
-		out := make([]Tensor, len(cells))
+	// A strain indicator's cells: the inelastic tensor (kept for
+	// projectedCell) and the indicator's value from it, one residual each.
+	tensors := func(ind Indicator, cells []int) ([]float64, []Tensor) {
+		vals, out := make([]float64, len(cells)), make([]Tensor, len(cells))
 		for j, c := range cells {
 			r, ok := d.f.baseline.Residual(fr.Strain, c, fr.Stress)
 			if !ok {
-				r = Tensor{math.NaN(), math.NaN(), math.NaN()}
+				vals[j], out[j] = math.NaN(), Tensor{math.NaN(), math.NaN(), math.NaN()}
+				continue
 			}
-			out[j] = r
+			vals[j], out[j] = ind.value(r), r
 		}
-		return out
+		return vals, out
 	}
 	for k, o := range d.onsets {
-		d.values[k] = append(d.values[k], read(o.Indicator, d.cells[k]))
-		d.around[k] = append(d.around[k], read(o.Indicator, d.ring[k]))
-		if o.Indicator != Decorrelation && fr.Strain != nil {
-			d.cellT[k] = append(d.cellT[k], tensors(d.cells[k]))
-			d.ringT[k] = append(d.ringT[k], tensors(d.ring[k]))
+		if o.Indicator == Decorrelation || fr.Strain == nil {
+			d.values[k] = append(d.values[k], read(o.Indicator, d.cells[k]))
+			d.around[k] = append(d.around[k], read(o.Indicator, d.ring[k]))
+			continue
 		}
+		v, tc := tensors(o.Indicator, d.cells[k])
+		a, tr := tensors(o.Indicator, d.ring[k])
+		d.values[k], d.around[k] = append(d.values[k], v), append(d.around[k], a)
+		d.cellT[k], d.ringT[k] = append(d.cellT[k], tc), append(d.ringT[k], tr)
 	}
 	fr.Strain, fr.Disp = nil, nil
 	d.frames = append(d.frames, fr)
