@@ -85,11 +85,8 @@ func (w Window) KernelTruth(fields []*dic.Field, ind Indicator) (KernelTruth, er
 	for f, df := range fields {
 		if df == nil {
 			// No motion: zero strain where the window gives strain.
-			zero := &dic.Field{Index: f, Grid: ref.Grid, Points: make([]dic.Point, len(ref.Points))}
-			for i, p := range ref.Points {
-				zero.Points[i] = dic.Point{X: p.X, Y: p.Y, Status: p.Status, ZNCC: p.ZNCC}
-			}
-			df = zero
+			df = atRest(ref)
+			df.Index = f
 		}
 		if df.Grid != ref.Grid {
 			return KernelTruth{}, fmt.Errorf("kernel truth: frame %d on a %dx%d grid at step %d, expected frame %d's %dx%d at step %d", f, df.Grid.Cols, df.Grid.Rows, df.Grid.Step, ref.Index, ref.Grid.Cols, ref.Grid.Rows, ref.Grid.Step)
@@ -134,10 +131,7 @@ func (w Window) noiseGain(ref *dic.Field) ([]float64, error) {
 	g := ref.Grid
 	n := g.Len()
 	sx, sy := make([]float64, n), make([]float64, n)
-	probe := &dic.Field{Grid: g, Points: make([]dic.Point, n)}
-	for i, p := range ref.Points {
-		probe.Points[i] = dic.Point{X: p.X, Y: p.Y, Status: p.Status, ZNCC: p.ZNCC}
-	}
+	probe := atRest(ref)
 	for oy := range w.Size {
 		for ox := range w.Size {
 			for i := range probe.Points {
@@ -203,4 +197,15 @@ func (kt KernelTruth) FirstAbove(limit float64) int {
 		}
 	}
 	return -1
+}
+
+// atRest is ref's grid and measured points with no displacement: the
+// field of a frame in which the feature has not moved, and the probe the
+// noise gain sets one point of at a time.
+func atRest(ref *dic.Field) *dic.Field {
+	f := &dic.Field{Index: ref.Index, Grid: ref.Grid, Points: make([]dic.Point, len(ref.Points))}
+	for i, p := range ref.Points {
+		f.Points[i] = dic.Point{X: p.X, Y: p.Y, Status: p.Status, ZNCC: p.ZNCC}
+	}
+	return f
 }
