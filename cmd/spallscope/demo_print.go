@@ -29,11 +29,7 @@ func printFaces(cmd *cobra.Command, run string) {
 	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
 	fmt.Fprintln(w, "    face\tclass\topening\tsector\tindicator\tframe\tinterval\ttrigger\tlog_time_s\tstress_MPa\tpct_of_peak")
 	for _, on := range rep.Onsets {
-		interval, stress := "-", fmt.Sprintf("%.2f", on.Stress)
-		if iv := on.Interval; iv != nil {
-			interval = fmt.Sprintf("%d–%d (%.0f %%)", iv.FirstFrame, iv.LastFrame, 100*iv.Confidence)
-			stress = fmt.Sprintf("%.2f (%.2f–%.2f)", on.Stress, iv.StressLo, iv.StressHi)
-		}
+		interval, stress := intervalColumns(on.Onset)
 		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%s\t%s\t%d\t%.1f\t%s\t%.0f\n", on.Face, on.Class, on.OpeningName, on.Sector, on.Indicator, on.Name, interval, on.TriggerFrame, on.LogTime, stress, on.Percent)
 	}
 	w.Flush()

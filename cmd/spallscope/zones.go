@@ -9,6 +9,7 @@ import (
 
 	"spallscope/cmd/spallscope/internal/config"
 	"spallscope/cmd/spallscope/internal/job"
+	"spallscope/strain"
 	"spallscope/strain/strainfile"
 )
 
@@ -123,11 +124,7 @@ func printOnsets(cmd *cobra.Command, rep *strainfile.OnsetReport, path string) {
 			if on.Context != nil && on.Context.RatioToUCS != 0 {
 				ratio = fmt.Sprintf("%.2f", on.Context.RatioToUCS)
 			}
-			interval, stress := "-", fmt.Sprintf("%.2f", on.Stress)
-			if iv := on.Interval; iv != nil {
-				interval = fmt.Sprintf("%d–%d (%.0f %%)", iv.FirstFrame, iv.LastFrame, 100*iv.Confidence)
-				stress = fmt.Sprintf("%.2f (%.2f–%.2f)", on.Stress, iv.StressLo, iv.StressHi)
-			}
+			interval, stress := intervalColumns(on.Onset)
 			fmt.Fprintf(w, "%s\t%s\t%s\t%s\t%s\t%s\t%d\t%.1f\t%s\t%.0f\t%.1f\t%s\n", on.Class, on.OpeningName, on.Sector, on.Indicator,
 				on.Name, interval, on.TriggerFrame, on.Time, stress, on.Percent, on.AreaMM2, ratio)
 		}
@@ -142,4 +139,17 @@ func printOnsets(cmd *cobra.Command, rep *strainfile.OnsetReport, path string) {
 		fmt.Fprintf(o, "detection limit (%s): a localized strain below %.0f µε over the %d px VSG, or a crack opening below %s, cannot be seen in this run\n",
 			l.Indicator, l.Strain*1e6, l.VSG, opening)
 	}
+}
+
+// intervalColumns are an onset's interval and stress columns in the
+// printed onset tables: the interval's frames with its confidence, and the
+// stress with the interval's stresses ("-" and the stress alone without
+// an interval).
+func intervalColumns(on strain.Onset) (interval, stress string) {
+	iv := on.Interval
+	if iv == nil {
+		return "-", fmt.Sprintf("%.2f", on.Stress)
+	}
+	return fmt.Sprintf("%d–%d (%.0f %%)", iv.FirstFrame, iv.LastFrame, 100*iv.Confidence),
+		fmt.Sprintf("%.2f (%.2f–%.2f)", on.Stress, iv.StressLo, iv.StressHi)
 }
