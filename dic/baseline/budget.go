@@ -53,12 +53,16 @@ type ErrorBudget struct {
 	LKRMSE, LKRandom, LKSystematic float64
 }
 
-// SequenceErrorBudget measures the ErrorBudget of subsets of side sub on
-// a grid of step px over seq's frames, with realisations ≥ 2 noise draws
-// (the first is seq's own frames). It holds every frame's exposure in
-// memory: use it on 1 MP sequences, not 20 MP ones.
-func SequenceErrorBudget(seq *Sequence, sub, step, realisations int) (ErrorBudget, error) {
-	b := ErrorBudget{Subset: sub, Step: step, Realisations: realisations}
+// SequenceErrorBudget measures the ErrorBudget of the tracker with
+// settings s (its subset, step and interpolation; zero fields take
+// dic.DefaultSettings) over seq's frames, with realisations ≥ 2 noise
+// draws (the first is seq's own frames); Lucas–Kanade's window is the
+// subset. It holds every frame's exposure in memory: use it on 1 MP
+// sequences, not 20 MP ones.
+func SequenceErrorBudget(seq *Sequence, s dic.Settings, realisations int) (ErrorBudget, error) {
+	s = s.Effective()
+	sub := s.Subset
+	b := ErrorBudget{Subset: sub, Step: s.Step, Realisations: realisations}
 	if realisations < 2 {
 		return b, fmt.Errorf("error budget: %d realisations, want at least 2", realisations)
 	}
@@ -91,7 +95,7 @@ func SequenceErrorBudget(seq *Sequence, sub, step, realisations int) (ErrorBudge
 	ours := &scatter{frames: seq.Spec.Frames - 2}
 	lk := &scatter{frames: seq.Spec.Frames - 2}
 	for r := -1; r < realisations; r++ {
-		if err := trackRealisation(seq, sub, step, func(k int) *subset.Image { return record(k, r) }, r, ours, lk); err != nil {
+		if err := trackRealisation(seq, s, func(k int) *subset.Image { return record(k, r) }, r, ours, lk); err != nil {
 			return b, err
 		}
 	}
@@ -101,7 +105,7 @@ func SequenceErrorBudget(seq *Sequence, sub, step, realisations int) (ErrorBudge
 	b.NoiseFree = math.Sqrt(ours.exactSq / float64(ours.exactN))
 	sigma := math.Sqrt(seq.cam.Noise*seq.cam.Noise + 1.0/12)
 	var err error
-	if b.TheoryPan, b.TheoryAffine, err = ours.theory(exposures[0], sub/2, sigma); err != nil {
+	if b.TheoryPan, b.TheoryAffine, err = ours.theory(exposures[0], s.Interpolation, sub/2, sigma); err != nil {
 		return b, err
 	}
 	return b, nil
@@ -191,10 +195,10 @@ func (s *scatter) split(realisations int) (rmse, random, systematic float64) {
 
 // theory returns the vector RMS over the kept point-frames of Pan's
 // √2·σ/√SSSIG and of the affine model's least-squares covariance, both
-// from the bicubic spline of the exact reference exposure (the gradient
-// the solver uses).
-func (s *scatter) theory(ref *subset.Image, rad int, sigma float64) (pan, affine float64, err error) {
-	sp := subset.NewSpline(ref, subset.Bicubic)
+// from the spline of the exact reference exposure (the gradient the
+// solver uses).
+func (s *scatter) theory(ref *subset.Image, kind subset.Interpolation, rad int, sigma float64) (pan, affine float64, err error) {
+	sp := subset.NewSpline(ref, kind)
 	perPoint := make([][2]float64, s.points) // pan², affine² of each grid point; NaN: not computed
 	for i := range perPoint {
 		perPoint[i] = [2]float64{math.NaN(), math.NaN()}
@@ -262,11 +266,12 @@ func subsetTheory(sp *subset.Spline, x, y, rad int, sigma float64) (pan, affine 
 }
 
 // trackRealisation tracks one realisation of seq's frames (frame(k) gives
-// frame k, reference included) with the tracker and Lucas–Kanade and adds
-// both methods' errors in the frames after the first tracked one.
-func trackRealisation(seq *Sequence, sub, step int, frame func(k int) *subset.Image, r int, ours, lk *scatter) error {
+// frame k, reference included) with the tracker (settings s) and
+// Lucas–Kanade and adds both methods' errors in the frames after the
+// first tracked one.
+func trackRealisation(seq *Sequence, s dic.Settings, frame func(k int) *subset.Image, r int, ours, lk *scatter) error {
 	ref := frame(0)
-	tr, err := dic.NewTracker(ref, 0, nil, dic.Settings{Subset: sub, Step: step})
+	tr, err := dic.NewTracker(ref, 0, nil, s)
 	if err != nil {
 		return fmt.Errorf("error budget: %w", err)
 	}
@@ -306,7 +311,7 @@ func trackRealisation(seq *Sequence, sub, step int, frame func(k int) *subset.Im
 		if err != nil {
 			return fmt.Errorf("error budget: frame %d: %w", k, err)
 		}
-		lu, lv, err := lucasKanadeMats(lkRef, lkDef, pts, sub)
+		lu, lv, err := lucasKanadeMats(lkRef, lkDef, pts, s.Subset)
 		lkDef.Close()
 		if err != nil {
 			return fmt.Errorf("error budget: frame %d: %w", k, err)

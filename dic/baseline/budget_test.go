@@ -2,6 +2,8 @@ package baseline
 
 import (
 	"testing"
+
+	"spallscope/dic"
 )
 
 // On the noisy strain ramp (σ = 1.5 gray levels, 21 px subsets) the
@@ -26,7 +28,7 @@ func TestSequenceErrorBudget(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	b, err := SequenceErrorBudget(seq, 21, 10, 8)
+	b, err := SequenceErrorBudget(seq, dic.Settings{Subset: 21, Step: 10}, 8)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -43,7 +45,7 @@ func TestSequenceErrorBudget(t *testing.T) {
 	if b.LKSystematic < 2*b.LKRandom {
 		t.Errorf("Lucas–Kanade: systematic %.5f px, random %.5f px: want the systematic part over twice the random", b.LKSystematic, b.LKRandom)
 	}
-	if _, err := SequenceErrorBudget(seq, 21, 10, 1); err == nil {
+	if _, err := SequenceErrorBudget(seq, dic.Settings{Subset: 21, Step: 10}, 1); err == nil {
 		t.Errorf("one realisation accepted")
 	}
 }

@@ -4,6 +4,9 @@ import (
 	"fmt"
 	"os"
 	"testing"
+
+	"spallscope/dic"
+	"spallscope/subset"
 )
 
 // BenchmarkSequence tracks the noisy strain ramp of NewSequence (sensor
@@ -81,7 +84,8 @@ func BenchmarkSequence(b *testing.B) {
 // BenchmarkSequenceBudget splits the RMSE of the 1 MP noisy strain ramp of
 // BenchmarkSequence into its random and systematic parts over 6 noise
 // realisations (SequenceErrorBudget), beside the theoretical random error
-// of the pattern's subsets, for the tracker and Lucas–Kanade. Metrics in
+// of the pattern's subsets, for the tracker (21 and 31 px subsets on
+// bicubic splines, and 21 px on biquintic ones) and Lucas–Kanade. Metrics in
 // px: rmse, random, systematic, noisefree (the tracker on exact frames),
 // pan and affine (theory), and LK_rmse, LK_random, LK_systematic.
 func BenchmarkSequenceBudget(b *testing.B) {
@@ -89,11 +93,12 @@ func BenchmarkSequenceBudget(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	for _, sub := range []int{21, 31} {
-		b.Run(fmt.Sprintf("1MP/subset=%d/step=10", sub), func(b *testing.B) {
+	for _, s := range []dic.Settings{{Subset: 21}, {Subset: 31}, {Subset: 21, Interpolation: subset.Biquintic}} {
+		s.Step = 10
+		b.Run(fmt.Sprintf("1MP/subset=%d/step=10/%v", s.Subset, s.Effective().Interpolation), func(b *testing.B) {
 			var r ErrorBudget
 			for range b.N {
-				if r, err = SequenceErrorBudget(seq, sub, 10, 6); err != nil {
+				if r, err = SequenceErrorBudget(seq, s, 6); err != nil {
 					b.Fatal(err)
 				}
 			}
