@@ -29,16 +29,19 @@ each method's error against the truth and its time per point.
 rmse/best is the RMSE over that of the best baseline on the same case (below 1
 is better than every baseline); time/LK is the time per point over that of
 Lucas–Kanade in the same run. Times are wall times, fastest of several runs,
-including each method's image preparation; on a busy machine read the ratios
-rather than the microseconds.
+including each method's image preparation (splines, pyramids, dense fields) but
+not the conversion of the frames to OpenCV's 8-bit images; on a busy machine
+read the ratios rather than the microseconds. missing counts the points a
+method reported as failed, left out of its RMSE.
 
 With --sequence WxH it renders instead a sequence that looks like a test: a
 strain ramp with a small rotation and a drift, with sensor noise (--noise),
 over --frames frames, and tracks it frame after frame as a run does, for each
 subset size and grid step given. Each line is the frames after the first
 tracked one: time per frame, points/s, mean IC-GN iterations per point, RMSE
-against the exact field, peak resident memory, and Lucas–Kanade's RMSE and
-time/LK on the same frames and points. Frames of 20 MP and more are rendered
+against the exact field, peak resident memory, and Lucas–Kanade's RMSE, the
+points it reported lost (left out of its RMSE) and time/LK on the same frames
+and points (OpenCV's call alone). Frames of 20 MP and more are rendered
 one at a time, as a run reads them; rendering takes longer than tracking.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
@@ -104,8 +107,8 @@ func benchSequence(out io.Writer, spec baseline.SequenceSpec, subsets, steps []i
 	fmt.Fprintf(out, "%dx%d px, %d frames, noise σ %g, %s variant; frames after the first tracked one\n", spec.Width, spec.Height, spec.Frames, spec.Noise, variant)
 	// Fixed columns rather than a tabwriter: each line is printed as soon
 	// as it is measured (a 20 MP line takes minutes).
-	const line = "%6v  %4v  %7v  %7v  %8v  %10v  %7v  %11v  %10v  %7v\n"
-	fmt.Fprintf(out, line, "subset", "step", "points", "s/frame", "points/s", "iterations", "rmse_px", "peak_RSS_MB", "LK_rmse_px", "time/LK")
+	const line = "%6v  %4v  %7v  %7v  %8v  %10v  %7v  %11v  %10v  %7v  %7v\n"
+	fmt.Fprintf(out, line, "subset", "step", "points", "s/frame", "points/s", "iterations", "rmse_px", "peak_RSS_MB", "LK_rmse_px", "LK_lost", "time/LK")
 	for _, sub := range subsets {
 		for _, st := range steps {
 			r, err := baseline.TrackSequence(seq, sub, st)
@@ -114,7 +117,7 @@ func benchSequence(out io.Writer, spec baseline.SequenceSpec, subsets, steps []i
 			}
 			f := func(format string, v float64) string { return fmt.Sprintf(format, v) }
 			fmt.Fprintf(out, line, sub, st, f("%.0f", r.Points), f("%.3f", r.SecondsPerFrame), f("%.0f", r.PointsPerSecond),
-				f("%.2f", r.Iterations), f("%.4f", r.RMSE), f("%.0f", float64(r.PeakRSS)/(1<<20)), f("%.4f", r.LKRMSE), f("%.2f", r.VsLK))
+				f("%.2f", r.Iterations), f("%.4f", r.RMSE), f("%.0f", float64(r.PeakRSS)/(1<<20)), f("%.4f", r.LKRMSE), f("%.0f", r.LKLost), f("%.2f", r.VsLK))
 		}
 	}
 	return nil

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 
+	"gocv.io/x/gocv"
+
 	"spallscope/dic/synth"
 	"spallscope/subset"
 )
@@ -43,6 +45,8 @@ type Case struct {
 	// largest true displacement component rounded up, plus one. It is the
 	// bound a user would set from the expected motion, not the answer.
 	Search int
+	// mats are Ref and Def as OpenCV images while holdMats holds them.
+	mats *[2]gocv.Mat
 }
 
 // Pattern is the speckle pattern of every case: spots of 2 px radius

@@ -26,7 +26,9 @@ type Row struct {
 	Missing int
 	// TimePerPoint is the wall time of the fastest of Repeats runs divided
 	// by the number of points, in seconds. It includes the method's
-	// per-image preparation (image conversion, splines, dense fields).
+	// per-image preparation (splines, pyramids, dense fields) but not the
+	// conversion of the frames to OpenCV's 8-bit images, done once before
+	// the runs (a run with OpenCV decodes its photos into them).
 	TimePerPoint float64
 	// VsBest is RMSE divided by the smallest RMSE of the baselines (every
 	// method but spallscope) on the same case.
@@ -54,6 +56,11 @@ func Compare(cases []*Case, window int) ([]Row, error) {
 // scoreCase runs every method on c Repeats times, interleaved, and returns
 // their rows, ratios unset.
 func scoreCase(c *Case, methods []Method, window int) ([]Row, error) {
+	release, err := c.holdMats()
+	if err != nil {
+		return nil, err
+	}
+	defer release()
 	best := make([]float64, len(methods))
 	us, vs := make([][]float64, len(methods)), make([][]float64, len(methods))
 	for k := range best {

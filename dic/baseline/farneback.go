@@ -28,12 +28,11 @@ func Farneback(c *Case, window int) (u, v []float64, err error) {
 	if err := checkWindow(c, window); err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NameFarneback, err)
 	}
-	ref, def, err := caseMats(c)
+	ref, def, release, err := caseMats(c)
 	if err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NameFarneback, err)
 	}
-	defer ref.Close()
-	defer def.Close()
+	defer release()
 	flow := gocv.NewMat()
 	defer flow.Close()
 	gocv.CalcOpticalFlowFarneback(ref, def, &flow, fbPyrScale, fbLevels, window, fbIter, fbPolyN, fbPolySigma, gocv.OptflowFarnebackGaussian)

@@ -32,16 +32,22 @@ func LucasKanade(c *Case, window int) (u, v []float64, err error) {
 	if err := checkWindow(c, window); err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NameLucasKanade, err)
 	}
-	ref, def, err := caseMats(c)
+	ref, def, release, err := caseMats(c)
 	if err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NameLucasKanade, err)
 	}
-	defer ref.Close()
-	defer def.Close()
+	defer release()
+	return lucasKanadeMats(ref, def, c.Points, window)
+}
 
-	n := len(c.Points)
+// lucasKanadeMats is LucasKanade on frames already converted to 8-bit
+// OpenCV images, so that a sequence converts its reference once and times
+// the tracker alone (a run with OpenCV would decode its photos straight
+// into such images).
+func lucasKanadeMats(ref, def gocv.Mat, points [][2]int, window int) (u, v []float64, err error) {
+	n := len(points)
 	buf := make([]byte, 8*n)
-	for i, p := range c.Points {
+	for i, p := range points {
 		binary.LittleEndian.PutUint32(buf[8*i:], math.Float32bits(float32(p[0])))
 		binary.LittleEndian.PutUint32(buf[8*i+4:], math.Float32bits(float32(p[1])))
 	}
@@ -67,7 +73,7 @@ func LucasKanade(c *Case, window int) (u, v []float64, err error) {
 		return nil, nil, fmt.Errorf("%s: status: got %d values for %d points (%v)", NameLucasKanade, len(st), n, err)
 	}
 	u, v = nanSlices(n)
-	for i, p := range c.Points {
+	for i, p := range points {
 		if st[i] == 1 {
 			u[i] = float64(pts[2*i]) - float64(p[0])
 			v[i] = float64(pts[2*i+1]) - float64(p[1])

@@ -24,12 +24,11 @@ func PhaseCorrelation(c *Case, window int) (u, v []float64, err error) {
 	if err := checkWindow(c, window); err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NamePhaseCorrelation, err)
 	}
-	ref8, def8, err := caseMats(c)
+	ref8, def8, release, err := caseMats(c)
 	if err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NamePhaseCorrelation, err)
 	}
-	defer ref8.Close()
-	defer def8.Close()
+	defer release()
 	ref, def := gocv.NewMat(), gocv.NewMat()
 	defer ref.Close()
 	defer def.Close()

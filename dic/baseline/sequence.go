@@ -6,6 +6,7 @@ import (
 	"time"
 
 	"spallscope/dic"
+	"spallscope/dic/frames"
 	"spallscope/dic/synth"
 	"spallscope/subset"
 )
@@ -128,10 +129,24 @@ type SequenceRow struct {
 	// RMSE is the root mean square error vector length against the exact
 	// field over the valid points, px.
 	RMSE float64
+	// Lost is the mean number of grid points a frame that the tracker
+	// tried and lost (diverged, or below the correlation gate): they are
+	// left out of both RMSE and LKRMSE, and Lucas–Kanade is not run on them.
+	Lost float64
 	// LKSecondsPerFrame and LKRMSE are OpenCV's pyramidal Lucas–Kanade on
-	// the same frames and points (its pyramids rebuilt each frame); LKRMSE
-	// is over the points it tracked, NaN when it tracked none.
+	// the same frames and points (its pyramids rebuilt each frame; the
+	// conversion of the frames to 8-bit OpenCV images is not timed, as a
+	// run with OpenCV would decode its photos into them); LKRMSE is over
+	// the points it tracked, NaN when it tracked none.
 	LKSecondsPerFrame, LKRMSE float64
+	// ConvertSecondsPerFrame is the time a frame takes to convert to an
+	// 8-bit OpenCV image for Lucas–Kanade: the harness's work, shown so
+	// that it can be told from the tracker's (it is in neither time).
+	ConvertSecondsPerFrame float64
+	// LKLost is the mean number of those points a frame that Lucas–Kanade
+	// reported lost (status 0), left out of LKRMSE. A point it tracks
+	// badly without saying so stays in LKRMSE, as the tracker's do in RMSE.
+	LKLost float64
 	// VsLK is SecondsPerFrame / LKSecondsPerFrame: the tracker's time per
 	// point over Lucas–Kanade's on the same points, measured in the same
 	// run (below 1: faster).
@@ -145,7 +160,8 @@ type SequenceRow struct {
 // TrackSequence tracks every frame of seq with subsets of side sub on a
 // grid of step px (affine shape, bicubic splines, all workers) and scores
 // the frames after the first tracked one. Lucas–Kanade runs with a sub×sub
-// window on each of those frames, timed alone.
+// window on each of those frames, timed alone. Both are scored at the
+// same reference pixels against the exact field there.
 func TrackSequence(seq *Sequence, sub, step int) (SequenceRow, error) {
 	row := SequenceRow{Subset: sub, Step: step}
 	resetPeakRSS()
@@ -153,8 +169,13 @@ func TrackSequence(seq *Sequence, sub, step int) (SequenceRow, error) {
 	if err != nil {
 		return row, err
 	}
-	var secs, lkSecs, iters, sq, lkSq float64
-	var n, lkN, frames int
+	lkRef, err := frames.ToMat(seq.Ref, 8)
+	if err != nil {
+		return row, fmt.Errorf("sequence: reference frame: %w", err)
+	}
+	defer lkRef.Close()
+	var secs, lkSecs, convSecs, iters, sq, lkSq float64
+	var n, lkN, lost, lkLost, scored int
 	for k := 1; k < seq.Spec.Frames; k++ {
 		img, field, err := seq.Frame(k)
 		if err != nil {
@@ -169,12 +190,15 @@ func TrackSequence(seq *Sequence, sub, step int) (SequenceRow, error) {
 		if k == 1 {
 			continue
 		}
-		frames++
+		scored++
 		secs += dt
 		var pts [][2]int
 		var truth []synth.Motion
 		for i := range f.Points {
 			p := &f.Points[i]
+			if p.Status == subset.Lost || p.Status == subset.Diverged {
+				lost++
+			}
 			if !p.Valid() {
 				continue
 			}
@@ -185,29 +209,40 @@ func TrackSequence(seq *Sequence, sub, step int) (SequenceRow, error) {
 			pts, truth = append(pts, [2]int{p.X, p.Y}), append(truth, m)
 		}
 		n += len(pts)
-		c := &Case{Name: "sequence", Ref: seq.Ref, Def: img, Points: pts, Truth: truth, Search: 3}
 		t0 = time.Now()
-		lu, lv, err := LucasKanade(c, sub)
+		lkDef, err := frames.ToMat(img, 8)
+		if err != nil {
+			return row, fmt.Errorf("sequence: frame %d: %w", k, err)
+		}
+		convSecs += time.Since(t0).Seconds()
+		t0 = time.Now()
+		lu, lv, err := lucasKanadeMats(lkRef, lkDef, pts, sub)
 		lkSecs += time.Since(t0).Seconds()
+		lkDef.Close()
 		if err != nil {
 			return row, err
 		}
 		for i := range lu {
-			if !math.IsNaN(lu[i]) {
-				lkSq += (lu[i]-truth[i].U)*(lu[i]-truth[i].U) + (lv[i]-truth[i].V)*(lv[i]-truth[i].V)
-				lkN++
+			if math.IsNaN(lu[i]) {
+				lkLost++
+				continue
 			}
+			lkSq += (lu[i]-truth[i].U)*(lu[i]-truth[i].U) + (lv[i]-truth[i].V)*(lv[i]-truth[i].V)
+			lkN++
 		}
 	}
 	if n == 0 {
 		return row, fmt.Errorf("sequence: no valid point in the frames after the first")
 	}
-	row.Points = float64(n) / float64(frames)
-	row.SecondsPerFrame = secs / float64(frames)
+	row.Points = float64(n) / float64(scored)
+	row.Lost = float64(lost) / float64(scored)
+	row.LKLost = float64(lkLost) / float64(scored)
+	row.SecondsPerFrame = secs / float64(scored)
 	row.PointsPerSecond = row.Points / row.SecondsPerFrame
 	row.Iterations = iters / float64(n)
 	row.RMSE = math.Sqrt(sq / float64(n))
-	row.LKSecondsPerFrame = lkSecs / float64(frames)
+	row.LKSecondsPerFrame = lkSecs / float64(scored)
+	row.ConvertSecondsPerFrame = convSecs / float64(scored)
 	row.LKRMSE = math.NaN() // Lucas–Kanade lost every point: no score, not a perfect one
 	if lkN > 0 {
 		row.LKRMSE = math.Sqrt(lkSq / float64(lkN))

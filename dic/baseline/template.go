@@ -19,12 +19,11 @@ func TemplateParabolic(c *Case, window int) (u, v []float64, err error) {
 	if err := checkWindow(c, window); err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NameTemplate, err)
 	}
-	ref, def, err := caseMats(c)
+	ref, def, release, err := caseMats(c)
 	if err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", NameTemplate, err)
 	}
-	defer ref.Close()
-	defer def.Close()
+	defer release()
 
 	r, s := window/2, c.Search
 	u, v = nanSlices(len(c.Points))
