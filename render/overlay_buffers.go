@@ -11,7 +11,7 @@ type overlayBuffers struct {
 	raster []float32
 	bgr    []byte
 	rgba   []byte
-	blend  *blendTable // the last frame's colours (2.4 MB)
+	blend  *blendTable // the last frame's colours (0.85 MB)
 }
 
 // table returns the last frame's blend table (nil: none, or no buf).
