@@ -73,16 +73,12 @@ func drawZoneOutlines(img *gocv.Mat, g dic.Grid, zones []ZoneOutline, d *Deforma
 // drawVectors draws displacement arrows, light on a dark edge, at every
 // v.Every-th grid point, from where the point is shown (its reference
 // position, or with d its current one) along its displacement times the
-// gain; it returns the gain used.
-func drawVectors(img *gocv.Mat, v *Vectors, d *Deformation) float64 {
+// gain (vectorGain).
+func drawVectors(img *gocv.Mat, v *Vectors, d *Deformation, gain float64) {
 	every := max(1, v.Every)
 	g := v.U.Grid
-	gain := v.Gain
-	if gain == 0 {
-		gain = AutoVectorGain(v.U, v.V, every)
-	}
 	if !(gain > 0) {
-		return 0
+		return
 	}
 	type arrow struct{ a, b image.Point }
 	var arrows []arrow
@@ -113,6 +109,18 @@ func drawVectors(img *gocv.Mat, v *Vectors, d *Deformation) float64 {
 	}
 	for _, ar := range arrows {
 		gocv.ArrowedLine(img, ar.a, ar.b, markLight, 1)
+	}
+}
+
+// vectorGain is the gain arrows are drawn at: v's own, or AutoVectorGain
+// when it has none (0: nothing moved).
+func vectorGain(v *Vectors) float64 {
+	gain := v.Gain
+	if gain == 0 {
+		gain = AutoVectorGain(v.U, v.V, max(1, v.Every))
+	}
+	if !(gain > 0) {
+		return 0
 	}
 	return gain
 }

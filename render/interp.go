@@ -74,25 +74,12 @@ func (g *GridValues) Raster(width, height int, keep *region.Mask) (*Raster, erro
 
 // rasterIn is Raster into buf's raster array when buf is not nil.
 func (g *GridValues) rasterIn(buf *overlayBuffers, width, height int, keep *region.Mask) (*Raster, error) {
-	if err := g.check(); err != nil {
+	s, err := g.sampler(nil, width, height, keep)
+	if err != nil {
 		return nil, err
 	}
-	if keep != nil && (keep.Width != width || keep.Height != height) {
-		return nil, fmt.Errorf("raster: mask %dx%d for a %dx%d image", keep.Width, keep.Height, width, height)
-	}
 	r := buf.newRaster(width, height)
-	x0, y0, x1, y1 := g.bounds(width, height)
-	for y := y0; y <= y1; y++ {
-		row := r.Pix[y*width : (y+1)*width]
-		for x := x0; x <= x1; x++ {
-			if keep != nil && keep.Pix[y*width+x] == 0 {
-				continue
-			}
-			if v, ok := g.At(float64(x), float64(y)); ok {
-				row[x] = float32(v)
-			}
-		}
-	}
+	s.fill(r)
 	return r, nil
 }
 

@@ -125,3 +125,44 @@ func TestInterpCurrentFrameFollowsTranslation(t *testing.T) {
 		t.Errorf("pixel (44, 40), inside the reference opening but left of the moved one, is clear; expected a value")
 	}
 }
+
+// The overlay's row sampler gives At's value at every pixel bit for bit
+// (At is the definition; the row sampler only hoists its per-row work),
+// on a grid with invalid points, edges, a mask and pixels beyond the grid.
+func TestRowMatchesAt(t *testing.T) {
+	g := dic.Grid{X0: 3, Y0: 5, Step: 7, Cols: 11, Rows: 9}
+	gv := sampleGrid(g, func(x, y float64) float64 { return math.Sin(x/9) * math.Cos(y/13) },
+		func(x, y float64) bool { return (x == 24 && y == 26) || x == 73 })
+	keep, err := region.Layout{Exclude: []region.Shape{region.Circle(50, 40, 5)}}.Rasterise(90, 75)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := gv.sampler(nil, 90, 75, keep)
+	if err != nil {
+		t.Fatal(err)
+	}
+	row := make([]float32, 90)
+	drawn := 0
+	for y := 0; y < 75; y++ {
+		s.row(y, row)
+		for x := 0; x < 90; x++ {
+			v, ok := gv.At(float64(x), float64(y))
+			if !keep.At(x, y) {
+				ok = false
+			}
+			got := row[x]
+			switch {
+			case ok && got != float32(v):
+				t.Fatalf("pixel (%d, %d): row %v, At %v", x, y, got, float32(v))
+			case !ok && !math.IsNaN(float64(got)):
+				t.Fatalf("pixel (%d, %d): row %v, At has no value", x, y, got)
+			}
+			if ok {
+				drawn++
+			}
+		}
+	}
+	if drawn < 3000 {
+		t.Errorf("%d pixels drawn: the case does not reach the grid", drawn)
+	}
+}

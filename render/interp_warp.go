@@ -85,67 +85,15 @@ func (g *GridValues) RasterOn(d *Deformation, width, height int, keep *region.Ma
 
 // rasterOnIn is RasterOn into buf's raster array when buf is not nil.
 func (g *GridValues) rasterOnIn(buf *overlayBuffers, d *Deformation, width, height int, keep *region.Mask) (*Raster, error) {
-	if err := g.check(); err != nil {
-		return nil, err
-	}
 	if d == nil || (d.Lens == nil && !d.moves()) {
 		return nil, fmt.Errorf("raster on the current frame: no displacement field")
 	}
-	if keep != nil && (keep.Width != width || keep.Height != height) {
-		return nil, fmt.Errorf("raster: mask %dx%d for a %dx%d image", keep.Width, keep.Height, width, height)
+	s, err := g.sampler(d, width, height, keep)
+	if err != nil {
+		return nil, err
 	}
-	umin, umax, vmin, vmax := 0.0, 0.0, 0.0, 0.0
 	r := buf.newRaster(width, height)
-	if d.moves() {
-		if err := d.U.check(); err != nil {
-			return nil, fmt.Errorf("displacement u: %w", err)
-		}
-		if err := d.V.check(); err != nil {
-			return nil, fmt.Errorf("displacement v: %w", err)
-		}
-		umin, umax = finiteRange(d.U.Values)
-		vmin, vmax = finiteRange(d.V.Values)
-		if math.IsNaN(umin) || math.IsNaN(vmin) {
-			return r, nil // nothing measured
-		}
-	}
-	x0, y0, x1, y1 := g.bounds(width, height)
-	x0, x1 = max(0, x0+int(math.Floor(umin))), min(width-1, x1+int(math.Ceil(umax)))
-	y0, y1 = max(0, y0+int(math.Floor(vmin))), min(height-1, y1+int(math.Ceil(vmax)))
-	if d.Lens != nil {
-		x0, y0, x1, y1 = d.photoBounds(x0, y0, x1, y1, width, height)
-	}
-	for y := y0; y <= y1; y++ {
-		gu, gv := (umin+umax)/2, (vmin+vmax)/2
-		for x := x0; x <= x1; x++ {
-			px, py := float64(x), float64(y)
-			if d.Lens != nil {
-				var seen bool
-				if px, py, seen = d.Lens.Undistort(px, py); !seen {
-					continue
-				}
-			}
-			X, Y, ok := px, py, true
-			if d.moves() {
-				if X, Y, ok = d.Reference(px, py, gu, gv); !ok {
-					continue
-				}
-				gu, gv = px-X, py-Y
-			}
-			if keep != nil {
-				kx, ky := X, Y // the mask is in the reference photo's pixels
-				if d.Lens != nil {
-					kx, ky = d.Lens.Distort(X, Y)
-				}
-				if !keep.At(int(math.Round(kx)), int(math.Round(ky))) {
-					continue
-				}
-			}
-			if v, ok := g.At(X, Y); ok {
-				r.Pix[y*width+x] = float32(v)
-			}
-		}
-	}
+	s.fill(r)
 	return r, nil
 }
 

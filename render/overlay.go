@@ -3,7 +3,6 @@ package render
 import (
 	"fmt"
 	"image"
-	"math"
 
 	"gocv.io/x/gocv"
 
@@ -101,6 +100,13 @@ type OverlayOptions struct {
 // limits, the frame's time and stress, a scale bar and the legend. The
 // photo keeps its pixel size at the top left, so image positions are
 // photo positions. The caller closes the result.
+//
+// The field is sampled, coloured and blended a row at a time, straight
+// into the canvas, on all cores (parallelRows); the marks are drawn on
+// the canvas's photo part by OpenCV and the panel's lettering in Go on an
+// image of the panel alone. It matches the path it replaced (a float
+// raster, Colormap.At, OpenCV's AddWeighted, an RGBA canvas copied to BGR)
+// to one gray level at every pixel (TestOverlayMatchesReferencePath).
 func Overlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.Mat, error) {
 	w, h := photo.Width, photo.Height
 	if w == 0 || h == 0 {
@@ -123,30 +129,89 @@ func Overlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.
 		}
 		opt.Deform = &d
 	}
-	var r *Raster
-	var err error
-	if opt.Deform != nil {
-		r, err = values.rasterOnIn(opt.buffers, opt.Deform, w, h, opt.Keep)
-	} else {
-		r, err = values.rasterIn(opt.buffers, w, h, opt.Keep)
+	if opt.Deform != nil && opt.Deform.Lens == nil && !opt.Deform.moves() {
+		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: raster on the current frame: no displacement field", opt.Stamp.Frame)
 	}
+	s, err := values.sampler(opt.Deform, w, h, opt.Keep)
 	if err != nil {
 		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: %w", opt.Stamp.Frame, err)
 	}
-	blended, err := blendField(opt.buffers, photo, r, opt.Map, opt.Limits, alpha)
-	if err != nil {
-		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: %w", opt.Stamp.Frame, err)
-	}
-	defer blended.Close()
 	l := newPanelLayout(h)
-	drawZoneOutlines(&blended, values.Grid, opt.Zones, opt.Deform, l.thick)
 	gain := 0.0
 	if opt.Vectors != nil {
-		gain = drawVectors(&blended, opt.Vectors, opt.Deform)
+		gain = vectorGain(opt.Vectors)
 	}
-	badges := placeOnsets(&blended, opt.Onsets, opt.Deform, l)
 	over, under := beyondLimits(values, opt.Limits)
-	return composeCanvas(blended, opt, l, badges, gain, over, under)
+	measure, err := newSidePanel(nil, w, l)
+	if err != nil {
+		return gocv.Mat{}, err
+	}
+	drawPanel(measure, opt, gain, over, under)
+	cw, ch := w+l.width, max(h, measure.y+l.margin)
+	pix := opt.buffers.canvas(3 * cw * ch)
+	bt := newBlendTable(opt.buffers.table(), opt.Map, opt.Limits, alpha, photo)
+	opt.buffers.keep(bt)
+	rows := make([][]float32, workerCount(ch))
+	parallelRows(ch, func(k, y0, y1 int) {
+		if rows[k] == nil {
+			rows[k] = make([]float32, w)
+		}
+		for y := y0; y < y1; y++ {
+			line := pix[3*cw*y : 3*cw*(y+1)]
+			from := 0
+			if y < h {
+				s.row(y, rows[k])
+				bt.row(line, rows[k], photo, y)
+				from = 3 * w
+			}
+			for i := from; i < len(line); i++ {
+				line[i] = 0xff
+			}
+		}
+	})
+	canvas, err := gocv.NewMatFromBytes(ch, cw, gocv.MatTypeCV8UC3, pix)
+	if err != nil {
+		return gocv.Mat{}, err
+	}
+	ok := false
+	defer func() {
+		if !ok {
+			canvas.Close()
+		}
+	}()
+	onPhoto := canvas.Region(image.Rect(0, 0, w, h))
+	drawZoneOutlines(&onPhoto, values.Grid, opt.Zones, opt.Deform, l.thick)
+	if opt.Vectors != nil {
+		drawVectors(&onPhoto, opt.Vectors, opt.Deform, gain)
+	}
+	badges := placeOnsets(&onPhoto, opt.Onsets, opt.Deform, l)
+	onPhoto.Close()
+	bgr := bgrCanvas{pix: pix, stride: 3 * cw, rect: image.Rect(0, 0, cw, ch)}
+	panel := opt.buffers.newRGBA(image.Rect(w, 0, cw, ch))
+	for i := range panel.Pix {
+		panel.Pix[i] = 0xff
+	}
+	p, err := newSidePanel(panel, w, l)
+	if err != nil {
+		return gocv.Mat{}, err
+	}
+	drawPanel(p, opt, gain, over, under)
+	bgr.put(panel)
+	if len(badges) > 0 {
+		face, err := annotateFace(l.small, true)
+		if err != nil {
+			return gocv.Mat{}, err
+		}
+		for _, b := range badges {
+			// The badge is lettered in Go on an RGBA copy of its patch.
+			r := 2*l.badgeR + 4
+			patch := bgr.get(image.Rect(b.at.X-r, b.at.Y-r, b.at.X+r+1, b.at.Y+r+1))
+			onsetBadge(patch, face, b.at.X, b.at.Y, l.badgeR, b.number)
+			bgr.put(patch)
+		}
+	}
+	ok = true
+	return canvas, nil
 }
 
 // photoGray returns the photo as 8-bit gray levels (16-bit photos scaled
@@ -164,47 +229,6 @@ func photoGrayInto(out []byte, photo *subset.Image) []byte {
 	return out
 }
 
-// blendField colours the raster with the map and blends it over the gray
-// photo at opacity alpha (OpenCV AddWeighted): colour·α + gray·(1 − α) where
-// the field is drawn, the photo's gray elsewhere. Its gray and colour
-// arrays are buf's when buf is not nil (the Mats that view them are closed
-// here, before buf's next use).
-func blendField(buf *overlayBuffers, photo *subset.Image, r *Raster, m Colormap, lim Limits, alpha float64) (gocv.Mat, error) {
-	w, h := photo.Width, photo.Height
-	var gray, colour []byte
-	if buf != nil {
-		buf.gray, buf.colour = resize(buf.gray, len(photo.Pix)), resize(buf.colour, 3*w*h)
-		gray, colour = photoGrayInto(buf.gray, photo), buf.colour
-	} else {
-		gray, colour = photoGray(photo), make([]byte, 3*w*h)
-	}
-	for i, v := range r.Pix {
-		if math.IsNaN(float64(v)) {
-			g := gray[i]
-			colour[3*i], colour[3*i+1], colour[3*i+2] = g, g, g
-			continue
-		}
-		cr, cg, cb := m.At(lim.Position(float64(v)))
-		colour[3*i], colour[3*i+1], colour[3*i+2] = cb, cg, cr
-	}
-	gm, err := gocv.NewMatFromBytes(h, w, gocv.MatTypeCV8U, gray)
-	if err != nil {
-		return gocv.Mat{}, err
-	}
-	defer gm.Close()
-	base := gocv.NewMat()
-	defer base.Close()
-	gocv.CvtColor(gm, &base, gocv.ColorGrayToBGR)
-	cm, err := gocv.NewMatFromBytes(h, w, gocv.MatTypeCV8UC3, colour)
-	if err != nil {
-		return gocv.Mat{}, err
-	}
-	defer cm.Close()
-	out := gocv.NewMat()
-	gocv.AddWeighted(base, 1-alpha, cm, alpha, 0, &out)
-	return out, nil
-}
-
 // beyondLimits reports whether any measured value lies above or below the
 // limits (shown as triangles at the ends of the colour bar).
 func beyondLimits(g *GridValues, lim Limits) (over, under bool) {
@@ -219,67 +243,37 @@ func beyondLimits(g *GridValues, lim Limits) (over, under bool) {
 	return
 }
 
-// composeCanvas lays the blended photo and the panel side by side on a
-// white canvas tall enough for both and draws the panel and the onset
-// badges.
-func composeCanvas(blended gocv.Mat, opt OverlayOptions, l panelLayout, badges []placedBadge, gain float64, over, under bool) (gocv.Mat, error) {
-	w, h := blended.Cols(), blended.Rows()
-	measure, err := newSidePanel(nil, w, l)
-	if err != nil {
-		return gocv.Mat{}, err
-	}
-	drawPanel(measure, opt, gain, over, under)
-	H := max(h, measure.y+l.margin)
-	canvas := opt.buffers.newRGBA(w+l.width, H)
-	for i := range canvas.Pix {
-		canvas.Pix[i] = 0xff
-	}
-	bgr, err := blended.DataPtrUint8()
-	if err != nil {
-		return gocv.Mat{}, err
-	}
-	for y := 0; y < h; y++ {
-		row := canvas.Pix[y*canvas.Stride:]
-		src := bgr[3*y*w : 3*(y+1)*w]
-		for x := 0; x < w; x++ {
-			row[4*x], row[4*x+1], row[4*x+2] = src[3*x+2], src[3*x+1], src[3*x]
-		}
-	}
-	p, err := newSidePanel(canvas, w, l)
-	if err != nil {
-		return gocv.Mat{}, err
-	}
-	drawPanel(p, opt, gain, over, under)
-	if len(badges) > 0 {
-		face, err := annotateFace(l.small, true)
-		if err != nil {
-			return gocv.Mat{}, err
-		}
-		for _, b := range badges {
-			onsetBadge(canvas, face, b.at.X, b.at.Y, l.badgeR, b.number)
-		}
-	}
-	return rgbaToBGR(opt.buffers, canvas)
+// bgrCanvas is the overlay's BGR canvas seen from Go: 3 bytes a pixel,
+// stride bytes a row.
+type bgrCanvas struct {
+	pix    []byte
+	stride int
+	rect   image.Rectangle
 }
 
-// rgbaToBGR converts an opaque RGBA image to an OpenCV BGR image, which
-// views buf's BGR array when buf is not nil (the caller closes it before
-// buf's next use).
-func rgbaToBGR(buf *overlayBuffers, img *image.RGBA) (gocv.Mat, error) {
-	w, h := img.Rect.Dx(), img.Rect.Dy()
-	var out []byte
-	if buf != nil {
-		buf.bgr = resize(buf.bgr, 3*w*h)
-		out = buf.bgr
-	} else {
-		out = make([]byte, 3*w*h)
-	}
-	for y := 0; y < h; y++ {
-		row := img.Pix[y*img.Stride:]
-		dst := out[3*y*w:]
-		for x := 0; x < w; x++ {
-			dst[3*x], dst[3*x+1], dst[3*x+2] = row[4*x+2], row[4*x+1], row[4*x]
+// get returns the part r of the canvas (clipped to it) as an RGBA image
+// with the canvas's coordinates.
+func (c bgrCanvas) get(r image.Rectangle) *image.RGBA {
+	img := image.NewRGBA(r.Intersect(c.rect))
+	b := img.Rect
+	for y := b.Min.Y; y < b.Max.Y; y++ {
+		src := c.pix[y*c.stride+3*b.Min.X : y*c.stride+3*b.Max.X]
+		dst := img.Pix[img.PixOffset(b.Min.X, y):]
+		for x := 0; x < b.Dx(); x++ {
+			dst[4*x], dst[4*x+1], dst[4*x+2], dst[4*x+3] = src[3*x+2], src[3*x+1], src[3*x], 0xff
 		}
 	}
-	return gocv.NewMatFromBytes(h, w, gocv.MatTypeCV8UC3, out)
+	return img
+}
+
+// put copies an opaque RGBA image into the canvas at its own coordinates.
+func (c bgrCanvas) put(img *image.RGBA) {
+	b := img.Rect.Intersect(c.rect)
+	for y := b.Min.Y; y < b.Max.Y; y++ {
+		dst := c.pix[y*c.stride+3*b.Min.X : y*c.stride+3*b.Max.X]
+		src := img.Pix[img.PixOffset(b.Min.X, y):]
+		for x := 0; x < b.Dx(); x++ {
+			dst[3*x], dst[3*x+1], dst[3*x+2] = src[4*x+2], src[4*x+1], src[4*x]
+		}
+	}
 }

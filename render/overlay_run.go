@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"image"
 	"io/fs"
 	"math"
 	"os"
@@ -60,6 +61,10 @@ type Options struct {
 	Format     string
 	FPS        float64
 	SideBySide bool
+	// VideoWidth is the video's frame width in px (0: DefaultVideoWidth;
+	// negative: the overlays' own size); wider frames are scaled down to
+	// it, keeping their shape. The PNGs keep the photo's pixels.
+	VideoWidth int
 	// Images replaces the photo sequence recorded by the track stage (when
 	// the photos have moved).
 	Images string
@@ -118,6 +123,9 @@ func Run(ctx context.Context, dir string, opt Options) (Result, error) {
 	}
 	if opt.Format == "" {
 		opt.Format = VideoMP4
+	}
+	if opt.VideoWidth == 0 {
+		opt.VideoWidth = DefaultVideoWidth
 	}
 	rr, err := openRenderRun(dir, opt)
 	if err != nil {
@@ -206,7 +214,7 @@ func Run(ctx context.Context, dir string, opt Options) (Result, error) {
 		if err != nil {
 			return res, err
 		}
-		if err := frames.WriteMat(filepath.Join(res.Dir, name+".png"), canvas); err != nil {
+		if err := frames.WritePNGStripes(filepath.Join(res.Dir, name+".png"), canvas); err != nil {
 			canvas.Close()
 			return res, fmt.Errorf("frame %s: %w", name, err)
 		}
@@ -582,6 +590,13 @@ func (rr *renderRun) writeVideoFrame(video **VideoWriter, canvas gocv.Mat, name 
 		}
 		defer sb.Close()
 		frame = sb
+	}
+	if opt.VideoWidth > 0 && frame.Cols() > opt.VideoWidth {
+		h := max(1, int(math.Round(float64(frame.Rows())*float64(opt.VideoWidth)/float64(frame.Cols()))))
+		small := gocv.NewMat()
+		defer small.Close()
+		gocv.Resize(frame, &small, image.Pt(opt.VideoWidth, h), 0, 0, gocv.InterpolationArea)
+		frame = small
 	}
 	if *video == nil {
 		v, err := CreateVideo(path, opt.Format, opt.FPS, frame.Cols(), frame.Rows())

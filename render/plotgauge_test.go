@@ -7,6 +7,7 @@ import (
 
 	"spallscope/dic"
 	"spallscope/strain"
+	"spallscope/subset"
 )
 
 // The gauge's reading is the plain mean of its component over the valid
@@ -95,5 +96,95 @@ func TestGaugeDefault(t *testing.T) {
 	mean, _, err := gauge.Mean(sf)
 	if _, eyy := fixtureStrain(4); err != nil || math.Abs(mean-eyy) > 1e-9 {
 		t.Errorf("default gauge reads %.12g, uniform eyy %.12g (%v)", mean, eyy, err)
+	}
+}
+
+// referenceDefaultGauge is DefaultGauge's direct search, as it was: every
+// point's distance against every unmeasured point, every window's least
+// room point by point.
+func referenceDefaultGauge(ref *dic.Field) Gauge {
+	g := ref.Grid
+	w, h := max(3, g.Cols/5), max(3, g.Rows/5)
+	w, h = min(w, g.Cols), min(h, g.Rows)
+	var holes [][2]int
+	for i := range ref.Points {
+		if !ref.Points[i].Valid() {
+			holes = append(holes, [2]int{i % g.Cols, i / g.Cols})
+		}
+	}
+	room := make([]float64, g.Len())
+	for i := range room {
+		c, r := i%g.Cols, i/g.Cols
+		d := float64(min(c+1, r+1, g.Cols-c, g.Rows-r))
+		for _, hp := range holes {
+			d = math.Min(d, math.Hypot(float64(c-hp[0]), float64(r-hp[1])))
+		}
+		room[i] = d
+	}
+	bestC, bestR, bestScore, bestCentre := 0, 0, -1.0, math.Inf(1)
+	cc, cr := float64(g.Cols-w)/2, float64(g.Rows-h)/2
+	for r := 0; r+h <= g.Rows; r++ {
+		for c := 0; c+w <= g.Cols; c++ {
+			score := math.Inf(1)
+			for dr := range h {
+				for dc := range w {
+					score = math.Min(score, room[g.Index(c+dc, r+dr)])
+				}
+			}
+			centre := math.Hypot(float64(c)-cc, float64(r)-cr)
+			if score > bestScore || (score == bestScore && centre < bestCentre) {
+				bestC, bestR, bestScore, bestCentre = c, r, score, centre
+			}
+		}
+	}
+	x0, y0 := g.Pos(g.Index(bestC, bestR))
+	x1, y1 := g.Pos(g.Index(bestC+w-1, bestR+h-1))
+	return Gauge{X0: float64(x0), Y0: float64(y0), X1: float64(x1), Y1: float64(y1), Component: "eyy"}
+}
+
+// The default gauge by distance transform and running minima is the direct
+// search's gauge (referenceDefaultGauge) on grids with one and two
+// openings, scattered lost points, none at all, and grids of 3 points
+// across; and the squared distances are the brute-force ones exactly.
+func TestGaugeDefaultMatchesDirectSearch(t *testing.T) {
+	s := uint32(9)
+	for k, c := range []struct {
+		cols, rows int
+		lost       func(c, r int) bool
+	}{
+		{60, 40, func(c, r int) bool { return math.Hypot(float64(c-25), float64(r-20)) < 7 }},
+		{61, 37, func(c, r int) bool {
+			return math.Hypot(float64(c-18), float64(r-18)) < 6 || math.Hypot(float64(c-42), float64(r-18)) < 6
+		}},
+		{50, 45, func(c, r int) bool { s = s*1664525 + 1013904223; return s>>24 < 4 }},
+		{40, 30, func(c, r int) bool { return false }},
+		{3, 3, func(c, r int) bool { return c == 0 && r == 2 }},
+		{17, 3, func(c, r int) bool { return c == 8 }},
+	} {
+		g := dic.Grid{X0: 10, Y0: 10, Step: 5, Cols: c.cols, Rows: c.rows}
+		f := &dic.Field{Grid: g, Points: make([]dic.Point, g.Len())}
+		site := make([]bool, g.Len())
+		for i := range f.Points {
+			f.Points[i].Status = subset.Converged
+			if c.lost(i%g.Cols, i/g.Cols) {
+				f.Points[i].Status, site[i] = subset.Lost, true
+			}
+		}
+		if got, want := DefaultGauge(f), referenceDefaultGauge(f); got != want {
+			t.Errorf("case %d (%dx%d): gauge %+v, direct search %+v", k, c.cols, c.rows, got, want)
+		}
+		d2 := squaredDistances(site, g.Cols, g.Rows)
+		for i := range d2 {
+			want := math.Inf(1)
+			for j, s := range site {
+				if s {
+					dc, dr := float64(i%g.Cols-j%g.Cols), float64(i/g.Cols-j/g.Cols)
+					want = math.Min(want, dc*dc+dr*dr)
+				}
+			}
+			if d2[i] != want {
+				t.Fatalf("case %d: point %d squared distance %v, brute force %v", k, i, d2[i], want)
+			}
+		}
 	}
 }

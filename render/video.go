@@ -26,6 +26,13 @@ func VideoFile(format string) string { return "video." + format }
 // DefaultFPS is the default frame rate of rendered videos.
 const DefaultFPS = 10
 
+// DefaultVideoWidth is the default width of a run's video frames in px:
+// overlays of larger photos are scaled down to it (OpenCV's area
+// resampling). A 20 MP overlay is over 6,000 px wide, which an MPEG-4
+// Part 2 video of the photo's own size makes slow to encode and that many
+// players refuse; the PNGs keep every pixel.
+const DefaultVideoWidth = 1920
+
 // VideoWriter writes a sequence of equally sized BGR frames to a video file.
 // It writes to a temporary name and renames on Close, so a video file that
 // exists is complete.

@@ -216,3 +216,26 @@ func TestVideoOfRunFolder(t *testing.T) {
 			res.Video, stated, decoded, gw, gh, n, w+w%2, h+h%2)
 	}
 }
+
+// A video narrower than the overlays (VideoWidth) holds every frame scaled
+// to that width with the overlay's shape (height rounded, padded even),
+// while the PNGs keep the photo's pixels.
+func TestVideoScaledToWidth(t *testing.T) {
+	const n = 2
+	dir, sc := synthRun(t, n)
+	res, err := Run(context.Background(), dir, Options{Field: "exx", Video: true, VideoWidth: 120})
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := gocv.IMRead(filepath.Join(res.Dir, sc.FrameName(0)+".png"), gocv.IMReadColor)
+	ow, oh := m.Cols(), m.Rows()
+	m.Close()
+	if ow <= 120 {
+		t.Fatalf("overlay %dx%d: the case needs one wider than the video", ow, oh)
+	}
+	h := int(math.Round(float64(oh) * 120 / float64(ow)))
+	stated, decoded, gw, gh := readBack(t, res.Video)
+	if stated != n || decoded != n || gw != 120 || gh != h+h%2 {
+		t.Errorf("video %s: %d frames stated, %d decoded, %dx%d; expected %d of 120x%d (overlay %dx%d)", res.Video, stated, decoded, gw, gh, n, h+h%2, ow, oh)
+	}
+}

@@ -115,6 +115,7 @@ AVI Motion JPEG where this machine's OpenCV cannot write MP4, which is said).`,
 	f.StringVar(&opt.Format, "format", render.VideoMP4, "video format: mp4 or avi")
 	f.Float64Var(&opt.FPS, "fps", render.DefaultFPS, "video frame rate, frames per second")
 	f.BoolVar(&opt.SideBySide, "side-by-side", false, "video: the raw frame to the left of each overlay")
+	f.IntVar(&opt.VideoWidth, "video-width", render.DefaultVideoWidth, "video: frame width in px; wider frames are scaled down to it (negative: the overlays' own size)")
 	f.StringVar(&opt.Images, "images", "", "photos, when they are no longer where the track record says")
 	return cmd
 }
