@@ -205,6 +205,29 @@ func (cv calibrationValues) pointScale() []float64 {
 	return sd
 }
 
+// NoiseScale returns the factor by which each strain indicator's bar is
+// raised at each grid point (see pointScale): one value a point, in the
+// grid's row-major order, at least 1; all 1 when the calibration had too
+// few frames to measure it (fewer than three), as the bar then is. nil
+// before SetNoise. The kernel truth's detectable frame is taken at this
+// bar (KernelTruth.FirstAboveScale), the one the run applied.
+func (f *Finder) NoiseScale() map[Indicator][]float64 {
+	if f.scale == nil {
+		return nil
+	}
+	out := map[Indicator][]float64{}
+	for ind, s := range f.scale {
+		if s == nil {
+			s = make([]float64, f.grid.Len())
+			for i := range s {
+				s[i] = 1
+			}
+		}
+		out[ind] = s
+	}
+	return out
+}
+
 // Noise returns the indicators' noise measured by SetNoise (nil before).
 func (f *Finder) Noise() map[Indicator]float64 { return f.noise }
 

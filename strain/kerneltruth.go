@@ -172,20 +172,37 @@ func (w Window) noiseGain(ref *dic.Field) ([]float64, error) {
 	return gain, nil
 }
 
-// FirstAboveNoise is FirstAbove with each point's limit scaled by its
-// noise gain (at least 1): limit·max(1, Gain[i]). A run whose bar at a
-// point is raised by that point's own noise relative to the face's (the
-// one-sided windows at walls, see Finder.SetNoise) can see the feature
-// there only above the raised bar.
-func (kt KernelTruth) FirstAboveNoise(limit float64) int {
+// FirstAboveScale is FirstAbove with each point's limit raised as the
+// run raised its bar there: limit·max(1, scale[i]), scale the run's
+// measured noise scale (Finder.NoiseScale: each point's noise over the
+// calibration frames relative to the face's), one value a grid point. A
+// run sees the feature at a point only above that point's bar, so this
+// is the earliest frame the run could report it. NaN scale: the point had
+// no bar (it is skipped). An error when scale is not one value a point.
+func (kt KernelTruth) FirstAboveScale(limit float64, scale []float64) (int, error) {
 	for f, vals := range kt.Values {
+		if len(scale) != len(vals) {
+			return -1, fmt.Errorf("kernel truth: %d noise scales for frame %d's %d grid points, expected one a point", len(scale), f, len(vals))
+		}
 		for i, v := range vals {
-			if !math.IsNaN(v) && !math.IsNaN(kt.Gain[i]) && v > limit*math.Max(1, kt.Gain[i]) {
-				return f
+			if !math.IsNaN(v) && !math.IsNaN(scale[i]) && v > limit*math.Max(1, scale[i]) {
+				return f, nil
 			}
 		}
 	}
-	return -1
+	return -1, nil
+}
+
+// FirstAboveNoise is FirstAbove with each point's limit scaled by its
+// window's theoretical noise gain (at least 1): limit·max(1, Gain[i]).
+// The gain assumes independent displacement noise at every point; a
+// tracker's noise is correlated between overlapping neighbouring subsets,
+// so the run's measured scale at the one-sided windows is smaller than
+// the gain (FirstAboveScale, the run's own bar, is the truth when the run
+// recorded it). This is its stand-in for a run that did not.
+func (kt KernelTruth) FirstAboveNoise(limit float64) int {
+	f, _ := kt.FirstAboveScale(limit, kt.Gain)
+	return f
 }
 
 // FirstAbove is the kernel truth's detectable frame at a detection limit:

@@ -2,6 +2,8 @@ package strain_test
 
 import (
 	"math"
+	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"spallscope/dic"
@@ -155,6 +157,42 @@ func TestKernelTruthWorkedBand(t *testing.T) {
 	if f := kt.FirstAbove(0.02); f != 18 {
 		t.Errorf("kernel truth detectable at frame %d, want 18", f)
 	}
+	// At a run's per-point bar (FirstAboveScale): a scale of 1 is the
+	// bare limit, frame 18; 1.8 everywhere is a limit of 0.036, reached at
+	// g = 0.672, frame 24 (0.0375; frame 23: 0.0348); 1.8 on the row at
+	// 60 px alone leaves the row at 68 px, which reads the same, at frame
+	// 18; 1.8 on both leaves the rows at 52 and 76 px, which have the band
+	// between offsets 1 and 2 of their windows: k_1 = (2 + 3)/28, a reading
+	// of 2·5/(28·8) = 0.0446·g, above 0.02 from g = 0.448, frame 19
+	// (0.02009, against a profile error of 2e-5; frame 18: 0.0179); a point
+	// without a bar (NaN) never counts.
+	at := func(v float64, rows ...int) []float64 {
+		sc := make([]float64, g.Len())
+		for i := range sc {
+			sc[i] = 1
+			if len(rows) == 0 || slices.Contains(rows, i/g.Cols) {
+				sc[i] = v
+			}
+		}
+		return sc
+	}
+	for _, c := range []struct {
+		name  string
+		scale []float64
+		want  int
+	}{{"1 everywhere", at(1), 18}, {"1.8 everywhere", at(1.8), 24}, {"1.8 on the row at 60 px", at(1.8, 7), 18},
+		{"1.8 on both rows", at(1.8, 7, 8), 19}, {"no bar", at(math.NaN()), -1}} {
+		f, err := kt.FirstAboveScale(0.02, c.scale)
+		if err != nil || f != c.want {
+			t.Errorf("scale %s: detectable at frame %d (%v), want %d", c.name, f, err, c.want)
+		}
+	}
+	if _, err := kt.FirstAboveScale(0.02, make([]float64, g.Len()-1)); err == nil {
+		t.Error("a scale short of one value a grid point: no error")
+	}
+	if f, _ := kt.FirstAboveScale(0.02, kt.Gain); f != kt.FirstAboveNoise(0.02) {
+		t.Errorf("at the window's gain: frame %d, FirstAboveNoise %d, want the same", f, kt.FirstAboveNoise(0.02))
+	}
 	box, err := sc.FeatureBoxGammaOnGrid(0, 30, win.VSG(step, 21), g)
 	if err != nil {
 		t.Fatal(err)
@@ -182,4 +220,119 @@ func TestKernelTruthRefuses(t *testing.T) {
 	if _, err := (strain.Window{Size: 5}).KernelTruth([]*dic.Field{nil, nil}, strain.MaxShear); err == nil {
 		t.Error("no fields: no error")
 	}
+}
+
+// The zones stage's measured noise scale (Finder.NoiseScale: each point's
+// standard deviation of γmax over the calibration frames relative to the
+// median point's, at least 1) against the window's theoretical noise gain
+// (KernelTruth.Gain) on fields of independent Gaussian displacement noise,
+// the case the gain assumes. The window's slope is a weighted sum
+// Σ_j w_j·u_j, so its variance is σ²·Σ_j w_j² (the variance of a weighted
+// sum of independent variables, textbook). With u and v independent and of
+// equal variance, the two components of γmax/2, (εxx − εyy)/2 and εxy,
+// both have variance σ²·(Σw_x² + Σw_y²)/4 and are uncorrelated (their
+// covariance is σ²·(Σw_x·w_y − Σw_y·w_x)/4 = 0; derived here), so γmax is
+// Rayleigh distributed with a scale ∝ Gain, and its standard deviation is
+// ∝ Gain at every point.
+//
+// The measured scale divides by the median of the points' sample standard
+// deviations, not by a full window's true one. Over N frames a sample
+// standard deviation has a relative standard error se = √((κ − 1)/(4N))
+// (large-sample variance of the sample variance, textbook), κ = 3.245 the
+// Rayleigh distribution's kurtosis (3 + the excess (−6π² + 24π − 16)/(4 −
+// π)², from memory): 0.037 at N = 400. The full windows' sample values
+// scatter by se about their true value and the one-sided windows lie
+// above them all, so the median is the full windows' quantile q =
+// (n/2)/n_full, z_q·se above the truth (order statistics, textbook), and
+// the expected scale is max(1, c·Gain), c = 1/(1 + z_q·se) (0.97 here).
+// Held: the median point's gain is 1 (a full window); the mean of
+// scale/Gain over the one-sided windows (Gain ≥ 1.3, where the scale is
+// not clipped at 1) is c within 0.01 (its own standard error is 0.002);
+// every point's scale is max(1, c·Gain) within 0.16 of it (4.3 se).
+func TestNoiseScaleIsTheGainOnIndependentNoise(t *testing.T) {
+	const frames, sigma = 400, 0.02
+	g := dic.Grid{X0: 4, Y0: 4, Step: 8, Cols: 40, Rows: 40}
+	rng := rand.New(rand.NewPCG(15, 1))
+	field := func(index int, noise bool) *dic.Field {
+		f := &dic.Field{Index: index, Grid: g, Points: make([]dic.Point, g.Len())}
+		for i := range f.Points {
+			x, y := g.Pos(i)
+			p := &f.Points[i]
+			p.X, p.Y = x, y
+			if math.Hypot(float64(x)-150, float64(y)-170) < 40 { // an opening: one-sided windows around it
+				p.Status = subset.Masked
+				continue
+			}
+			p.Status, p.ZNCC = subset.Converged, 1
+			if noise {
+				p.P[subset.PU], p.P[subset.PV] = sigma*rng.NormFloat64(), sigma*rng.NormFloat64()
+			}
+		}
+		return f
+	}
+	win := strain.Window{Size: 7, Measure: strain.Engineering}
+	ref := field(0, false)
+	kt, err := win.KernelTruth([]*dic.Field{ref}, strain.MaxShear)
+	if err != nil {
+		t.Fatal(err)
+	}
+	calib := make([]*strain.Field, frames)
+	stress := make([]float64, frames)
+	for k := range calib {
+		if calib[k], err = win.Strain(field(k, true)); err != nil {
+			t.Fatal(err)
+		}
+	}
+	finder, err := strain.NewFinder(strain.FinderConfig{Indicators: []strain.Indicator{strain.MaxShear}}, ref, strain.FitBaseline(calib, stress))
+	if err != nil {
+		t.Fatal(err)
+	}
+	finder.SetNoise(calib, stress)
+	scale := finder.NoiseScale()[strain.MaxShear]
+	if len(scale) != g.Len() {
+		t.Fatalf("%d noise scales, want one for each of the %d grid points", len(scale), g.Len())
+	}
+	var gains []float64
+	full := 0
+	for _, v := range kt.Gain {
+		if !math.IsNaN(v) {
+			gains = append(gains, v)
+			if math.Abs(v-1) < 1e-9 {
+				full++
+			}
+		}
+	}
+	slices.Sort(gains)
+	if med := gains[len(gains)/2]; math.Abs(med-1) > 1e-9 {
+		t.Fatalf("median gain %.15g, want 1 (most windows full)", med)
+	}
+	kurt := 3 + (-6*math.Pi*math.Pi+24*math.Pi-16)/((4-math.Pi)*(4-math.Pi))
+	se := math.Sqrt((kurt - 1) / (4 * frames))
+	q := float64(len(gains)/2) / float64(full)
+	c := 1 / (1 + math.Sqrt2*math.Erfinv(2*q-1)*se)
+	var worst, sum float64
+	walls := 0
+	for i, gi := range kt.Gain {
+		if math.IsNaN(gi) {
+			continue
+		}
+		want := math.Max(1, c*gi)
+		d := math.Abs(scale[i]/want - 1)
+		worst = math.Max(worst, d)
+		if d > 0.16 {
+			t.Errorf("point (%d, %d): measured scale %.4f, want max(1, %.4f × gain %.4f) = %.4f within 16 %%", i%g.Cols, i/g.Cols, scale[i], c, gi, want)
+		}
+		if gi >= 1.3 {
+			walls++
+			sum += scale[i] / gi
+		}
+	}
+	if walls < 100 {
+		t.Fatalf("%d points with a gain of at least 1.3, want at least 100 (the edges and the opening's wall)", walls)
+	}
+	mean := sum / float64(walls)
+	if math.Abs(mean-c) > 0.01 {
+		t.Errorf("mean measured scale / gain over %d one-sided windows %.4f, want c = %.4f within 0.01", walls, mean, c)
+	}
+	t.Logf("%d points (%d full windows), %d with gain ≥ 1.3 (largest %.2f); se %.4f, c %.4f; mean scale/gain over the one-sided %.4f, worst point %.3f off", len(gains), full, walls, gains[len(gains)-1], se, c, mean, worst)
 }

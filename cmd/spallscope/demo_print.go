@@ -42,7 +42,7 @@ func printFaces(cmd *cobra.Command, run string) {
 // read beside the onsets.
 func printTruth(cmd *cobra.Command, rows []demo.TruthRow, path string) {
 	o := cmd.OutOrStdout()
-	fmt.Fprintf(o, "  truth of the damage features (detectable: the earliest frame each face's run could report each — kernel: its own displacement through the run's strain window, box: its own γmax averaged over the run's VSG centred on its grid points — above the face's detection limit; box_truth: the box truth beside the kernel's), in %s:\n", path)
+	fmt.Fprintf(o, "  truth of the damage features (detectable: the earliest frame each face's run could report each — kernel: its own displacement through the run's strain window, at the run's own per-point bar, box: its own γmax averaged over the run's VSG centred on its grid points — above the face's detection limit; box_truth: the box truth beside the kernel's), in %s:\n", path)
 	w := tabwriter.NewWriter(o, 2, 4, 2, ' ', 0)
 	fmt.Fprintln(w, "    face\tfeature\topening\tsector\twall\thidden_start\tdetectable\ttruth\tbox_truth\tstress_MPa\tlimit_µε\tVSG_px")
 	for _, r := range rows {
@@ -50,14 +50,18 @@ func printTruth(cmd *cobra.Command, rows []demo.TruthRow, path string) {
 		if !r.LimitFromRun {
 			src = " (nominal)"
 		}
-		truth := "box"
-		if r.Kernel {
-			truth = "kernel"
-		}
+		truth := r.Source()
 		fmt.Fprintf(w, "    %s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%.2f\t%.0f%s\t%d\n", r.Face, r.Feature, r.Opening, r.Sector, r.Wall,
 			r.HiddenName, r.DetectableName, truth, r.BoxDetectableName, r.DetectableStress, r.Limit*1e6, src, r.VSG)
 	}
 	w.Flush()
+	notes := map[string]bool{}
+	for _, r := range rows {
+		if r.Kernel && !r.MeasuredBar && !notes[r.Face] {
+			notes[r.Face] = true
+			fmt.Fprintf(o, "  %s face: kernel_gain — the window's theoretical noise gain stands in for the run's own per-point bar: %s\n", r.Face, r.BarNote)
+		}
+	}
 }
 
 // printModel prints the model comparison's summary, if there is one.

@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"encoding/csv"
 	"encoding/json"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -21,8 +22,10 @@ import (
 // hand that is the kernel truth (strain.KernelTruth: the feature's own
 // displacement, as the run's subsets would report it at the run's measured
 // grid points, through the run's own strain window, above the run's γmax
-// detection limit raised at each point by its window's noise gain), the
-// earliest frame a run with that strain window could report; the box
+// detection limit raised at each point as the run raised its bar there:
+// by the noise scale its zones stage measured and recorded,
+// noise_scale.csv, or by its window's theoretical noise gain for a run
+// without that record), the earliest frame the run could report; the box
 // truth (synth.FeatureTruthOnGrid: the exact gradient averaged over the
 // VSG, windows centred on the grid's points) is kept beside it.
 type TruthRow struct {
@@ -35,9 +38,14 @@ type TruthRow struct {
 	// HiddenStart and Detectable are frame indices (Detectable −1:
 	// never), with their frames' names. Detectable is the kernel truth's
 	// where Kernel, else the box truth's (BoxDetectable).
-	HiddenStart, Detectable        int
-	HiddenName, DetectableName     string
-	Kernel                         bool
+	HiddenStart, Detectable    int
+	HiddenName, DetectableName string
+	Kernel                     bool
+	// MeasuredBar says the kernel truth's bar at each point is the one
+	// the run applied (its recorded noise scale); false with Kernel: the
+	// window's theoretical noise gain, for the reason in BarNote.
+	MeasuredBar                    bool
+	BarNote                        string
 	BoxDetectable                  int
 	BoxDetectableName              string
 	VSG                            int
@@ -85,15 +93,23 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 		}
 		for _, ft := range features {
 			boxDet := ft.FirstAbove(limit)
-			det, kernel := boxDet, false
+			det, kernel, measured, note := boxDet, false, false, ""
 			if fromRun && run.window.Size > 0 && ft.Kind != synth.FeatureSpall {
 				if kt, err := kernelTruth(f.sc, ft.Field, run); err == nil {
-					det, kernel = kt.FirstAboveNoise(run.limit), true
+					det, kernel, note = kt.FirstAboveNoise(run.limit), true, run.scaleNote
+					if run.scale != nil {
+						if d, err := kt.FirstAboveScale(run.limit, run.scale); err == nil {
+							det, measured, note = d, true, ""
+						} else {
+							note = err.Error()
+						}
+					}
 				}
 			}
 			rows = append(rows, TruthRow{Face: f.name, Feature: ft.Feature, Kind: ft.Kind, Opening: OpeningName(ft.Opening),
 				Sector: string(ft.Sector), Wall: string(ft.Wall), HiddenStart: ft.HiddenStart, Detectable: det,
-				HiddenName: name(ft.HiddenStart), DetectableName: name(det), Kernel: kernel, BoxDetectable: boxDet, BoxDetectableName: name(boxDet),
+				HiddenName: name(ft.HiddenStart), DetectableName: name(det), Kernel: kernel, MeasuredBar: measured, BarNote: note,
+				BoxDetectable: boxDet, BoxDetectableName: name(boxDet),
 				VSG: ft.VSG, Limit: limit, LimitFromRun: fromRun, HiddenStress: stress(ft.HiddenStart), DetectableStress: stress(det)})
 		}
 	}
@@ -103,15 +119,19 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 // measurement is what a run measured strain with: its γmax detection
 // limit, its VSG and its grid; and, when its strain record and first
 // field are readable, its strain window, subset size and measured points
-// (window.Size 0: not known).
+// (window.Size 0: not known); and the factor by which its zones stage
+// raised the γmax bar at each point (noise_scale.csv; nil when the run
+// has none, why in scaleNote).
 type measurement struct {
-	limit    float64
-	vsg      int
-	grid     synth.Placement
-	track    dic.Grid
-	window   strain.Window
-	subset   int
-	measured []bool
+	limit     float64
+	vsg       int
+	grid      synth.Placement
+	track     dic.Grid
+	window    strain.Window
+	subset    int
+	measured  []bool
+	scale     []float64
+	scaleNote string
 }
 
 // kernelTruth is field i's kernel truth in γmax on run's grid: its own
@@ -151,10 +171,30 @@ func runMeasurement(dir string) (measurement, bool) {
 		if l.Indicator == strain.MaxShear && l.Strain > 0 && l.VSG >= 2 {
 			m := measurement{limit: l.Strain, vsg: l.VSG, grid: synth.Placement{X0: track.Grid.X0, Y0: track.Grid.Y0, Step: track.Grid.Step}, track: track.Grid}
 			m.window, m.subset, m.measured = runWindow(dir, track)
+			m.scale, m.scaleNote = runScale(dir, track.Grid)
 			return m, true
 		}
 	}
 	return measurement{}, false
+}
+
+// runScale reads the factor by which the run in dir raised its γmax bar
+// at each point of its grid (noise_scale.csv); nil, and why, when the
+// run has no such record (a run folder from before it was written) or it
+// is unreadable.
+func runScale(dir string, g dic.Grid) ([]float64, string) {
+	path := filepath.Join(dir, strainfile.NoiseScaleCSV)
+	if _, err := os.Stat(path); err != nil {
+		return nil, fmt.Sprintf("the run has no %s", strainfile.NoiseScaleCSV)
+	}
+	scale, err := strainfile.ReadNoiseScale(path, g)
+	if err != nil {
+		return nil, err.Error()
+	}
+	if scale[strain.MaxShear] == nil {
+		return nil, fmt.Sprintf("%s has no %s rows", path, strain.MaxShear)
+	}
+	return scale[strain.MaxShear], ""
 }
 
 // runWindow reads the strain window and subset size of the run in dir
@@ -181,9 +221,11 @@ func runWindow(dir string, track runfolder.TrackRecord) (strain.Window, int, []b
 // kind, opening, sector, wall, hidden_start_frame, hidden_start_name,
 // hidden_start_stress_MPa, detectable_frame (−1: never), detectable_name,
 // detectable_stress_MPa, vsg_px, limit_gamma_max, limit_source (run or
-// nominal), detectable_source (kernel: the kernel truth, box: the box
-// truth), box_detectable_frame and box_detectable_name (the box truth's,
-// beside the kernel truth's).
+// nominal), detectable_source (kernel: the kernel truth at the run's own
+// per-point bar, its noise_scale.csv; kernel_gain: the kernel truth with
+// the window's theoretical noise gain in its place, for a run without
+// that record; box: the box truth), box_detectable_frame and
+// box_detectable_name (the box truth's, beside the kernel truth's).
 func WriteTruthTable(path string, rows []TruthRow) error {
 	return runfolder.WriteAtomic(path, func(w *bufio.Writer) error {
 		cw := csv.NewWriter(w)
@@ -196,15 +238,25 @@ func WriteTruthTable(path string, rows []TruthRow) error {
 			if r.LimitFromRun {
 				src = "run"
 			}
-			truth := "box"
-			if r.Kernel {
-				truth = "kernel"
-			}
 			cw.Write([]string{r.Face, r.Feature, r.Kind, r.Opening, r.Sector, r.Wall, strconv.Itoa(r.HiddenStart), r.HiddenName,
 				f(r.HiddenStress), strconv.Itoa(r.Detectable), r.DetectableName, f(r.DetectableStress), strconv.Itoa(r.VSG), f(r.Limit), src,
-				truth, strconv.Itoa(r.BoxDetectable), r.BoxDetectableName})
+				r.Source(), strconv.Itoa(r.BoxDetectable), r.BoxDetectableName})
 		}
 		cw.Flush()
 		return cw.Error()
 	})
+}
+
+// Source names the truth a row's detectable frame is: kernel (the kernel
+// truth at the run's own per-point bar), kernel_gain (the kernel truth
+// with the window's theoretical noise gain as the bar: the run recorded
+// no noise scale) or box.
+func (r TruthRow) Source() string {
+	switch {
+	case r.Kernel && r.MeasuredBar:
+		return "kernel"
+	case r.Kernel:
+		return "kernel_gain"
+	}
+	return "box"
 }

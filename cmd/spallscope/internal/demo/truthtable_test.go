@@ -4,6 +4,7 @@ import (
 	"encoding/csv"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"spallscope/dic"
@@ -92,7 +93,12 @@ func TestDemoDetectionIsTheStrainStagesVSG(t *testing.T) {
 // 7-point strain window reads 2·3/(2·7·8) = 0.0536·g on the rows at 60 and
 // 68 px (point samples: a 1 px subset), above the limit 0.02 from frame 18;
 // the 69 px box centred there reads 2/69 = 0.0290·g, above it from frame 24.
-// The CSV's detectable_source says kernel, its box columns say 24.
+// Without the run's noise_scale.csv the bar is the window's theoretical
+// gain (1 on these full windows) and the CSV's detectable_source says
+// kernel_gain; with it, the run's own bar: a factor of 1.8 on the rows at
+// 60 and 68 px leaves the rows at 52 and 76 px, 2·5/(28·8) = 0.0446·g,
+// above 0.02 from frame 19 (strain's TestKernelTruthWorkedBand), and the
+// CSV says kernel. Its box columns say 24.
 func TestTruthTableTakesTheKernelTruth(t *testing.T) {
 	b := synth.ShearBand{X0: -1000, Y0: 63, X1: 1e8, Y1: 63, Slip: 2, HalfWidth: 1, Decay: 1e9}
 	sc := &synth.Scenario{Name: "tk", Width: 120, Height: 120, Frames: 31, FPS: 1,
@@ -126,20 +132,53 @@ func TestTruthTableTakesTheKernelTruth(t *testing.T) {
 		t.Fatal(err)
 	}
 	rows := d.TruthTable(func(string) string { return dir })
-	if len(rows) != 1 || !rows[0].Kernel || rows[0].Detectable != 18 || rows[0].BoxDetectable != 24 {
-		t.Fatalf("rows %+v, want one, the kernel truth's detectable frame 18 and the box truth's 24", rows)
+	if len(rows) != 1 || !rows[0].Kernel || rows[0].MeasuredBar || rows[0].Detectable != 18 || rows[0].BoxDetectable != 24 ||
+		!strings.Contains(rows[0].BarNote, strainfile.NoiseScaleCSV) {
+		t.Fatalf("rows %+v, want one, the kernel truth's detectable frame 18 at the window's gain (no %s) and the box truth's 24", rows, strainfile.NoiseScaleCSV)
 	}
-	path := filepath.Join(dir, TruthCSV)
-	if err := WriteTruthTable(path, rows); err != nil {
+	readCSV := func(rows []TruthRow) [][]string {
+		path := filepath.Join(dir, TruthCSV)
+		if err := WriteTruthTable(path, rows); err != nil {
+			t.Fatal(err)
+		}
+		f, err := os.Open(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer f.Close()
+		recs, err := csv.NewReader(f).ReadAll()
+		if err != nil || len(recs) != 2 || recs[0][15] != "detectable_source" {
+			t.Fatalf("csv %v %v", recs, err)
+		}
+		return recs
+	}
+	if recs := readCSV(rows); recs[1][9] != "18" || recs[1][15] != "kernel_gain" || recs[1][16] != "24" {
+		t.Errorf("csv %v, want detectable 18 from kernel_gain, box 24", recs)
+	}
+	scale := make([]float64, g.Len())
+	for i := range scale {
+		scale[i] = 1
+		if r := i / g.Cols; r == 7 || r == 8 {
+			scale[i] = 1.8
+		}
+	}
+	if err := strainfile.WriteNoiseScale(filepath.Join(dir, strainfile.NoiseScaleCSV), g, map[strain.Indicator][]float64{strain.MaxShear: scale}); err != nil {
 		t.Fatal(err)
 	}
-	f, err := os.Open(path)
-	if err != nil {
+	rows = d.TruthTable(func(string) string { return dir })
+	if len(rows) != 1 || !rows[0].Kernel || !rows[0].MeasuredBar || rows[0].Detectable != 19 || rows[0].BoxDetectable != 24 {
+		t.Fatalf("rows %+v, want one, the kernel truth's detectable frame 19 at the run's bar and the box truth's 24", rows)
+	}
+	if recs := readCSV(rows); recs[1][9] != "19" || recs[1][15] != "kernel" || recs[1][16] != "24" {
+		t.Errorf("csv %v, want detectable 19 from kernel, box 24", recs)
+	}
+	// A noise_scale.csv of another grid is not the run's bar: the gain
+	// stands in, and the note names the file.
+	if err := strainfile.WriteNoiseScale(filepath.Join(dir, strainfile.NoiseScaleCSV), dic.Grid{X0: 0, Y0: 4, Step: 8, Cols: 14, Rows: 14}, map[strain.Indicator][]float64{strain.MaxShear: scale}); err != nil {
 		t.Fatal(err)
 	}
-	defer f.Close()
-	recs, err := csv.NewReader(f).ReadAll()
-	if err != nil || len(recs) != 2 || recs[0][15] != "detectable_source" || recs[1][9] != "18" || recs[1][15] != "kernel" || recs[1][16] != "24" {
-		t.Errorf("csv %v %v", recs, err)
+	rows = d.TruthTable(func(string) string { return dir })
+	if len(rows) != 1 || rows[0].MeasuredBar || rows[0].Detectable != 18 || !strings.Contains(rows[0].BarNote, strainfile.NoiseScaleCSV) {
+		t.Errorf("rows %+v, want the gain's frame 18 and a note naming %s", rows, strainfile.NoiseScaleCSV)
 	}
 }

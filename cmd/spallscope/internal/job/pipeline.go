@@ -53,7 +53,7 @@ var pipeline = []step{
 	{name: "strain", prepare: (*testRun).prepareStrain, run: (*testRun).strain,
 		outputs: []string{strainfile.StrainDir}},
 	{name: "zones", prepare: (*testRun).prepareZones, run: (*testRun).zones,
-		outputs: []string{strainfile.ZonesCSV, strainfile.ZoneCellsCSV, strainfile.OnsetJSON}},
+		outputs: []string{strainfile.ZonesCSV, strainfile.ZoneCellsCSV, strainfile.NoiseScaleCSV, strainfile.OnsetJSON}},
 	{name: "outputs", prepare: (*testRun).prepareOutputs, run: (*testRun).outputs,
 		outputs: []string{render.OverlaysDir, render.VideoFile(render.VideoMP4), render.VideoFile(render.VideoAVI),
 			render.ReportFile, render.PlotsDir, model.Dir, export.VTKDir, export.NPYDir}},

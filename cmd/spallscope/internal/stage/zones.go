@@ -46,8 +46,10 @@ func (st ZoneStage) Effective() ZoneStage {
 // Zones runs the zones stage over run folder dir: it fits each point's
 // elastic response on the calibration frames (stress up to CalibrateBelow
 // of the peak), finds and tracks the localized zones of every frame, and
-// writes dir/zones.csv and dir/onset.json. frames gives each recorded
-// frame's time and stress (same order as the track record).
+// writes dir/zones.csv, dir/zone_cells.csv, dir/noise_scale.csv (the
+// factor by which each point's bar was raised) and dir/onset.json. frames
+// gives each recorded frame's time and stress (same order as the track
+// record).
 func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainfile.OnsetReport, error) {
 	names, err := runfolder.Frames(dir)
 	if err != nil {
@@ -149,6 +151,9 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 		return nil, err
 	}
 	if err := strainfile.WriteZoneCells(filepath.Join(dir, strainfile.ZoneCellsCSV), finder); err != nil {
+		return nil, err
+	}
+	if err := strainfile.WriteNoiseScale(filepath.Join(dir, strainfile.NoiseScaleCSV), ref.Grid, finder.NoiseScale()); err != nil {
 		return nil, err
 	}
 	tl := strainfile.TimelineRecord{Frames: names}
