@@ -238,6 +238,11 @@ func (p Prior) penalty(a, b float64) float64 {
 // stress absorbs it. Without a spread of stresses (stress nil, or no two
 // frames at different stresses) it is EstimateChange.
 func EstimateDriftChange(z, stress []float64, prior Prior, from, to int) (DriftChange, bool) {
+	return estimateDriftChange(z, stress, prior, from, to, changeModels)
+}
+
+// estimateDriftChange is EstimateDriftChange over the given shapes.
+func estimateDriftChange(z, stress []float64, prior Prior, from, to int, models []ChangeModel) (DriftChange, bool) {
 	if !spreadOut(stress, len(z)) {
 		c, ok := EstimateChange(z, from, to)
 		return DriftChange{ChangePoint: c}, ok
@@ -248,7 +253,7 @@ func EstimateDriftChange(z, stress []float64, prior Prior, from, to int) (DriftC
 	var best DriftChange
 	found := false
 	g := make([]float64, n)
-	for _, model := range changeModels {
+	for _, model := range models {
 		for m := from; m <= to; m++ {
 			for k := range g {
 				g[k] = 0
