@@ -238,11 +238,6 @@ func (p Prior) penalty(a, b float64) float64 {
 // stress absorbs it. Without a spread of stresses (stress nil, or no two
 // frames at different stresses) it is EstimateChange.
 func EstimateDriftChange(z, stress []float64, prior Prior, from, to int) (DriftChange, bool) {
-	return estimateDriftChange(z, stress, prior, from, to, changeModels)
-}
-
-// estimateDriftChange is EstimateDriftChange over the given shapes.
-func estimateDriftChange(z, stress []float64, prior Prior, from, to int, models []ChangeModel) (DriftChange, bool) {
 	if !spreadOut(stress, len(z)) {
 		c, ok := EstimateChange(z, from, to)
 		return DriftChange{ChangePoint: c}, ok
@@ -253,7 +248,7 @@ func estimateDriftChange(z, stress []float64, prior Prior, from, to int, models 
 	var best DriftChange
 	found := false
 	g := make([]float64, n)
-	for _, model := range models {
+	for _, model := range changeModels {
 		for m := from; m <= to; m++ {
 			for k := range g {
 				g[k] = 0

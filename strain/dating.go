@@ -52,10 +52,8 @@ type OnsetInterval struct {
 	// LogLik is the change's log likelihood ratio against no change.
 	LogLik float64 `json:"log_likelihood_ratio"`
 	// ChangeFrame is the change point: the estimated first frame of the
-	// zone's signal (the earlier of the zone's and its strongest cell's
-	// change points), at or before the onset, which is the first frame
-	// from the cell's at which its change reaches Limit (raised by the
-	// cell's noise gain).
+	// zone's signal, at or before the onset, which is the first frame
+	// from there at which the change reaches Limit.
 	ChangeFrame int `json:"change_frame_index"`
 	// Limit is the detection limit the onset was held to (the indicator's
 	// noise floor, strain); 0 for decorrelation.
@@ -98,29 +96,19 @@ type Dating struct {
 	ring   [][]int       // per onset: the cells around them (ringCells)
 	values [][][]float64 // per onset, frame, cell: the indicator (NaN: none)
 	around [][][]float64 // the same of the ring's cells
-	// cand are the cells the strongest cell is chosen from per onset
-	// (peakSeries): the zone's, then for a strain indicator the valid
-	// points within ringOuter grid steps of them; candV and candT their
-	// indicator and inelastic strain tensor per onset, frame and cell
-	// (NaN: none), the tensor for the projected series (projectedCell).
-	cand   [][]int
-	candV  [][][]float64
-	candT  [][][]Tensor
-	frames []Frame
-	// gain is each grid point's noise gain of the strain window (see
-	// KernelTruth.Gain; nil until a frame's strain field names its
-	// window, or where the window gives none): the factor by which the
-	// point's strain noise exceeds a full window's, and so the factor
-	// its detection limit is raised by (cellBar).
-	gain []float64
+	// cellT and ringT are the inelastic strain tensors of the cells and of
+	// the ring per onset, frame and cell (NaN: none), for a strain
+	// indicator's projected series (projectedCell).
+	cellT, ringT [][][]Tensor
+	frames       []Frame
 }
 
 // Ring bounds, in grid steps from the zone's nearest cell.
 const ringInner, ringOuter = 2, 4
 
-// ringCells are the grid points between inner and ringOuter grid steps
+// ringCells are the grid points between ringInner and ringOuter grid steps
 // (Chebyshev distance) from the nearest of cells, measured in ref.
-func ringCells(g dic.Grid, ref *dic.Field, cells []int, inner int) []int {
+func ringCells(g dic.Grid, ref *dic.Field, cells []int) []int {
 	dist := map[int]int{}
 	for _, c := range cells {
 		cc, cr := c%g.Cols, c/g.Cols
@@ -139,7 +127,7 @@ func ringCells(g dic.Grid, ref *dic.Field, cells []int, inner int) []int {
 	}
 	var ring []int
 	for i, d := range dist {
-		if d >= inner && ref.Points[i].Valid() {
+		if d >= ringInner && ref.Points[i].Valid() {
 			ring = append(ring, i)
 		}
 	}
@@ -158,7 +146,7 @@ func abs(x int) int {
 func (f *Finder) Dating(onsets []Onset) *Dating {
 	n := len(onsets)
 	d := &Dating{f: f, onsets: onsets, cells: make([][]int, n), ring: make([][]int, n), values: make([][][]float64, n), around: make([][][]float64, n),
-		cand: make([][]int, n), candV: make([][][]float64, n), candT: make([][][]Tensor, n)}
+		cellT: make([][][]Tensor, n), ringT: make([][][]Tensor, n)}
 	for k, o := range onsets {
 		for _, z := range f.zones {
 			if z.ID == o.Zone && z.Frame == o.Frame && z.Indicator == o.Indicator {
@@ -166,11 +154,7 @@ func (f *Finder) Dating(onsets []Onset) *Dating {
 				break
 			}
 		}
-		d.ring[k] = ringCells(f.grid, f.ref, d.cells[k], ringInner)
-		d.cand[k] = d.cells[k]
-		if o.Indicator != Decorrelation {
-			d.cand[k] = append(slices.Clone(d.cells[k]), ringCells(f.grid, f.ref, d.cells[k], 1)...)
-		}
+		d.ring[k] = ringCells(f.grid, f.ref, d.cells[k])
 	}
 	return d
 }
@@ -206,21 +190,14 @@ func (d *Dating) Add(fr Frame) {
 	}
 	for k, o := range d.onsets {
 		if o.Indicator == Decorrelation || fr.Strain == nil {
-			v := read(o.Indicator, d.cand[k])
-			d.values[k], d.candV[k] = append(d.values[k], v[:len(d.cells[k])]), append(d.candV[k], v)
+			d.values[k] = append(d.values[k], read(o.Indicator, d.cells[k]))
 			d.around[k] = append(d.around[k], read(o.Indicator, d.ring[k]))
 			continue
 		}
-		v, tc := tensors(o.Indicator, d.cand[k])
-		a, _ := tensors(o.Indicator, d.ring[k])
-		d.values[k], d.around[k] = append(d.values[k], v[:len(d.cells[k])]), append(d.around[k], a)
-		d.candV[k], d.candT[k] = append(d.candV[k], v), append(d.candT[k], tc)
-	}
-	if d.gain == nil && len(d.onsets) > 0 && fr.Strain != nil && fr.Strain.Window >= 3 {
-		w := Window{Size: fr.Strain.Window, Order: fr.Strain.Order}
-		if g, err := w.noiseGain(d.f.ref); err == nil {
-			d.gain = g
-		}
+		v, tc := tensors(o.Indicator, d.cells[k])
+		a, tr := tensors(o.Indicator, d.ring[k])
+		d.values[k], d.around[k] = append(d.values[k], v), append(d.around[k], a)
+		d.cellT[k], d.ringT[k] = append(d.cellT[k], tc), append(d.ringT[k], tr)
 	}
 	fr.Strain, fr.Disp = nil, nil
 	d.frames = append(d.frames, fr)
@@ -234,16 +211,11 @@ func (d *Dating) Add(fr Frame) {
 //
 // The onset is the first frame at which the zone's damage is detectable:
 // its change point (EstimateDriftChange on the zone's normalised signal,
-// over the frames after calibration up to the trigger) says that and
-// roughly when the signal began; the strongest cell (peakSeries: of the
-// zone's cells and the points within ringOuter steps of them, the one
-// whose change stands highest above its own detection bar; its inelastic
-// deviator projected on the direction of its change, projectedCell) then
-// gets a change point of its own (cellChange: a two-phase regression on
-// the cell's own history, Hinkley 1969), and the onset is the first frame
-// from there at which the cell reaches the indicator's detection limit
-// (its noise floor, Finder.Floor) raised by the cell's noise gain
-// (cellBar). A change in the mean
+// over the frames after calibration up to the trigger) says when the
+// signal began, and the onset is the first frame from there at which the
+// fitted change, at the zone's strongest cell (its inelastic deviator
+// projected on the direction of its change, projectedCell), reaches the
+// indicator's detection limit (its noise floor, Finder.Floor). A change in the mean
 // smaller than the limit is no onset however long it lasts: this is the
 // rule of Page's CUSUM with its reference value at the limit (Page 1954,
 // "Continuous inspection schemes", Biometrika 41, 100–115; from memory), whose
@@ -268,18 +240,6 @@ func (d *Dating) Add(fr Frame) {
 // measured on the seed tests (strain/onsetseed_test.go) the estimate
 // itself lags that frame by 0 to 3 frames, which an interval of the
 // estimate's noise alone held in 0–20 of 20 seeds (0–8 for the notch and the crack).
-//
-// Why the strongest cell's own change point, its own bar and its own
-// series (measured on the seed tests at σ 2, strain/onsetseed_test.go):
-// the zone's change point comes from the zone's mean less its ring, whose
-// best shape need not be the cell's — on the crack's γmax lobes a kink
-// four to six frames after the feature began, which the onset could not
-// precede (late by 1–2 frames) —, and a drift line fitted under the wrong
-// shape tilts to take part of the cell's growth (its excess 0.3–0.8 of
-// the limit below zero before the change, and late); the face's limit at
-// a cell whose window is cut by a wall is reached by noise that much
-// earlier (the crack's e1 cells, gain 1.4, early by 1–3 frames); and the
-// ring's median carries the feature's own strain (see peakSeries).
 func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 	lastCalib := 0
 	for k, c := range calibration {
@@ -322,23 +282,15 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 				continue // no change noise could not give: a noise trigger
 			}
 			if ok {
-				peakCell, cell := d.peakSeries(k, c, stress, trigger, n, true)
-				limit := iv.Limit * d.cellBar(k, cell)
+				peakCell := d.peakSeries(k, c, stress, trigger, n, true)
+				limit := iv.Limit
 				if o.Indicator == Decorrelation {
 					limit = decorrelatedCell
 				}
 				est := func(c DriftChange, y []float64) int {
-					return detectable(cellChange(c, y, stress, from, trigger), y, stress, limit, trigger)
+					return detectable(c, y, stress, limit, trigger)
 				}
-				// The onset: the cell's own change point and, for a
-				// strain indicator, the first frame its fitted change
-				// reaches the limit (crossing); the interval's upper end
-				// below stays the CUSUM's (detectable).
-				cc := cellChange(c, peakCell, stress, from, trigger)
-				at, change = detectable(cc, peakCell, stress, limit, trigger), min(c.Onset, cc.Onset)
-				if o.Indicator != Decorrelation {
-					at = crossing(cc, peakCell, stress, limit, trigger)
-				}
+				at, change = est(c, peakCell), c.Onset
 				// Where the fit's residuals are wider than the
 				// normalisation says, the bootstrap takes their width.
 				sigma := math.Max(1, c.ResidualSigma(z))
@@ -347,7 +299,7 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 				// projected cell's and the indicator's own (its γmax or
 				// e1, which the tracked demo's onsets followed more
 				// closely; see projectedCell).
-				if own, _ := d.peakSeries(k, c, stress, trigger, n, false); own != nil {
+				if own := d.peakSeries(k, c, stress, trigger, n, false); own != nil {
 					_, hiOwn := bootstrapOnset(c, z, own, stress, from, trigger, sigma, est, seedOf(o))
 					hi = max(hi, hiOwn, est(c, own))
 				}
@@ -379,45 +331,44 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 }
 
 // peakSeries is onset k's strongest cell over the first n frames, in
-// strain, and its index among the zone's cells: of the zone's cells, the
-// one whose own fitted change (change c's shape and onset over a line in
-// the stress, see changeAmplitude) is the largest relative to the cell's
-// detection bar (cellBar) — the cell at which the feature stands highest
-// above what noise could give (nil, −1 without cells). With project, for
-// γmax and e1 a cell's series is its projected deviator (projectedCell),
-// linear in the noise and in the elastic baseline's error; otherwise, and
-// where that cannot be formed, the indicator itself. A frame where a cell
-// has no value takes the previous frame's.
-//
-// The series is the cell's own, not less the rock around it as the
-// zone's signal is (see signal): the detection limit it is held to is a
-// limit on the cell's own strain, as the trigger's bar is, and the
-// feature's own strain reaches the ring too — a crack's opening puts the
-// rock beside it in compression (e1 below zero), a band's γmax spreads
-// over the strain window's width — so that the ring's median moved the
-// cell's series by a share of the feature itself (measured on the seed
-// tests' crack at σ 2: the strongest e1 cell at 1.2–1.7 × the limit a
-// frame before its own kernel truth reached it, and early by 1–3 frames).
-// The drift line fitted under the change (cellExcess) takes what the cell
-// shares with the whole face: the elastic baseline's error.
-func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, trigger, n int, project bool) ([]float64, int) {
+// strain: of the zone's cells, the one whose own fitted change (change c's
+// shape and onset over a line in the stress, see changeAmplitude) is the
+// largest, less the median of the ring around the zone in each frame (nil
+// without cells). With project, for γmax and e1 a cell's series is its
+// projected deviator (projectedCell), linear in the noise and in the
+// elastic baseline's error; otherwise, and where that cannot be formed,
+// the indicator itself. A frame where a cell has no value takes the previous
+// frame's.
+func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, trigger, n int, project bool) []float64 {
 	if len(d.cells[k]) == 0 {
-		return nil, -1
+		return nil
+	}
+	ring := make([]float64, n)
+	for f := range n {
+		var r []float64
+		for _, v := range d.around[k][f] {
+			if !math.IsNaN(v) {
+				r = append(r, v)
+			}
+		}
+		if len(r) > 0 {
+			ring[f] = medianOf(r)
+		}
 	}
 	var best []float64
-	bestAmp, bestJ := math.Inf(-1), -1
+	bestAmp := math.Inf(-1)
 	y := make([]float64, n)
-	for j := range d.cand[k] {
+	for j := range d.cells[k] {
 		last, seen := 0.0, 0
 		for f := range n {
-			v := d.candV[k][f][j]
+			v := d.values[k][f][j]
 			if math.IsNaN(v) {
 				v = last
 			} else {
 				seen++
 			}
 			last = v
-			y[f] = v
+			y[f] = v - ring[f]
 		}
 		if seen < n/2 {
 			continue
@@ -425,40 +376,11 @@ func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, trigger, n i
 		if p := d.projectedCell(k, j, c.Onset, trigger, n); project && p != nil {
 			copy(y, p)
 		}
-		if amp, ok := changeAmplitude(c, y, stress); ok && amp/d.cellBar(k, j) > bestAmp {
-			best, bestAmp, bestJ = slices.Clone(y), amp/d.cellBar(k, j), j
+		if amp, ok := changeAmplitude(c, y, stress); ok && amp > bestAmp {
+			best, bestAmp = slices.Clone(y), amp
 		}
 	}
-	return best, bestJ
-}
-
-// cellBar is the factor by which the detection limit of onset k's cell j
-// is raised, at least 1: the strain window's noise gain there (Dating.gain;
-// the standard deviation of a least-squares slope Σ w_i·u_i under
-// independent displacement noise of equal variance is σ·√Σ w_i², so a
-// one-sided window at a wall or edge is noisier than a full one by the
-// ratio of their √Σ w²), or without it the cell's calibration noise
-// relative to the face's (Finder.SetNoise), the factor the trigger raises
-// its bar by. A change the same multiple of the cell's own noise is then
-// equally detectable at every cell, which is what the detection limit
-// says for a full window (K × the noise). 1 for decorrelation and for
-// j < 0.
-func (d *Dating) cellBar(k, j int) float64 {
-	ind := d.onsets[k].Indicator
-	if j < 0 || ind == Decorrelation {
-		return 1
-	}
-	c := d.cand[k][j]
-	if d.gain != nil {
-		if g := d.gain[c]; !math.IsNaN(g) {
-			return math.Max(1, g)
-		}
-		return 1
-	}
-	if sc := d.f.scale[ind]; sc != nil {
-		return math.Max(1, sc[c])
-	}
-	return 1
+	return best
 }
 
 // detectable is the onset of change c: from its change point on, the
@@ -467,7 +389,6 @@ func (d *Dating) cellBar(k, j int) float64 {
 // y (the zone's strongest cell, in strain) less its own drift line (fitted
 // with c's change over it) — the frame after the last k with S_k = 0, the
 // trigger if that is later; the change point itself without y or limit.
-// Onsets calls it with the cell's own change (cellChange).
 func detectable(c DriftChange, y, stress []float64, limit float64, trigger int) int {
 	if y == nil || !(limit > 0) {
 		return c.Onset
@@ -485,69 +406,6 @@ func detectable(c DriftChange, y, stress []float64, limit float64, trigger int) 
 		}
 	}
 	return min(lastZero+1, trigger)
-}
-
-// crossing is the first frame from change c's onset to the trigger at
-// which c's change, fitted to y (the strongest cell, in strain) over a
-// drift line in the stress (c's shape and onset, the line held by c's
-// prior), reaches limit; the trigger if it does not. This is Page's
-// CUSUM rule with the fitted change in place of the noisy excess (see
-// Onsets): the fitted change averages the noise over the cell's whole
-// history after the change, where the CUSUM's last zero follows single
-// frames — at high noise the CUSUM of a signal just past the limit falls
-// back to zero on a low frame, and its last zero comes late (measured on
-// the seed tests at σ 2: 1 frame late on average for the band, against
-// 0.3 with the fitted change). With the zone's shape in place of the
-// cell's own (cellChange) it had been no better than the CUSUM: the fit
-// is only as good as its shape.
-func crossing(c DriftChange, y, stress []float64, limit float64, trigger int) int {
-	if y == nil || !(limit > 0) {
-		return c.Onset
-	}
-	g := c.shapeColumn(len(y))
-	amp, ok := changeAmplitude(c, y, stress)
-	if !ok {
-		return trigger
-	}
-	for k := c.Onset; k < trigger && k < len(g); k++ {
-		if amp*g[k] >= limit {
-			return k
-		}
-	}
-	return trigger
-}
-
-// cellChange is the change point of the cell series y itself, over a
-// drift line in the stress held by c's prior: the two-phase regression of
-// EstimateDriftChange (Hinkley 1969, Biometrika 56, 495–504; from memory)
-// on y normalised by its standard deviation over the calibration frames
-// after the reference (positions 1 to from − 1), over [from, to] and the
-// four shapes of EarliestPlausibleOnset (a cubic growth among them: a
-// feature whose length and slip both grow starts slower than a square at
-// a point it reaches late). c where it cannot be formed (no drift, fewer
-// than three calibration frames, or no rise).
-//
-// The cell's own shape and onset, rather than the zone's, are what its
-// drift line must be fitted under: under a shape that fits the cell less
-// well the line tilts to take part of the cell's growth, and the cell's
-// excess over it lags (see Onsets).
-func cellChange(c DriftChange, y, stress []float64, from, to int) DriftChange {
-	if y == nil || c.stress == nil || from < 4 {
-		return c
-	}
-	_, sd := stat.MeanStdDev(y[1:from], nil)
-	if !(sd > 0) {
-		return c
-	}
-	yn := make([]float64, len(y))
-	for k := range y {
-		yn[k] = y[k] / sd
-	}
-	cc, ok := estimateDriftChange(yn, stress, c.prior, from, to, plausibleModels)
-	if !ok {
-		return c
-	}
-	return cc
 }
 
 // cellExcess is y less its drift line, fitted with c's change shape and
@@ -823,7 +681,8 @@ func seedOf(o Onset) uint64 {
 // signal linear in the strain: its inelastic strain's deviator (εxx − εyy,
 // 2εxy), whose length is γmax, projected on the direction the deviator
 // took after the change (the mean over the frames from the trigger on,
-// less the mean before the change point onset); for e1, whose value is
+// less the mean before the change point onset), less the median of the
+// ring's cells projected on the same direction; for e1, whose value is
 // (εxx + εyy)/2 + γmax/2, the mean strain plus half the projection. nil
 // for another indicator or a cell with too few values.
 //
@@ -843,14 +702,14 @@ func seedOf(o Onset) uint64 {
 // 11–20 from the indicator's own value.
 func (d *Dating) projectedCell(k, j, onset, trigger, n int) []float64 {
 	ind := d.onsets[k].Indicator
-	if (ind != MaxShear && ind != MaxPrincipal) || len(d.candT[k]) < n {
+	if (ind != MaxShear && ind != MaxPrincipal) || len(d.cellT[k]) < n {
 		return nil
 	}
 	dev := func(t Tensor) (a, b float64) { return t[0] - t[1], 2 * t[2] }
 	var pa, pb, qa, qb float64
 	np, nq := 0, 0
 	for f := range n {
-		t := d.candT[k][f][j]
+		t := d.cellT[k][f][j]
 		if math.IsNaN(t[0]) {
 			continue
 		}
@@ -881,13 +740,23 @@ func (d *Dating) projectedCell(k, j, onset, trigger, n int) []float64 {
 	}
 	out := make([]float64, n)
 	last, seen := 0.0, 0
+	var r []float64
 	for f := range n {
 		v := last
-		if t := d.candT[k][f][j]; !math.IsNaN(t[0]) {
+		if t := d.cellT[k][f][j]; !math.IsNaN(t[0]) {
 			v, seen = proj(t), seen+1
 		}
 		last = v
+		r = r[:0]
+		for _, t := range d.ringT[k][f] {
+			if !math.IsNaN(t[0]) {
+				r = append(r, proj(t))
+			}
+		}
 		out[f] = v
+		if len(r) > 0 {
+			out[f] -= medianOf(r)
+		}
 	}
 	if seen < n/2 {
 		return nil

@@ -18,14 +18,11 @@ type Point struct {
 
 // Field is the strain field of one frame on the displacement grid.
 type Field struct {
-	Index  int
-	Name   string
-	Grid   dic.Grid
-	Points []Point
-	Window int
-	// Order is the window's fit (1 plane, 2 quadratic; 0 unknown, taken
-	// as a plane).
-	Order   int
+	Index   int
+	Name    string
+	Grid    dic.Grid
+	Points  []Point
+	Window  int
 	Measure Measure
 }
 

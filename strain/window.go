@@ -89,7 +89,7 @@ func (w Window) Strain(f *dic.Field) (*Field, error) {
 		return nil, err
 	}
 	g := f.Grid
-	out := &Field{Index: f.Index, Name: f.Name, Grid: g, Points: make([]Point, g.Len()), Window: w.Size, Order: max(w.Order, 1), Measure: w.measure()}
+	out := &Field{Index: f.Index, Name: f.Name, Grid: g, Points: make([]Point, g.Len()), Window: w.Size, Measure: w.measure()}
 	half := w.Size / 2
 	nu := w.unknowns()
 	side := w.Size
