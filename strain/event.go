@@ -187,11 +187,12 @@ func shareCells(a, b []int) bool {
 // eventPlace is where an event began: the place of its first run's zone
 // when that zone is the event's only one in the frame the event was
 // confirmed (its first run's p-th), else the place of the centroid of all
-// its zones' points in that frame (sector.Layout.Locate). The lobes of one
-// fracture lie on either side of it — a shear band from a wall marks two
-// patches, one either side of its root, about half a VSG away, before its
-// core passes the threshold — so their common centroid, not whichever
-// lobe happened to be marked first, says where it is.
+// its zones' points in that frame (sector.Layout.LocateCell, the rule of
+// the grid points). The lobes of one fracture lie on either side of it —
+// a shear band from a wall marks two patches, one either side of its
+// root, about half a VSG away, before its core passes the threshold — so
+// their common centroid, not whichever lobe happened to be marked first,
+// says where it is.
 func (f *Finder) eventPlace(runs []zoneRun, event []int) (int, Sector) {
 	first := runs[event[0]]
 	at := min(first.first+f.cfg.Persistence-1, first.last)
@@ -215,7 +216,7 @@ func (f *Finder) eventPlace(runs []zoneRun, event []int) (int, Sector) {
 		sx, sy = sx+float64(x), sy+float64(y)
 	}
 	n := float64(len(cells))
-	pl := f.cfg.Sectors.Locate(sx/n, sy/n)
+	pl := f.cfg.Sectors.LocateCell(sx/n, sy/n, float64(f.grid.Step))
 	return pl.Opening, pl.Sector
 }
 

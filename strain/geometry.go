@@ -29,7 +29,8 @@ func newGeometry(s Sectors, g dic.Grid, ref *dic.Field, touch, shadow float64) *
 	geo := &geometry{sectors: s, opening: make([]int, n), sector: make([]Sector, n), nearWall: make([][]int, n), freeEdge: make([]bool, n)}
 	for i := 0; i < n; i++ {
 		x, y := g.Pos(i)
-		geo.opening[i], geo.sector[i] = s.Classify(float64(x), float64(y))
+		p := s.LocateCell(float64(x), float64(y), float64(g.Step))
+		geo.opening[i], geo.sector[i] = p.Opening, p.Sector
 		geo.nearWall[i] = s.within(float64(x), float64(y), touch)
 	}
 	if ref == nil {

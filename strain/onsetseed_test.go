@@ -294,16 +294,23 @@ func seedCases() []seedCase {
 //
 // What the issue aims for and what is achieved (measured, 20 seeds): the
 // onset within 1 frame in at least 90 % (18 of 20) of the seeds holds in
-// 8 of the 12 rows (band 18/19/16, crack 20/17/16, notch 20/19/15, pillar
-// band 20/20/18 at σ 0.5/1/2), more than 1 frame early in at most 10 % in
+// 7 of the 12 rows (band 18/19/16, crack 20/17/16, notch 20/19/15, pillar
+// band 20/19/17 at σ 0.5/1/2), more than 1 frame early in at most 10 % in
 // 11 of 12 (the crack at σ 2: 3 of 20), the truth inside the interval in
 // at least 18 of 20 in 11 of 12 (the crack at σ 2: 17 of 20). So
 // minWithin1, maxEarly and minCovered hold what is achieved (75 %, 15 %,
-// 17 of 20), not the aim; the log gives the counts. The pillar band's first onset is in the pillar sector in 16, 15
-// and 11 of 20 seeds (held: at least half); in the others its zone is
-// placed in the left opening's invert or crown (the zone-placement rule,
-// by the majority of its cells, is not this test's subject). The other
-// cases are in their sector in all 20 seeds (held: 90 %).
+// 17 of 20), not the aim; the log gives the counts, and the mean lag
+// behind the detectable frame (signed: negative early) and its mean size
+// (measured: +0.70/−0.05/+0.45 and 0.70/0.45/1.25 frames for the band,
+// −0.25/−0.15/−0.40 and 0.55/0.95/1.00 for the crack, +0.30/+0.40/+0.35
+// and 0.40/0.70/0.95 for the notch, +0.15/−0.15/+0.30 and 0.25/0.55/0.90
+// for the pillar band). Every case is in its sector in all 20 seeds at
+// every noise (held: 90 %). The pillar band had been in 20, 19 and 17:
+// its first lobe runs along the pillar's lower edge, on the grid row
+// 28.5 px below the line of centres where the edge is at 28 px, and the
+// row above the upper edge lies at 27.5 px, so a zone there was named the
+// left opening's invert by half a pixel; grid points and zones now take
+// the pillar half a step beyond its tangents (sector.Layout.LocateCell).
 func TestSeedOnsets(t *testing.T) {
 	const seeds, minWithin1, maxEarly, minCovered = 20, 75, 15, 17
 	vsg := strain.Window{Size: 7}.VSG(seedStep, seedSubset)
@@ -357,9 +364,6 @@ func TestSeedOnsets(t *testing.T) {
 					t.Errorf("σ %g: %d of %d seeds with a localization onset, want all", sigma, row.n, seeds)
 				}
 				minSector := seeds * 9 / 10
-				if c.sector == strain.Pillar {
-					minSector = seeds / 2 // see above: the zone's placement, not its timing
-				}
 				if row.sector < minSector {
 					t.Errorf("σ %g: onset in the %s sector in %d of %d seeds, want at least %d", sigma, c.sector, row.sector, seeds, minSector)
 				}
@@ -384,6 +388,7 @@ func TestSeedOnsets(t *testing.T) {
 type seedRow struct {
 	n, sector, within1, early, late, covered, coveredBox, within1Box int
 	dets, detsPlain, detsBox, triggers, frames, los, his, widths     []float64
+	lags                                                             []float64 // onset less the kernel truth's detectable frame
 }
 
 // add scores one seed's onset o against the kernel truth's detectable
@@ -396,6 +401,7 @@ func (r *seedRow) add(o *strain.Onset, det, detBox int, inSector bool) {
 		r.sector++
 	}
 	lag := o.Frame - det
+	r.lags = append(r.lags, float64(lag))
 	switch {
 	case lag < -1:
 		r.early++
@@ -427,11 +433,23 @@ func (r *seedRow) meanWidth() float64 {
 	return w
 }
 
-// String is the row of the before/after table (medians over the seeds).
+// meanLag is the mean of the onsets' lags behind the detectable frame
+// (negative: early) and the mean of their sizes.
+func (r *seedRow) meanLag() (signed, size float64) {
+	for _, l := range r.lags {
+		signed += l / float64(len(r.lags))
+		size += math.Abs(l) / float64(len(r.lags))
+	}
+	return signed, size
+}
+
+// String is the row of the before/after table (medians over the seeds,
+// and the lags' means).
 func (r *seedRow) String() string {
-	return fmt.Sprintf("detectable %g (plain %g, box %g), trigger %g, onset %g, interval %g–%g (mean width %.2f); of %d: within 1 frame %d (box %d), early %d, late %d, covered %d (box %d), in sector %d",
+	signed, size := r.meanLag()
+	return fmt.Sprintf("detectable %g (plain %g, box %g), trigger %g, onset %g, interval %g–%g (mean width %.2f); of %d: within 1 frame %d (box %d), early %d, late %d, mean lag %+.2f, mean |lag| %.2f frames, covered %d (box %d), in sector %d",
 		median(r.dets), median(r.detsPlain), median(r.detsBox), median(r.triggers), median(r.frames), median(r.los), median(r.his), r.meanWidth(),
-		r.n, r.within1, r.within1Box, r.early, r.late, r.covered, r.coveredBox, r.sector)
+		r.n, r.within1, r.within1Box, r.early, r.late, signed, size, r.covered, r.coveredBox, r.sector)
 }
 
 // TestSeedNoFalseOnsets: 50 static frames, and a 40-frame elastic ramp,

@@ -46,3 +46,10 @@ func (s Sectors) Classify(x, y float64) (int, Sector) { return sector.Layout(s).
 // Locate returns the place of reference point (x, y), with the pillar's
 // wall for a pillar point.
 func (s Sectors) Locate(x, y float64) Place { return sector.Layout(s).Locate(x, y) }
+
+// LocateCell returns the place of the point (x, y) of a grid with spacing
+// step px, the pillar reaching half a step beyond its outer tangents
+// (sector.Layout.LocateCell): the rule for grid points and zones.
+func (s Sectors) LocateCell(x, y, step float64) Place {
+	return sector.Layout(s).LocateCell(x, y, step)
+}

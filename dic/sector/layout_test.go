@@ -101,3 +101,35 @@ func TestLocateNoPillarAndTurnedLoad(t *testing.T) {
 		}
 	}
 }
+
+// A grid point's pillar reaches half a grid step beyond the outer common
+// tangents (LocateCell), worked by hand on the equal circles of
+// TestLocateTwinOpenings (tangents y = 150 and y = 250) at step 8 px: the
+// tangent moves out by 4 px, to y = 254 and y = 146. (300,253) is 3 px
+// beyond y = 250: a pillar cell (both walls 63.2 px away, the tie to A,
+// 28° below the horizontal from A's centre: its right sidewall);
+// (300,255), 5 px beyond, stays outside as for Locate; points away from
+// the pillar keep Locate's place.
+func TestLocateCellPillarHalfAStep(t *testing.T) {
+	equal := Layout{Openings: []Opening{{Name: "A", Shape: region.Circle(200, 200, 50)}, {Name: "B", Shape: region.Circle(400, 200, 50)}}}
+	cases := []struct {
+		name string
+		x, y float64
+		want Place
+	}{
+		{"3 px beyond the lower tangent", 300, 253, Place{0, Pillar, RightSidewall}},
+		{"3 px beyond the upper tangent", 300, 147, Place{0, Pillar, RightSidewall}},
+		{"5 px beyond", 300, 255, Place{-1, Other, Other}},
+		{"mid-pillar", 300, 200, Place{0, Pillar, RightSidewall}},
+		{"B crown", 400, 120, Place{1, Crown, Crown}},
+		{"A outer sidewall", 130, 200, Place{0, LeftSidewall, LeftSidewall}},
+	}
+	for _, c := range cases {
+		if got := equal.LocateCell(c.x, c.y, 8); got != c.want {
+			t.Errorf("%s (%g,%g): %+v, want %+v", c.name, c.x, c.y, got, c.want)
+		}
+	}
+	if got := equal.LocateCell(300, 253, 0); got != equal.Locate(300, 253) {
+		t.Errorf("step 0: %+v, want Locate's %+v", got, equal.Locate(300, 253))
+	}
+}
