@@ -59,6 +59,25 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 		return nil, fmt.Errorf("zones: %d frame states for the run's %d frames", len(frames), len(names))
 	}
 	st = st.Effective()
+	// The strain files do not carry the strain window; the run's strain
+	// record does. The finder needs it for the VSG that groups onsets
+	// into events (strain.JoinEvents): without it no two onsets a VSG
+	// apart would join.
+	var rec strainfile.StrainRecord
+	if err := runfolder.Section(dir, "strain", &rec); err != nil {
+		return nil, fmt.Errorf("zones: %w", err)
+	}
+	if rec.Window < 3 {
+		return nil, fmt.Errorf("zones: run.json's strain section gives a %d-point strain window, expected 3 or more (run the strain stage first)", rec.Window)
+	}
+	readStrain := func(name string) (*strain.Field, error) {
+		sf, err := strainfile.ReadStrain(strainfile.StrainPath(dir, name))
+		if err != nil {
+			return nil, err
+		}
+		sf.Window = rec.Window
+		return sf, nil
+	}
 	peak := strainfile.PeakRecord{Frame: names[0]}
 	for k, f := range frames {
 		if f.Stress > peak.Stress {
@@ -72,7 +91,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	for k, name := range names {
 		loaded := peak.Stress > 0
 		if (loaded && frames[k].Stress <= st.CalibrateBelow*peak.Stress) || (!loaded && k < st.CalibrateFrames) {
-			sf, err := strainfile.ReadStrain(strainfile.StrainPath(dir, name))
+			sf, err := readStrain(name)
 			if err != nil {
 				return nil, err
 			}
@@ -101,7 +120,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 		delete(read, k) // read once: calibration frames are many in a long test
 		if !ok {
 			var err error
-			if sf, err = strainfile.ReadStrain(strainfile.StrainPath(dir, name)); err != nil {
+			if sf, err = readStrain(name); err != nil {
 				return strain.Frame{}, err
 			}
 		}
