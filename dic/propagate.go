@@ -15,7 +15,8 @@ const (
 )
 
 // batchSize is how many of the most reliable points are expanded per round
-// of the propagation. It is a constant, not the worker count, so that the
+// of the propagation (points popped with no pending neighbour left do not
+// count). It is a constant, not the worker count, so that the
 // result does not depend on the number of workers.
 const batchSize = 64
 
@@ -35,6 +36,7 @@ type correlation struct {
 	queue         reliability
 	jobs          []job
 	nbr           []int
+	nbrDone       []int // scratch of solveJobs
 	// samples[i] holds what accepted point i last sampled, until its
 	// neighbours have been solved from it (see subset.Samples); spare
 	// holds released buffers for reuse.
@@ -91,14 +93,16 @@ func (s *samplesSlab) next(radius int) *subset.Samples {
 	return b
 }
 
-// maxSamples bounds the sample buffers a tracker holds. The propagation
-// queue of a 20 MP frame at a 10 px step holds some 65,000 points (a third
-// of the grid; measured), each with its samples, 230 MB for 21 px subsets
-// and 500 MB for 31 px; past the bound a point is solved without sharing
-// its samples with its neighbours (their first iteration interpolates all
-// of its pixels), which costs time, not accuracy. Whether a buffer is
-// free depends only on how many points of the frame hold one, so the
-// results stay independent of the worker count and of a resume.
+// maxSamples bounds the sample buffers a tracker holds. Only points with
+// a pending neighbour hold one (see solveJobs); on a 20 MP frame at a 10
+// px step their number still passes the bound at times (the queue holds
+// up to 52,000 points; measured), and past it a point is solved without
+// sharing its samples with its neighbours (their first iteration
+// interpolates all of its pixels), which costs time, not accuracy: 93–99 %
+// of the points propagated after the first frame started from shared
+// samples (measured; 51 % while every queued point held its buffer until
+// popped). Whether a buffer is free depends only on the points' states,
+// so the results stay independent of the worker count and of a resume.
 const maxSamples = 1 << 14
 
 // keepFor returns a buffer for job i's last samples when its subset is a
@@ -246,7 +250,15 @@ func (c *correlation) seed(cands []int, st *starts) ([2]float64, bool) {
 }
 
 // solveJobs solves the queued jobs in parallel and files each result as
-// accepted (queued for propagation) or failed.
+// accepted or failed. An accepted point joins the queue, with its samples,
+// only while it has a pending neighbour to guide: one without (the
+// neighbours all claimed, the usual fate of a low-ZNCC point that waited
+// in the queue) would be popped to no purpose and hold its samples until
+// then. For the same reason the neighbours of each job's point drop their
+// samples once they have no pending neighbour left, so that the bounded
+// sample buffers go to the points that can still share them. Which
+// points those are depends only on the points' states, not on the
+// workers.
 func (c *correlation) solveJobs() {
 	c.tr.pool.solve(c.ref, c.def, c.mask, c.jobs, c.res, c.tr.prepared)
 	if c.samples == nil {
@@ -254,17 +266,46 @@ func (c *correlation) solveJobs() {
 	}
 	for _, j := range c.jobs {
 		c.release(j.I)
-		if c.res[j.I].Status == subset.Converged {
+		switch {
+		case c.res[j.I].Status != subset.Converged:
+			c.state[j.I] = failed
+			c.spareKeep(j.Keep)
+		case c.guides(j.I):
 			c.state[j.I] = accepted
 			c.queue.push(rel{j.I, c.res[j.I].ZNCC})
 			c.samples[j.I] = j.Keep
-		} else {
-			c.state[j.I] = failed
-			if j.Keep != nil {
-				c.spare = append(c.spare, j.Keep)
+		default:
+			c.state[j.I] = accepted
+			c.spareKeep(j.Keep)
+		}
+	}
+	for _, j := range c.jobs {
+		c.nbrDone = c.tr.grid.Neighbours(c.nbrDone[:0], j.I)
+		for _, p := range c.nbrDone {
+			if c.samples[p] != nil && !c.guides(p) {
+				c.release(p)
 			}
 		}
 	}
+}
+
+// spareKeep returns a job's unused sample buffer (nil: none) to the spare
+// ones.
+func (c *correlation) spareKeep(s *subset.Samples) {
+	if s != nil {
+		c.spare = append(c.spare, s)
+	}
+}
+
+// guides reports whether point i has a pending neighbour, one its
+// expansion would solve.
+func (c *correlation) guides(i int) bool {
+	g := c.tr.grid
+	col, row := i%g.Cols, i/g.Cols
+	return (col+1 < g.Cols && c.state[i+1] == pending) ||
+		(col > 0 && c.state[i-1] == pending) ||
+		(row+1 < g.Rows && c.state[i+g.Cols] == pending) ||
+		(row > 0 && c.state[i-g.Cols] == pending)
 }
 
 // propagate expands the most reliable accepted points, batch by batch:
@@ -275,9 +316,13 @@ func (c *correlation) propagate() {
 	for len(c.queue) > 0 {
 		c.jobs = c.jobs[:0]
 		c.popped = c.popped[:0]
-		for n := 0; n < batchSize && len(c.queue) > 0; n++ {
+		for n := 0; n < batchSize && len(c.queue) > 0; {
 			p := c.queue.pop().i
 			c.popped = append(c.popped, p)
+			if !c.guides(p) {
+				continue // its neighbours were solved from others: not counted
+			}
+			n++
 			var prior *subset.Samples
 			if c.samples != nil {
 				prior = c.samples[p]

@@ -91,7 +91,12 @@ func NewSpline(img *Image, kind Interpolation) *Spline {
 	w, h := img.Width, img.Height
 	sp := &Spline{kind: kind, width: w, height: h, stride: w + 2*splinePad}
 	sp.coef = make([]float32, sp.stride*(h+2*splinePad))
+	// Huge pages for the planes of large images: asked before the first
+	// write, so that fresh memory faults in as huge pages, and collapsed
+	// after it, for memory the allocator reused.
+	adviseHugePages(sp.coef, false)
 	sp.fit(img)
+	adviseHugePages(sp.coef, true)
 	return sp
 }
 
@@ -134,13 +139,27 @@ func (sp *Spline) fit(img *Image) {
 	// filtered all at once, each step one contiguous row, and rows in
 	// bundles, read transposed into scratch (with the gain applied) so that
 	// their steps are contiguous too.
+	// The vector kernels of the cubic spline's one pole take four rows at a
+	// time, transposed and filtered in one (rowsVector), the same
+	// operations in the same order.
 	origin := splinePad*sp.stride + splinePad
+	rowsFused := useVector && len(poles) == 1 && w > 1
 	bundles := (h + rowBundle - 1) / rowBundle
 	inParallel(bundles, w*h, func(lo, hi int) {
 		bundle := make([]float64, rowBundle*w)
 		sum := make([]float64, rowBundle)
-		for y := lo * rowBundle; y < min(hi*rowBundle, h); y += rowBundle {
-			m := min(rowBundle, h-y)
+		for b := lo * rowBundle; b < min(hi*rowBundle, h); b += rowBundle {
+			y, m := b, min(rowBundle, h-b)
+			if rowsFused {
+				// Four rows at a time by the vector kernels, the rest
+				// (fewer than four) below.
+				for ; m >= 4; y, m = y+4, m-4 {
+					sp.rowsVector(img, y, gain, poles[0], bundle[:4*w], sum[:4])
+				}
+				if m == 0 {
+					continue
+				}
+			}
 			t := bundle[:m*w]
 			for l := 0; l < m; l++ {
 				for x, v := range img.Row(y + l) {
@@ -160,7 +179,11 @@ func (sp *Spline) fit(img *Image) {
 	})
 	// Columns, in strips of up to colStrip columns read into float64
 	// scratch, filtered there and rounded once more on the way back; every
-	// column's arithmetic is the same whatever the split.
+	// column's arithmetic is the same whatever the split. The vector
+	// kernels of the cubic spline's one pole read a strip into the causal
+	// recursion and write it back from the anticausal one (splineColumnsInVector,
+	// splineColumnsOutVector), the same operations in the same order.
+	fused := useVector && len(poles) == 1 && h > 1
 	strips := (w + colStrip - 1) / colStrip
 	inParallel(strips, w*h, func(lo, hi int) {
 		strip := make([]float64, h*colStrip)
@@ -168,8 +191,18 @@ func (sp *Spline) fit(img *Image) {
 		for x := lo * colStrip; x < min(hi*colStrip, w); x += colStrip {
 			m := min(colStrip, w-x)
 			t := strip[:h*m]
+			col := sp.coef[origin+x:]
+			if fused {
+				z := poles[0]
+				causalStart(h, z, sum[:m], func(k int) []float32 { return col[k*sp.stride:][:m] })
+				copy(t, sum[:m])
+				splineColumnsInVector(col, sp.stride, t, h, m, z)
+				anticausalStart(t[(h-1)*m:], t[(h-2)*m:(h-1)*m], z)
+				splineColumnsOutVector(t, h, m, z, col, sp.stride)
+				continue
+			}
 			for y := 0; y < h; y++ {
-				for l, c := range sp.coef[origin+y*sp.stride+x:][:m] {
+				for l, c := range col[y*sp.stride:][:m] {
 					t[y*m+l] = float64(c)
 				}
 			}
@@ -177,7 +210,7 @@ func (sp *Spline) fit(img *Image) {
 				filterLines(t, 0, m, h, m, z, sum)
 			}
 			for y := 0; y < h; y++ {
-				row := sp.coef[origin+y*sp.stride+x:][:m]
+				row := col[y*sp.stride:][:m]
 				for l := range row {
 					row[l] = float32(t[y*m+l])
 				}
@@ -185,6 +218,26 @@ func (sp *Spline) fit(img *Image) {
 		}
 	})
 	sp.fillPadding()
+}
+
+// rowsVector filters the four rows y … y+3 of img, the gain applied, into
+// their coefficients (rounded to float32) by the vector kernels, as the
+// row pass's Go loops filter a bundle, bit for bit: t is scratch of 4·w
+// values and sum of 4.
+func (sp *Spline) rowsVector(img *Image, y int, gain, z float64, t, sum []float64) {
+	w := sp.width
+	rows := img.Pix[y*w : (y+4)*w]
+	var at [4]float64
+	causalStart(w, z, sum, func(x int) []float64 {
+		for l := range at {
+			at[l] = gain * float64(rows[l*w+x])
+		}
+		return at[:]
+	})
+	copy(t, sum)
+	splineRowsInVector(rows, w, t, w, gain, z)
+	anticausalStart(t[4*(w-1):4*w], t[4*(w-2):4*(w-1)], z)
+	splineRowsOutVector(t, w, z, sp.coef[(y+splinePad)*sp.stride+splinePad:], sp.stride)
 }
 
 // splinePoles returns the poles of the direct B-spline filter of the given
@@ -236,43 +289,76 @@ const (
 // filter with pole z, in place, to m contiguous lines of n values: value k
 // of line l is c[first + k·step + l]. The boundary conditions are those of
 // the whole-sample mirror extension (Unser 1999, Box 2). sum is scratch of
-// at least m values.
+// at least m values. The recursions run in the vector kernels when there
+// are some (useVector), with the same values bit for bit.
 func filterLines(c []float64, first, step, n, m int, z float64, sum []float64) {
 	if n == 1 {
 		return // constant lines: the coefficients equal the values
 	}
 	line := func(k int) []float64 { return c[first+k*step : first+k*step+m] }
 	sum = sum[:m]
+	causalStart(n, z, sum, line)
+	copy(line(0), sum)
+	lines := c[first : first+(n-1)*step+m]
+	if useVector {
+		splineCausalVector(lines, step, n, m, z)
+	} else {
+		splineCausalGo(lines, step, n, m, z)
+	}
+	anticausalStart(line(n-1), line(n-2), z)
+	if useVector {
+		splineAnticausalVector(lines, step, n, m, z)
+	} else {
+		splineAnticausalGo(lines, step, n, m, z)
+	}
+}
 
-	// Causal initial value: c⁺[0] = Σ_{k≥0} z^k s[-k], summed over the mirror
-	// extension until z^k is below float64 resolution.
+// causalStart sets sum to the causal initial values of lines of n values
+// (n > 1; line(k) holds value k of each line, len(sum) of them):
+// c⁺[0] = Σ_{k≥0} z^k s[-k], summed over the mirror extension until z^k is
+// below float64 resolution (Unser 1999, Box 2).
+func causalStart[E float32 | float64](n int, z float64, sum []float64, line func(k int) []E) {
 	horizon := int(math.Ceil(math.Log(1e-17) / math.Log(math.Abs(z))))
 	clear(sum)
 	zk := 1.0
 	for k := 0; k < horizon; k++ {
 		src := line(mirrorIndex(k, n))
 		for l, v := range src[:len(sum)] {
-			sum[l] += zk * v
+			sum[l] += zk * float64(v)
 		}
 		zk *= z
 	}
-	copy(line(0), sum)
-	for k := 1; k < n; k++ {
-		dst, src := line(k), line(k-1)
-		src = src[:len(dst)]
-		for l := range dst {
-			dst[l] += z * src[l]
-		}
-	}
-	// Anticausal initial value for the mirror extension.
-	last, prev := line(n-1), line(n-2)
+}
+
+// anticausalStart sets the last line of the causal output, last, to the
+// anticausal initial values for the mirror extension, prev being the line
+// before it.
+func anticausalStart(last, prev []float64, z float64) {
 	prev = prev[:len(last)]
 	g := z / (z*z - 1)
 	for l := range last {
 		last[l] = g * (last[l] + z*prev[l])
 	}
+}
+
+// splineCausalGo runs the causal recursion c[k] += z·c[k−1], k = 1 … n−1,
+// over the m lines whose value k is c[k·step + l]: the reference of the
+// vector kernel.
+func splineCausalGo(c []float64, step, n, m int, z float64) {
+	for k := 1; k < n; k++ {
+		dst, src := c[k*step:k*step+m], c[(k-1)*step:(k-1)*step+m]
+		src = src[:len(dst)]
+		for l := range dst {
+			dst[l] += z * src[l]
+		}
+	}
+}
+
+// splineAnticausalGo runs the anticausal recursion c[k] = z·(c[k+1] − c[k]),
+// k = n−2 … 0, over the same lines: the reference of the vector kernel.
+func splineAnticausalGo(c []float64, step, n, m int, z float64) {
 	for k := n - 2; k >= 0; k-- {
-		dst, src := line(k), line(k+1)
+		dst, src := c[k*step:k*step+m], c[(k+1)*step:(k+1)*step+m]
 		src = src[:len(dst)]
 		for l := range dst {
 			dst[l] = z * (src[l] - dst[l])

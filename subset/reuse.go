@@ -46,6 +46,9 @@ func (s *Samples) Guess(x, y int) Params {
 // prior.Guess(x, y)) the first-iteration values of the pixels it shares
 // with prior's subset, and leaves in keep (when not nil) the values it
 // sampled at its last iterate. The result equals Solve's to rounding.
+// keep's values change hands rather than being copied: keep.G may be
+// another slice of the same size after the call, and its former storage
+// the solver's.
 func (s *Solver) SolveShared(ref, def *Spline, mask []uint8, x, y int, guess Params, c *Prepared, prior, keep *Samples) Result {
 	return s.solveShared(ref, def, mask, x, y, guess, nil, 0, c, prior, keep)
 }
@@ -72,7 +75,13 @@ func (s *Solver) solveShared(ref, def *Spline, mask []uint8, x, y int, guess Par
 	res := s.iterate(def, guess, alt, accept)
 	if keep != nil && s.sampled && s.square && s.cfg.Order == Affine && len(keep.G) == s.n {
 		keep.X, keep.Y, keep.P = x, y, s.sampledAt
-		copy(keep.G, s.gs[:s.n])
+		if cap(keep.G) == len(s.gs) {
+			// Handed over rather than copied: keep takes the solver's
+			// buffer and the solver keep's, of the same size.
+			keep.G, s.gs = s.gs[:s.n:s.n], keep.G[:len(s.gs)]
+		} else {
+			copy(keep.G, s.gs[:s.n])
+		}
 		keep.ok = true
 	}
 	s.prior = nil

@@ -120,3 +120,74 @@ func (s *Solver) affineMomentsVector(m *gradMoments) {
 		h[0][1] += r[2]
 	}
 }
+
+// splineCausalVector is splineCausalGo by splineCausalAVX2, bit for bit
+// (the same operations in the same order, without FMA). c must hold
+// (n−1)·step + m values: the kernel reads them unchecked.
+func splineCausalVector(c []float64, step, n, m int, z float64) {
+	if n < 2 || m < 1 {
+		return
+	}
+	_ = c[(n-1)*step+m-1]
+	splineCausalAVX2(c, step, n, m, z)
+}
+
+// splineAnticausalVector is splineAnticausalGo by splineAnticausalAVX2,
+// bit for bit (see splineCausalVector).
+func splineAnticausalVector(c []float64, step, n, m int, z float64) {
+	if n < 2 || m < 1 {
+		return
+	}
+	_ = c[(n-1)*step+m-1]
+	splineAnticausalAVX2(c, step, n, m, z)
+}
+
+// splineColumnsInVector sets t[k·m + l] = float64(col[k·stride + l]) +
+// z·t[(k−1)·m + l] for k = 1 … n−1, l < m, t's first line being set: the
+// column pass's copy into float64 and its causal recursion in one, by
+// splineColumnsInAVX2 (the same values as the copy and splineCausalGo,
+// bit for bit).
+func splineColumnsInVector(col []float32, stride int, t []float64, n, m int, z float64) {
+	if n < 2 || m < 1 {
+		return
+	}
+	_, _ = col[(n-1)*stride+m-1], t[n*m-1]
+	splineColumnsInAVX2(col, stride, t, n, m, z)
+}
+
+// splineColumnsOutVector runs the anticausal recursion over the n lines of
+// m values of t from its last line as set, and stores every line rounded
+// to float32 at col[k·stride + l]: splineAnticausalGo and the column
+// pass's copy back in one, by splineColumnsOutAVX2, bit for bit.
+func splineColumnsOutVector(t []float64, n, m int, z float64, col []float32, stride int) {
+	if n < 1 || m < 1 {
+		return
+	}
+	_, _ = col[(n-1)*stride+m-1], t[n*m-1]
+	splineColumnsOutAVX2(t, n, m, z, col, stride)
+}
+
+// splineRowsInVector sets t[4x + l] = gain·float64(rows[l·stride + x]) +
+// z·t[4(x−1) + l] for x = 1 … w−1 and the four rows l, t's first four
+// values being set: the row pass's transposed copy and its causal
+// recursion in one, by splineRowsInAVX2, bit for bit.
+func splineRowsInVector(rows []float32, stride int, t []float64, w int, gain, z float64) {
+	if w < 2 {
+		return
+	}
+	_, _ = rows[3*stride+w-1], t[4*w-1]
+	splineRowsInAVX2(rows, stride, t, w, gain, z)
+}
+
+// splineRowsOutVector runs the anticausal recursion over the four rows
+// of t (value x of row l at t[4x + l]) from their last values as set, and
+// stores value x of row l rounded to float32 at dst[l·stride + x]: the
+// row pass's anticausal recursion and its copy back in one, by
+// splineRowsOutAVX2, bit for bit.
+func splineRowsOutVector(t []float64, w int, z float64, dst []float32, stride int) {
+	if w < 1 {
+		return
+	}
+	_, _ = dst[3*stride+w-1], t[4*w-1]
+	splineRowsOutAVX2(t, w, z, dst, stride)
+}

@@ -2061,3 +2061,362 @@ sweep3_done:
 	VMOVSD X5, 232(R8)
 	VZEROUPPER
 	RET
+
+// func splineCausalAVX2(c []float64, step int, n int, m int, z float64)
+// Requires: AVX, AVX2, SSE2
+TEXT ·splineCausalAVX2(SB), NOSPLIT, $0-56
+	MOVQ         c_base+0(FP), AX
+	MOVQ         step+24(FP), CX
+	SHLQ         $0x03, CX
+	MOVQ         n+32(FP), DX
+	MOVQ         m+40(FP), BX
+	MOVQ         BX, SI
+	ANDQ         $-4, SI
+	MOVSD        z+48(FP), X0
+	VBROADCASTSD X0, Y0
+	MOVQ         $0x00000001, DI
+	CMPQ         DI, DX
+	JAE          causal_end
+
+causal_step:
+	LEAQ (AX)(CX*1), R8
+	XORQ R9, R9
+	CMPQ SI, $+0
+	JE   causal_rest
+
+causal_block:
+	VMOVUPD (AX)(R9*8), Y1
+	VMULPD  Y0, Y1, Y1
+	VMOVUPD (R8)(R9*8), Y2
+	VADDPD  Y1, Y2, Y2
+	VMOVUPD Y2, (R8)(R9*8)
+	ADDQ    $+4, R9
+	CMPQ    R9, SI
+	JB      causal_block
+
+causal_rest:
+	CMPQ R9, BX
+	JAE  causal_done
+
+causal_line:
+	VMOVSD (AX)(R9*8), X1
+	VMULSD X0, X1, X1
+	VMOVSD (R8)(R9*8), X2
+	VADDSD X1, X2, X2
+	VMOVSD X2, (R8)(R9*8)
+	INCQ   R9
+	CMPQ   R9, BX
+	JB     causal_line
+
+causal_done:
+	MOVQ R8, AX
+	INCQ DI
+	CMPQ DI, DX
+	JB   causal_step
+
+causal_end:
+	VZEROUPPER
+	RET
+
+// func splineAnticausalAVX2(c []float64, step int, n int, m int, z float64)
+// Requires: AVX, AVX2, SSE2
+TEXT ·splineAnticausalAVX2(SB), NOSPLIT, $0-56
+	MOVQ         c_base+0(FP), AX
+	MOVQ         step+24(FP), CX
+	SHLQ         $0x03, CX
+	MOVQ         n+32(FP), DX
+	MOVQ         m+40(FP), BX
+	MOVQ         BX, SI
+	ANDQ         $-4, SI
+	MOVSD        z+48(FP), X0
+	VBROADCASTSD X0, Y0
+	SUBQ         $0x00000001, DX
+	JBE          anti_end
+	MOVQ         DX, DI
+	IMULQ        CX, DI
+	ADDQ         AX, DI
+
+anti_step:
+	MOVQ DI, AX
+	SUBQ CX, AX
+	XORQ R8, R8
+	CMPQ SI, $+0
+	JE   anti_rest
+
+anti_block:
+	VMOVUPD (DI)(R8*8), Y1
+	VMOVUPD (AX)(R8*8), Y2
+	VSUBPD  Y2, Y1, Y1
+	VMULPD  Y0, Y1, Y1
+	VMOVUPD Y1, (AX)(R8*8)
+	ADDQ    $+4, R8
+	CMPQ    R8, SI
+	JB      anti_block
+
+anti_rest:
+	CMPQ R8, BX
+	JAE  anti_done
+
+anti_line:
+	VMOVSD (DI)(R8*8), X1
+	VMOVSD (AX)(R8*8), X2
+	VSUBSD X2, X1, X1
+	VMULSD X0, X1, X1
+	VMOVSD X1, (AX)(R8*8)
+	INCQ   R8
+	CMPQ   R8, BX
+	JB     anti_line
+
+anti_done:
+	MOVQ AX, DI
+	DECQ DX
+	JNZ  anti_step
+
+anti_end:
+	VZEROUPPER
+	RET
+
+// func splineColumnsInAVX2(src []float32, stride int, t []float64, n int, m int, z float64)
+// Requires: AVX, AVX2, SSE2
+TEXT ·splineColumnsInAVX2(SB), NOSPLIT, $0-80
+	MOVQ         src_base+0(FP), AX
+	MOVQ         t_base+32(FP), CX
+	MOVQ         stride+24(FP), DX
+	SHLQ         $0x02, DX
+	MOVQ         n+56(FP), BX
+	MOVQ         m+64(FP), SI
+	MOVQ         SI, DI
+	ANDQ         $-4, DI
+	MOVQ         SI, R8
+	SHLQ         $0x03, R8
+	MOVSD        z+72(FP), X0
+	VBROADCASTSD X0, Y0
+	MOVQ         $0x00000001, R9
+	CMPQ         R9, BX
+	JAE          colin_end
+
+colin_step:
+	ADDQ DX, AX
+	LEAQ (CX)(R8*1), R10
+	XORQ R11, R11
+	CMPQ DI, $+0
+	JE   colin_rest
+
+colin_block:
+	VMOVUPD   (CX)(R11*8), Y1
+	VMULPD    Y0, Y1, Y1
+	VCVTPS2PD (AX)(R11*4), Y2
+	VADDPD    Y1, Y2, Y2
+	VMOVUPD   Y2, (R10)(R11*8)
+	ADDQ      $+4, R11
+	CMPQ      R11, DI
+	JB        colin_block
+
+colin_rest:
+	CMPQ R11, SI
+	JAE  colin_done
+
+colin_line:
+	VMOVSD    (CX)(R11*8), X1
+	VMULSD    X0, X1, X1
+	VXORPD    X2, X2, X2
+	VCVTSS2SD (AX)(R11*4), X2, X2
+	VADDSD    X1, X2, X2
+	VMOVSD    X2, (R10)(R11*8)
+	INCQ      R11
+	CMPQ      R11, SI
+	JB        colin_line
+
+colin_done:
+	MOVQ R10, CX
+	INCQ R9
+	CMPQ R9, BX
+	JB   colin_step
+
+colin_end:
+	VZEROUPPER
+	RET
+
+// func splineColumnsOutAVX2(t []float64, n int, m int, z float64, dst []float32, stride int)
+// Requires: AVX, AVX2, SSE2
+TEXT ·splineColumnsOutAVX2(SB), NOSPLIT, $0-80
+	MOVQ         t_base+0(FP), AX
+	MOVQ         dst_base+48(FP), CX
+	MOVQ         stride+72(FP), DX
+	SHLQ         $0x02, DX
+	MOVQ         n+24(FP), BX
+	MOVQ         m+32(FP), SI
+	MOVQ         SI, DI
+	ANDQ         $-4, DI
+	MOVQ         SI, R8
+	SHLQ         $0x03, R8
+	MOVSD        z+40(FP), X0
+	VBROADCASTSD X0, Y0
+	SUBQ         $0x00000001, BX
+	JB           colout_end
+	MOVQ         BX, R9
+	IMULQ        R8, R9
+	ADDQ         AX, R9
+	MOVQ         BX, AX
+	IMULQ        DX, AX
+	ADDQ         CX, AX
+	XORQ         CX, CX
+	CMPQ         DI, $+0
+	JE           colout_last_rest
+
+colout_last_block:
+	VMOVUPD    (R9)(CX*8), Y3
+	VCVTPD2PSY Y3, X3
+	VMOVUPS    X3, (AX)(CX*4)
+	ADDQ       $+4, CX
+	CMPQ       CX, DI
+	JB         colout_last_block
+
+colout_last_rest:
+	CMPQ CX, SI
+	JAE  colout_last_done
+
+colout_last_line:
+	VMOVSD    (R9)(CX*8), X3
+	VCVTSD2SS X3, X1, X1
+	VMOVSS    X1, (AX)(CX*4)
+	INCQ      CX
+	CMPQ      CX, SI
+	JB        colout_last_line
+
+colout_last_done:
+	CMPQ BX, $0x00000000
+	JE   colout_end
+
+colout_step:
+	SUBQ DX, AX
+	MOVQ R9, CX
+	SUBQ R8, CX
+	XORQ R10, R10
+	CMPQ DI, $+0
+	JE   colout_rest
+
+colout_block:
+	VMOVUPD    (R9)(R10*8), Y1
+	VMOVUPD    (CX)(R10*8), Y3
+	VSUBPD     Y3, Y1, Y1
+	VMULPD     Y0, Y1, Y1
+	VMOVUPD    Y1, (CX)(R10*8)
+	VCVTPD2PSY Y1, X1
+	VMOVUPS    X1, (AX)(R10*4)
+	ADDQ       $+4, R10
+	CMPQ       R10, DI
+	JB         colout_block
+
+colout_rest:
+	CMPQ R10, SI
+	JAE  colout_done
+
+colout_line:
+	VMOVSD    (R9)(R10*8), X1
+	VMOVSD    (CX)(R10*8), X3
+	VSUBSD    X3, X1, X1
+	VMULSD    X0, X1, X1
+	VMOVSD    X1, (CX)(R10*8)
+	VCVTSD2SS X1, X2, X2
+	VMOVSS    X2, (AX)(R10*4)
+	INCQ      R10
+	CMPQ      R10, SI
+	JB        colout_line
+
+colout_done:
+	MOVQ CX, R9
+	DECQ BX
+	JNZ  colout_step
+
+colout_end:
+	VZEROUPPER
+	RET
+
+DATA prefilterRowsLane<>+0(SB)/4, $0x00000000
+DATA prefilterRowsLane<>+4(SB)/4, $0x00000001
+DATA prefilterRowsLane<>+8(SB)/4, $0x00000002
+DATA prefilterRowsLane<>+12(SB)/4, $0x00000003
+GLOBL prefilterRowsLane<>(SB), RODATA|NOPTR, $16
+
+// func splineRowsInAVX2(img []float32, stride int, t []float64, w int, gain float64, z float64)
+// Requires: AVX, AVX2, SSE2
+TEXT ·splineRowsInAVX2(SB), NOSPLIT, $0-80
+	MOVQ         img_base+0(FP), AX
+	MOVQ         t_base+32(FP), CX
+	MOVQ         stride+24(FP), DX
+	MOVQ         w+56(FP), BX
+	MOVSD        z+72(FP), X0
+	VBROADCASTSD X0, Y1
+	MOVSD        gain+64(FP), X0
+	VBROADCASTSD X0, Y0
+	MOVQ         DX, X2
+	VPBROADCASTD X2, X2
+	VPMULLD      prefilterRowsLane<>+0(SB), X2, X2
+	VMOVUPD      (CX), Y3
+	MOVQ         $0x00000001, DX
+	CMPQ         DX, BX
+	JAE          rowsin_end
+
+rowsin_step:
+	ADDQ       $0x04, AX
+	ADDQ       $0x20, CX
+	VPCMPEQD   X4, X4, X4
+	VXORPS     X5, X5, X5
+	VGATHERDPS X4, (AX)(X2*4), X5
+	VCVTPS2PD  X5, Y4
+	VMULPD     Y0, Y4, Y4
+	VMULPD     Y1, Y3, Y3
+	VADDPD     Y3, Y4, Y3
+	VMOVUPD    Y3, (CX)
+	INCQ       DX
+	CMPQ       DX, BX
+	JB         rowsin_step
+
+rowsin_end:
+	VZEROUPPER
+	RET
+
+// func splineRowsOutAVX2(t []float64, w int, z float64, dst []float32, stride int)
+// Requires: AVX, AVX2, SSE2
+TEXT ·splineRowsOutAVX2(SB), NOSPLIT, $0-72
+	MOVQ         t_base+0(FP), AX
+	MOVQ         dst_base+40(FP), CX
+	MOVQ         stride+64(FP), DX
+	SHLQ         $0x02, DX
+	LEAQ         (DX)(DX*2), BX
+	MOVQ         w+24(FP), SI
+	MOVSD        z+32(FP), X0
+	VBROADCASTSD X0, Y0
+	SUBQ         $0x00000001, SI
+	JB           rowsout_end
+	LEAQ         (CX)(SI*4), CX
+	MOVQ         SI, DI
+	SHLQ         $0x05, DI
+	ADDQ         AX, DI
+	VMOVUPD      (DI), Y1
+	VCVTPD2PSY   Y1, X2
+	VMOVSS       X2, (CX)
+	VEXTRACTPS   $0x01, X2, (CX)(DX*1)
+	VEXTRACTPS   $0x02, X2, (CX)(DX*2)
+	VEXTRACTPS   $0x03, X2, (CX)(BX*1)
+	CMPQ         SI, $0x00000000
+	JE           rowsout_end
+
+rowsout_step:
+	SUBQ       $0x04, CX
+	SUBQ       $0x20, DI
+	VMOVUPD    (DI), Y2
+	VSUBPD     Y2, Y1, Y1
+	VMULPD     Y0, Y1, Y1
+	VCVTPD2PSY Y1, X2
+	VMOVSS     X2, (CX)
+	VEXTRACTPS $0x01, X2, (CX)(DX*1)
+	VEXTRACTPS $0x02, X2, (CX)(DX*2)
+	VEXTRACTPS $0x03, X2, (CX)(BX*1)
+	DECQ       SI
+	JNZ        rowsout_step
+
+rowsout_end:
+	VZEROUPPER
+	RET

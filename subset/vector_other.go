@@ -43,3 +43,61 @@ func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
 
 // affineMomentsVector is affineMomentsGo where there is no vector kernel.
 func (s *Solver) affineMomentsVector(m *gradMoments) { s.affineMomentsGo(m) }
+
+// splineCausalVector is splineCausalGo where there is no vector kernel.
+func splineCausalVector(c []float64, step, n, m int, z float64) { splineCausalGo(c, step, n, m, z) }
+
+// splineAnticausalVector is splineAnticausalGo where there is no vector
+// kernel.
+func splineAnticausalVector(c []float64, step, n, m int, z float64) {
+	splineAnticausalGo(c, step, n, m, z)
+}
+
+// splineColumnsInVector is the column pass's copy into float64 followed
+// by splineCausalGo where there is no vector kernel.
+func splineColumnsInVector(col []float32, stride int, t []float64, n, m int, z float64) {
+	for k := 1; k < n; k++ {
+		for l, c := range col[k*stride:][:m] {
+			t[k*m+l] = float64(c)
+		}
+	}
+	splineCausalGo(t[:n*m], m, n, m, z)
+}
+
+// splineColumnsOutVector is splineAnticausalGo followed by the column
+// pass's copy back where there is no vector kernel.
+func splineColumnsOutVector(t []float64, n, m int, z float64, col []float32, stride int) {
+	splineAnticausalGo(t[:n*m], m, n, m, z)
+	for k := 0; k < n; k++ {
+		row := col[k*stride:][:m]
+		for l := range row {
+			row[l] = float32(t[k*m+l])
+		}
+	}
+}
+
+// splineRowsInVector is the row pass's transposed copy followed by
+// splineCausalGo where there is no vector kernel.
+func splineRowsInVector(rows []float32, stride int, t []float64, w int, gain, z float64) {
+	for l := range 4 {
+		for x := 1; x < w; x++ {
+			t[4*x+l] = gain * float64(rows[l*stride+x])
+		}
+	}
+	splineCausalGo(t[:4*w], 4, w, 4, z)
+}
+
+// splineRowsOutVector is splineAnticausalGo followed by the row pass's
+// copy back where there is no vector kernel; t keeps the causal values,
+// as the vector kernel leaves them.
+func splineRowsOutVector(t []float64, w int, z float64, dst []float32, stride int) {
+	next := [4]float64(t[4*(w-1) : 4*w])
+	for x := w - 1; x >= 0; x-- {
+		for l := range next {
+			if x < w-1 {
+				next[l] = z * (next[l] - t[4*x+l])
+			}
+			dst[l*stride+x] = float32(next[l])
+		}
+	}
+}

@@ -56,3 +56,53 @@ func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64
 //
 //go:noescape
 func affineMomentsAVX2(gx []float64, gy []float64, fc []float64, dx []float64, dy []float64, out *[30]float64)
+
+// splineCausalAVX2 runs the causal recursion c[k] += z·c[k−1],
+// k = 1 … n−1, over the m lines whose value k is c[k·step + l],
+// l < m, as filterLines does, bit for bit.
+//
+//go:noescape
+func splineCausalAVX2(c []float64, step int, n int, m int, z float64)
+
+// splineAnticausalAVX2 runs the anticausal recursion
+// c[k] = z·(c[k+1] − c[k]), k = n−2 … 0, over the m lines whose value
+// k is c[k·step + l], l < m, as filterLines does, bit for bit.
+//
+//go:noescape
+func splineAnticausalAVX2(c []float64, step int, n int, m int, z float64)
+
+// splineColumnsInAVX2 sets t[k·m + l] = src[k·stride + l] + z·t[(k−1)·m + l]
+// for k = 1 … n−1 and l < m, t's first m values being set: the column
+// pass's copy of m columns into float64 and its causal recursion in
+// one, as the Go loops do them, bit for bit.
+//
+//go:noescape
+func splineColumnsInAVX2(src []float32, stride int, t []float64, n int, m int, z float64)
+
+// splineColumnsOutAVX2 runs the anticausal recursion
+// t[k·m + l] = z·(t[(k+1)·m + l] − t[k·m + l]), k = n−2 … 0, l < m, from
+// the last line as set, and stores every line k rounded to float32 at
+// dst[k·stride + l]: the column pass's anticausal recursion and its
+// copy back in one, as the Go loops do them, bit for bit.
+//
+//go:noescape
+func splineColumnsOutAVX2(t []float64, n int, m int, z float64, dst []float32, stride int)
+
+// splineRowsInAVX2 sets t[4x + l] = gain·img[l·stride + x] + z·t[4(x−1) + l]
+// for x = 1 … w−1 and the four rows l < 4, t's first four values being
+// set: the row pass's transposed copy (with the gain) and its causal
+// recursion in one, four rows to a vector, as the Go loops do them,
+// bit for bit.
+//
+//go:noescape
+func splineRowsInAVX2(img []float32, stride int, t []float64, w int, gain float64, z float64)
+
+// splineRowsOutAVX2 runs the anticausal recursion
+// t[4x + l] = z·(t[4(x+1) + l] − t[4x + l]), x = w−2 … 0, of four rows
+// from their last values as set, and stores row l's value x rounded to
+// float32 at dst[l·stride + x]: the row pass's anticausal recursion
+// and its transposed copy back in one, as the Go loops do them, bit for
+// bit (t keeps the causal values).
+//
+//go:noescape
+func splineRowsOutAVX2(t []float64, w int, z float64, dst []float32, stride int)

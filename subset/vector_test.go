@@ -449,6 +449,64 @@ func BenchmarkCubicCentres(b *testing.B) {
 	}
 }
 
+// TestSplinePrefilterVectorEqualsGo compares the spline coefficients of
+// both paths of the prefilter (the recursions of filterLines, and for the
+// cubic kernel the column pass's fused copies) bit for bit, padding
+// included, for both kernels on images whose sizes leave every tail: one
+// pixel wide or high, widths past a multiple of the column strip and of
+// four, heights past a multiple of the row bundle. Where the compiler
+// fuses the Go loops' multiply-adds (goFuses) the two agree to rounding
+// only, and the test allows two float32 steps of each coefficient.
+func TestSplinePrefilterVectorEqualsGo(t *testing.T) {
+	skipWithoutVector(t)
+	rng := rand.New(rand.NewPCG(68, 68))
+	for _, size := range [][2]int{{1, 1}, {1, 7}, {7, 1}, {2, 2}, {5, 3}, {67, 19}, {130, 37}, {3, 70}} {
+		img := randomImage(rng, size[0], size[1])
+		for _, kind := range kinds {
+			var want, got *Spline
+			withPath(t, false, func() { want = NewSpline(img, kind) })
+			withPath(t, true, func() { got = NewSpline(img, kind) })
+			for k, c := range want.coef {
+				tol := 0.0
+				if goFuses() {
+					tol = 2 * math.Abs(float64(c)) * 0x1p-23
+				}
+				if d := math.Abs(float64(got.coef[k]) - float64(c)); !(d <= tol) {
+					t.Errorf("%v %dx%d: coefficient %d (row %d, column %d of the padded plane) %.9g, Go %.9g",
+						kind, size[0], size[1], k, k/want.stride, k%want.stride, got.coef[k], c)
+					break
+				}
+			}
+		}
+	}
+}
+
+// BenchmarkSplinePrefilter times the spline of a 1024² image on each
+// path (the prefilter, the padding and the conversions).
+func BenchmarkSplinePrefilter(b *testing.B) {
+	img := randomImage(rand.New(rand.NewPCG(69, 69)), 1024, 1024)
+	sp := NewSpline(img, Bicubic)
+	for _, kind := range kinds {
+		for _, path := range []struct {
+			name   string
+			vector bool
+		}{{"go", false}, {"vector", true}} {
+			b.Run(kind.String()+"/"+path.name, func(b *testing.B) {
+				if path.vector && !hasVector {
+					b.Skip("no vector kernels")
+				}
+				saved := useVector
+				useVector = path.vector
+				defer func() { useVector = saved }()
+				sp.kind = kind
+				for b.Loop() {
+					sp.Reload(img)
+				}
+			})
+		}
+	}
+}
+
 // TestAffineMomentsVectorMatchesGo compares the reference-side moments of
 // the Affine order of both paths (the Go path's paired loops for a full
 // square, its run loops for a masked subset) on subsets of radius 1, 2,

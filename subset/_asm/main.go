@@ -16,5 +16,6 @@ func main() {
 	cubicKernels(float32Coef)
 	cubicCentresKernel()
 	affineMoments()
+	prefilterKernels()
 	Generate()
 }
