@@ -73,6 +73,10 @@ type ZoneSettings struct {
 	CalibFrames    int                `json:"calibration_frames"`
 	K              float64            `json:"k_lateral"`
 	UCS            float64            `json:"ucs_MPa,omitempty"`
+	// EventJoinPx is the distance in px within which two onsets at one
+	// opening whose intervals share a frame are one event (the VSG;
+	// strain.JoinEvents), 0 when the finder did not know it.
+	EventJoinPx int `json:"event_join_px"`
 }
 
 // Cautions are printed with every onset report.

@@ -2,6 +2,7 @@ package job
 
 import (
 	"context"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"image"
@@ -35,6 +36,22 @@ func TestRunSkipsWhatIsUpToDate(t *testing.T) {
 	}
 	if len(first.Skipped) != 0 || first.Frames != 14 {
 		t.Fatalf("first run skipped %v, %d frames; want none skipped, 14 frames", first.Skipped, first.Frames)
+	}
+	// The zones stage joins one event's onsets within the VSG: the strain
+	// files do not carry the strain window, so it must come from the
+	// strain record, (window − 1) × step + subset (5 points here).
+	var sr0 strainfile.StrainRecord
+	var rep strainfile.OnsetReport
+	if err := runfolder.Section(out, "strain", &sr0); err != nil {
+		t.Fatal(err)
+	}
+	if data, err := os.ReadFile(filepath.Join(out, strainfile.OnsetJSON)); err != nil {
+		t.Fatal(err)
+	} else if err := json.Unmarshal(data, &rep); err != nil {
+		t.Fatal(err)
+	}
+	if rep.Settings.EventJoinPx != sr0.VSG || sr0.VSG <= 0 {
+		t.Errorf("onset.json's event_join_px %d, want the strain record's VSG %d (> 0)", rep.Settings.EventJoinPx, sr0.VSG)
 	}
 	again, err := Run(context.Background(), tc, out, tool, nil)
 	if err != nil {

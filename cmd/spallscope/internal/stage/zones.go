@@ -153,7 +153,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	}
 	rep := &strainfile.OnsetReport{Tool: tool, Peak: peak, Cautions: strainfile.Cautions,
 		Settings: strainfile.ZoneSettings{Indicators: finder.Config().Indicators, Thresholds: finder.Config().Thresholds, Persistence: finder.Config().Persistence,
-			CalibrateBelow: st.CalibrateBelow, CalibFrames: len(calib), K: st.K, UCS: st.UCS}}
+			CalibrateBelow: st.CalibrateBelow, CalibFrames: len(calib), K: st.K, UCS: st.UCS, EventJoinPx: finder.VSG()}}
 	openingName := func(i int) string {
 		switch {
 		case i < 0:
