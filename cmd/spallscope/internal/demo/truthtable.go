@@ -94,15 +94,19 @@ func (d *Demo) TruthTable(faceDir func(face string) string) []TruthRow {
 		for _, ft := range features {
 			boxDet := ft.FirstAbove(limit)
 			det, kernel, measured, note := boxDet, false, false, ""
+			var bar []float64
 			if fromRun && run.window.Size > 0 && ft.Kind != synth.FeatureSpall {
 				if kt, err := kernelTruth(f.sc, ft.Field, run); err == nil {
-					det, kernel, note = kt.FirstAboveNoise(run.limit), true, run.scaleNote
-					if run.scale != nil {
-						if d, err := kt.FirstAboveScale(run.limit, run.scale); err == nil {
-							det, measured, note = d, true, ""
-						} else {
-							note = err.Error()
-						}
+					// The run's own bar where it recorded one, else the
+					// window's theoretical gain in its place.
+					bar, note = kt.Gain, run.scaleNote
+					if measured = run.scale != nil; measured {
+						bar = run.scale
+					}
+					if det, err = kt.FirstAboveScale(run.limit, bar); err == nil {
+						kernel = true
+					} else {
+						det, measured, note = boxDet, false, err.Error()
 					}
 				}
 			}

@@ -193,18 +193,14 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	if runfolder.Section(dir, "resolution", &res) == nil {
 		rep.Resolution = &res
 	}
-	rep.DetectionLimits = detectionLimits(dir, finder)
+	rep.DetectionLimits = detectionLimits(rec, finder)
 	err = runfolder.WriteJSON(filepath.Join(dir, strainfile.OnsetJSON), rep)
 	return rep, err
 }
 
 // detectionLimits are the smallest fractures the run could see, per strain
 // indicator, from the finder's noise and the strain record's VSG.
-func detectionLimits(dir string, finder *strain.Finder) []strainfile.DetectionLimit {
-	var sr strainfile.StrainRecord
-	if runfolder.Section(dir, "strain", &sr) != nil {
-		return nil
-	}
+func detectionLimits(sr strainfile.StrainRecord, finder *strain.Finder) []strainfile.DetectionLimit {
 	k := finder.Config().Thresholds.K
 	var out []strainfile.DetectionLimit
 	for _, ind := range finder.Config().Indicators {
