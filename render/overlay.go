@@ -93,6 +93,30 @@ type OverlayOptions struct {
 	buffers *overlayBuffers
 }
 
+// prepared returns opt with its defaults filled in and checked, as
+// Overlay applies them: the opacity (DefaultAlpha for 0, else in (0, 1]),
+// the quantity's colour map when none is set, and the lens folded into
+// the deformation the field is drawn through.
+func (opt OverlayOptions) prepared() (OverlayOptions, error) {
+	if opt.Alpha == 0 {
+		opt.Alpha = DefaultAlpha
+	}
+	if !(opt.Alpha > 0 && opt.Alpha <= 1) {
+		return opt, fmt.Errorf("overlay: opacity %g, expected a number in (0, 1]", opt.Alpha)
+	}
+	if opt.Map.table == nil {
+		opt.Map = opt.Quantity.Map()
+	}
+	if opt.Lens != nil {
+		d := Deformation{Lens: opt.Lens}
+		if opt.Deform != nil {
+			d.U, d.V = opt.Deform.U, opt.Deform.V
+		}
+		opt.Deform = &d
+	}
+	return opt, nil
+}
+
 // Overlay draws values (a field on its grid, reference px) over photo and
 // returns a BGR image: the photo with the coloured field blended in at
 // opacity Alpha, with the marks (zone outlines, onset badges, arrows), and
@@ -112,23 +136,11 @@ func Overlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.
 	if w == 0 || h == 0 {
 		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: empty photo", opt.Stamp.Frame)
 	}
+	opt, err := opt.prepared()
+	if err != nil {
+		return gocv.Mat{}, err
+	}
 	alpha := opt.Alpha
-	if alpha == 0 {
-		alpha = DefaultAlpha
-	}
-	if !(alpha > 0 && alpha <= 1) {
-		return gocv.Mat{}, fmt.Errorf("overlay: opacity %g, expected a number in (0, 1]", alpha)
-	}
-	if opt.Map.table == nil {
-		opt.Map = opt.Quantity.Map()
-	}
-	if opt.Lens != nil {
-		d := Deformation{Lens: opt.Lens}
-		if opt.Deform != nil {
-			d.U, d.V = opt.Deform.U, opt.Deform.V
-		}
-		opt.Deform = &d
-	}
 	if opt.Deform != nil && opt.Deform.Lens == nil && !opt.Deform.moves() {
 		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: raster on the current frame: no displacement field", opt.Stamp.Frame)
 	}

@@ -26,25 +26,12 @@ func referenceOverlay(photo *subset.Image, values *GridValues, opt OverlayOption
 	if w == 0 || h == 0 {
 		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: empty photo", opt.Stamp.Frame)
 	}
+	opt, err := opt.prepared()
+	if err != nil {
+		return gocv.Mat{}, err
+	}
 	alpha := opt.Alpha
-	if alpha == 0 {
-		alpha = DefaultAlpha
-	}
-	if !(alpha > 0 && alpha <= 1) {
-		return gocv.Mat{}, fmt.Errorf("overlay: opacity %g, expected a number in (0, 1]", alpha)
-	}
-	if opt.Map.table == nil {
-		opt.Map = opt.Quantity.Map()
-	}
-	if opt.Lens != nil {
-		d := Deformation{Lens: opt.Lens}
-		if opt.Deform != nil {
-			d.U, d.V = opt.Deform.U, opt.Deform.V
-		}
-		opt.Deform = &d
-	}
 	var r *Raster
-	var err error
 	if opt.Deform != nil {
 		r, err = values.RasterOn(opt.Deform, w, h, opt.Keep)
 	} else {
