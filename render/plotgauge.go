@@ -130,14 +130,21 @@ func DefaultGauge(ref *dic.Field) Gauge {
 			score[r*g.Cols+c] = out[r]
 		}
 	}
+	return bestGauge(g, w, h, func(c, r int) float64 { return score[r*g.Cols+c] })
+}
+
+// bestGauge is the eyy gauge over the w×h window of grid points, its top
+// left at (c, r), with the highest score(c, r); among equal scores the one
+// nearest the grid's centre.
+func bestGauge(g dic.Grid, w, h int, score func(c, r int) float64) Gauge {
 	bestC, bestR, bestScore, bestCentre := 0, 0, -1.0, math.Inf(1)
 	cc, cr := float64(g.Cols-w)/2, float64(g.Rows-h)/2
 	for r := 0; r+h <= g.Rows; r++ {
 		for c := 0; c+w <= g.Cols; c++ {
-			score := score[r*g.Cols+c]
+			s := score(c, r)
 			centre := math.Hypot(float64(c)-cc, float64(r)-cr)
-			if score > bestScore || (score == bestScore && centre < bestCentre) {
-				bestC, bestR, bestScore, bestCentre = c, r, score, centre
+			if s > bestScore || (s == bestScore && centre < bestCentre) {
+				bestC, bestR, bestScore, bestCentre = c, r, s, centre
 			}
 		}
 	}

@@ -121,25 +121,16 @@ func referenceDefaultGauge(ref *dic.Field) Gauge {
 		}
 		room[i] = d
 	}
-	bestC, bestR, bestScore, bestCentre := 0, 0, -1.0, math.Inf(1)
-	cc, cr := float64(g.Cols-w)/2, float64(g.Rows-h)/2
-	for r := 0; r+h <= g.Rows; r++ {
-		for c := 0; c+w <= g.Cols; c++ {
-			score := math.Inf(1)
-			for dr := range h {
-				for dc := range w {
-					score = math.Min(score, room[g.Index(c+dc, r+dr)])
-				}
-			}
-			centre := math.Hypot(float64(c)-cc, float64(r)-cr)
-			if score > bestScore || (score == bestScore && centre < bestCentre) {
-				bestC, bestR, bestScore, bestCentre = c, r, score, centre
+	// Each window's least room, point by point.
+	return bestGauge(g, w, h, func(c, r int) float64 {
+		score := math.Inf(1)
+		for dr := range h {
+			for dc := range w {
+				score = math.Min(score, room[g.Index(c+dc, r+dr)])
 			}
 		}
-	}
-	x0, y0 := g.Pos(g.Index(bestC, bestR))
-	x1, y1 := g.Pos(g.Index(bestC+w-1, bestR+h-1))
-	return Gauge{X0: float64(x0), Y0: float64(y0), X1: float64(x1), Y1: float64(y1), Component: "eyy"}
+		return score
+	})
 }
 
 // The default gauge by distance transform and running minima is the direct
