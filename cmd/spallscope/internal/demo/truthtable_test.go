@@ -59,7 +59,16 @@ func TestTruthTableTakesTheRunsLimit(t *testing.T) {
 	if rows[0].Detectable != 18 || rows[0].LimitFromRun || rows[0].VSG != 30 {
 		t.Errorf("without a run: detectable %d (from run %v, VSG %d), want 18 at the nominal limit over the truth file's 30 px", rows[0].Detectable, rows[0].LimitFromRun, rows[0].VSG)
 	}
-	path := filepath.Join(dir, TruthCSV)
+	recs := writeAndReadTruth(t, filepath.Join(dir, TruthCSV), rows)
+	if len(recs) != 2 || recs[0][9] != "detectable_frame" || recs[1][9] != "18" || recs[1][14] != "nominal" {
+		t.Errorf("csv %v", recs)
+	}
+}
+
+// writeAndReadTruth writes rows with WriteTruthTable to path and reads
+// the CSV back, header first.
+func writeAndReadTruth(t *testing.T, path string, rows []TruthRow) [][]string {
+	t.Helper()
 	if err := WriteTruthTable(path, rows); err != nil {
 		t.Fatal(err)
 	}
@@ -69,9 +78,10 @@ func TestTruthTableTakesTheRunsLimit(t *testing.T) {
 	}
 	defer f.Close()
 	recs, err := csv.NewReader(f).ReadAll()
-	if err != nil || len(recs) != 2 || recs[0][9] != "detectable_frame" || recs[1][9] != "18" || recs[1][14] != "nominal" {
-		t.Errorf("csv %v %v", recs, err)
+	if err != nil {
+		t.Fatal(err)
 	}
+	return recs
 }
 
 // The demo's truth files state the VSG the strain stage gives the demo's
@@ -137,18 +147,9 @@ func TestTruthTableTakesTheKernelTruth(t *testing.T) {
 		t.Fatalf("rows %+v, want one, the kernel truth's detectable frame 18 at the window's gain (no %s) and the box truth's 24", rows, strainfile.NoiseScaleCSV)
 	}
 	readCSV := func(rows []TruthRow) [][]string {
-		path := filepath.Join(dir, TruthCSV)
-		if err := WriteTruthTable(path, rows); err != nil {
-			t.Fatal(err)
-		}
-		f, err := os.Open(path)
-		if err != nil {
-			t.Fatal(err)
-		}
-		defer f.Close()
-		recs, err := csv.NewReader(f).ReadAll()
-		if err != nil || len(recs) != 2 || recs[0][15] != "detectable_source" {
-			t.Fatalf("csv %v %v", recs, err)
+		recs := writeAndReadTruth(t, filepath.Join(dir, TruthCSV), rows)
+		if len(recs) != 2 || recs[0][15] != "detectable_source" {
+			t.Fatalf("csv %v", recs)
 		}
 		return recs
 	}
