@@ -231,14 +231,15 @@ func (s *scatter) theory(ref *subset.Image, kind subset.Interpolation, rad int, 
 // (u, ux, uy, v, vx, vy, offset, gain).
 func subsetTheory(sp *subset.Spline, x, y, rad int, sigma float64) (pan, affine float64, ok bool) {
 	sx, sy := subset.SSSIGXY(sp, x, y, rad)
-	pan = 2 * sigma * sigma * (1/sx + 1/sy)
+	nx, ny := subset.PredictedNoise(sigma, sx), subset.PredictedNoise(sigma, sy)
+	pan = nx*nx + ny*ny
 	side := 2*rad + 1
-	vals := make([]float64, 0, side*side)
+	vals := make([][3]float64, 0, side*side) // value and gradient at each pixel
 	mean := 0.0
 	for j := -rad; j <= rad; j++ {
 		for i := -rad; i <= rad; i++ {
-			v, _, _ := sp.ValueGrad(float64(x+i), float64(y+j))
-			vals = append(vals, v)
+			v, gx, gy := sp.ValueGrad(float64(x+i), float64(y+j))
+			vals = append(vals, [3]float64{v, gx, gy})
 			mean += v
 		}
 	}
@@ -247,9 +248,9 @@ func subsetTheory(sp *subset.Spline, x, y, rad int, sigma float64) (pan, affine 
 	k := 0
 	for j := -rad; j <= rad; j++ {
 		for i := -rad; i <= rad; i++ {
-			_, gx, gy := sp.ValueGrad(float64(x+i), float64(y+j))
+			v, gx, gy := vals[k][0], vals[k][1], vals[k][2]
 			di, dj := float64(i), float64(j)
-			jac := [8]float64{gx, gx * di, gx * dj, gy, gy * di, gy * dj, 1, vals[k] - mean}
+			jac := [8]float64{gx, gx * di, gx * dj, gy, gy * di, gy * dj, 1, v - mean}
 			k++
 			for a := range 8 {
 				for c := a; c < 8; c++ {
