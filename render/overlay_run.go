@@ -143,7 +143,9 @@ func Run(ctx context.Context, dir string, opt Options) (Result, error) {
 	gain := 0.0
 	if spec.Mode == LimitsSequence || opt.Vectors {
 		var pool, mags Pool
-		err := rr.eachFrameValues(q, opt.Vectors, func(_ int, fv frameData) error {
+		// The strain files are parsed on all cores, used in frame order.
+		read := func(k int) (frameData, error) { return rr.frameValues(q, rr.names[k], opt.Vectors) }
+		err := runfolder.ReadInOrder(len(rr.names), read, func(_ int, fv frameData) error {
 			pool.Add(fv.values.Values)
 			if opt.Vectors {
 				m := make([]float64, len(fv.u.Values))

@@ -113,11 +113,14 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 		calibration[k] = true
 	}
 	// Pass 1 finds and confirms the zones; pass 2 reads the confirmed
-	// zones' cells in every frame to back-date their onsets.
-	frameAt := func(k int) (strain.Frame, error) {
+	// zones' cells in every frame to back-date their onsets. Each pass
+	// parses the next frames' files on all cores while one frame is used
+	// (runfolder.ReadInOrder), in frame order. The calibration frames read
+	// above serve the first pass; then they are let go, as they are many
+	// in a long test.
+	frameAt := func(k int, calibrated map[int]*strain.Field) (strain.Frame, error) {
 		name := names[k]
-		sf, ok := read[k]
-		delete(read, k) // read once: calibration frames are many in a long test
+		sf, ok := calibrated[k]
 		if !ok {
 			var err error
 			if sf, err = readStrain(name); err != nil {
@@ -130,30 +133,30 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 		}
 		return strain.Frame{Index: k, Name: name, Time: frames[k].Time, Stress: frames[k].Stress, InSpan: frames[k].InSpan, Strain: sf, Disp: df}, nil
 	}
-	for k := range names {
-		fr, err := frameAt(k)
-		if err != nil {
-			return nil, err
-		}
-		if _, err := finder.Add(fr); err != nil {
-			return nil, err
-		}
+	err = runfolder.ReadInOrder(len(names), func(k int) (strain.Frame, error) { return frameAt(k, read) }, func(_ int, fr strain.Frame) error {
+		_, err := finder.Add(fr)
+		return err
+	})
+	if err != nil {
+		return nil, err
 	}
+	calibFrames := len(calib)
+	read, calib = nil, nil
 	onsets := finder.Onsets(peak.Stress)
 	if len(onsets) > 0 {
 		dating := finder.Dating(onsets)
-		for k := range names {
-			fr, err := frameAt(k)
-			if err != nil {
-				return nil, err
-			}
+		err := runfolder.ReadInOrder(len(names), func(k int) (strain.Frame, error) { return frameAt(k, nil) }, func(_ int, fr strain.Frame) error {
 			dating.Add(fr)
+			return nil
+		})
+		if err != nil {
+			return nil, err
 		}
 		onsets = strain.JoinEvents(dating.Onsets(calibration, peak.Stress), finder.VSG())
 	}
 	rep := &strainfile.OnsetReport{Tool: tool, Peak: peak, Cautions: strainfile.Cautions,
 		Settings: strainfile.ZoneSettings{Indicators: finder.Config().Indicators, Thresholds: finder.Config().Thresholds, Persistence: finder.Config().Persistence,
-			CalibrateBelow: st.CalibrateBelow, CalibFrames: len(calib), K: st.K, UCS: st.UCS, EventJoinPx: finder.VSG()}}
+			CalibrateBelow: st.CalibrateBelow, CalibFrames: calibFrames, K: st.K, UCS: st.UCS, EventJoinPx: finder.VSG()}}
 	openingName := func(i int) string {
 		switch {
 		case i < 0:

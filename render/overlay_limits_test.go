@@ -10,15 +10,17 @@ import (
 	"testing"
 	"time"
 
+	"spallscope/dic/runfolder"
 	"spallscope/strain/strainfile"
 )
 
-// The limits pass reads frames on several goroutines but hands them over
-// in frame order with the values a serial read gives; a bad strain file
-// stops it at that frame with the serial read's error (naming the file),
-// before any later frame is handed over, also when a later file is bad
-// too; an error of the consumer stops the reading; no goroutine is left.
-func TestEachFrameValuesInOrder(t *testing.T) {
+// The limits pass reads a run's frames on several goroutines
+// (runfolder.ReadInOrder) with the values a serial read gives, in frame
+// order; a bad strain file stops it at that frame with the serial read's
+// error (naming the file), before any later frame is used, also when a
+// later file is bad too; an error of the consumer stops the reading; no
+// goroutine is left.
+func TestLimitsPassReadsInOrder(t *testing.T) {
 	const n = 7
 	dir, sc := synthRun(t, n)
 	q, err := QuantityNamed("exx")
@@ -35,7 +37,7 @@ func TestEachFrameValuesInOrder(t *testing.T) {
 	}
 	before := runtime.NumGoroutine()
 	var order []int
-	err = rr.eachFrameValues(q, true, func(k int, fd frameData) error {
+	err = runfolder.ReadInOrder(n, func(k int) (frameData, error) { return rr.frameValues(q, rr.names[k], true) }, func(k int, fd frameData) error {
 		order = append(order, k)
 		want, err := rr.frameValues(q, rr.names[k], true)
 		if err != nil {
@@ -68,7 +70,7 @@ func TestEachFrameValuesInOrder(t *testing.T) {
 	}
 	for range 5 { // the goroutines' timing differs from run to run
 		order = order[:0]
-		err = rr.eachFrameValues(q, false, func(k int, _ frameData) error {
+		err = runfolder.ReadInOrder(n, func(k int) (frameData, error) { return rr.frameValues(q, rr.names[k], false) }, func(k int, _ frameData) error {
 			order = append(order, k)
 			return nil
 		})
@@ -83,7 +85,7 @@ func TestEachFrameValuesInOrder(t *testing.T) {
 	// The consumer's error stops the reading at once.
 	stop := errors.New("enough")
 	order = order[:0]
-	if err := rr.eachFrameValues(q, false, func(k int, _ frameData) error {
+	if err := runfolder.ReadInOrder(n, func(k int) (frameData, error) { return rr.frameValues(q, rr.names[k], false) }, func(k int, _ frameData) error {
 		order = append(order, k)
 		return stop
 	}); !errors.Is(err, stop) || len(order) != 1 {
