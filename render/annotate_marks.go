@@ -21,38 +21,10 @@ func drawZoneOutlines(img *gocv.Mat, g dic.Grid, zones []ZoneOutline, d *Deforma
 	}
 	w, h := img.Cols(), img.Rows()
 	for _, class := range []string{"localization", "decorrelation"} {
-		mask := make([]byte, w*h)
-		found := false
-		for _, z := range zones {
-			if (z.Class == "decorrelation") != (class == "decorrelation") {
-				continue
-			}
-			for _, c := range z.Cells {
-				if c < 0 || c >= g.Len() {
-					continue
-				}
-				x, y := g.Pos(c)
-				x0, y0 := max(0, x-g.Step/2), max(0, y-g.Step/2)
-				x1, y1 := min(w, x0+g.Step), min(h, y0+g.Step)
-				for yy := y0; yy < y1; yy++ {
-					for xx := x0; xx < x1; xx++ {
-						mask[yy*w+xx] = 255
-					}
-				}
-				found = true
-			}
-		}
-		if !found {
+		pts := zoneContours(w, h, g, zones, class)
+		if len(pts) == 0 {
 			continue
 		}
-		m, err := gocv.NewMatFromBytes(h, w, gocv.MatTypeCV8U, mask)
-		if err != nil {
-			continue
-		}
-		contours := gocv.FindContours(m, gocv.RetrievalList, gocv.ChainApproxSimple)
-		m.Close()
-		pts := contours.ToPoints()
-		contours.Close()
 		if d != nil {
 			for _, c := range pts {
 				for k, p := range c {
@@ -191,4 +163,74 @@ func placeOnsets(img *gocv.Mat, onsets []OnsetMark, d *Deformation, l panelLayou
 		out = append(out, placedBadge{at, o.Number})
 	}
 	return out
+}
+
+// zoneContours are the outlines, in photo px, of the grid cells (a step
+// square about each grid point, clipped to the w×h photo) of zones of
+// class (decorrelation, or any other class as localization): OpenCV's
+// contours of the cells' mask. The mask covers only the cells' bounding
+// box and a pixel of background around it (none beyond the photo's
+// edge), so it is a few kB for a zone where a photo-sized one is 20 MB at
+// 20 MP; the contours are the same as on the whole photo's mask, offset
+// (TestZoneContoursEqualWholePhotoMask).
+func zoneContours(w, h int, g dic.Grid, zones []ZoneOutline, class string) [][]image.Point {
+	type box struct{ x0, y0, x1, y1 int }
+	cell := func(c int) (box, bool) {
+		if c < 0 || c >= g.Len() {
+			return box{}, false
+		}
+		x, y := g.Pos(c)
+		x0, y0 := max(0, x-g.Step/2), max(0, y-g.Step/2)
+		b := box{x0, y0, min(w, x0+g.Step), min(h, y0+g.Step)}
+		return b, b.x1 > b.x0 && b.y1 > b.y0
+	}
+	bb, found := box{w, h, 0, 0}, false
+	for _, z := range zones {
+		if (z.Class == "decorrelation") != (class == "decorrelation") {
+			continue
+		}
+		for _, c := range z.Cells {
+			if b, ok := cell(c); ok {
+				bb = box{min(bb.x0, b.x0), min(bb.y0, b.y0), max(bb.x1, b.x1), max(bb.y1, b.y1)}
+				found = true
+			}
+		}
+	}
+	if !found {
+		return nil
+	}
+	bb = box{max(0, bb.x0-1), max(0, bb.y0-1), min(w, bb.x1+1), min(h, bb.y1+1)}
+	mw, mh := bb.x1-bb.x0, bb.y1-bb.y0
+	mask := make([]byte, mw*mh)
+	for _, z := range zones {
+		if (z.Class == "decorrelation") != (class == "decorrelation") {
+			continue
+		}
+		for _, c := range z.Cells {
+			b, ok := cell(c)
+			if !ok {
+				continue
+			}
+			for yy := b.y0; yy < b.y1; yy++ {
+				row := mask[(yy-bb.y0)*mw:]
+				for xx := b.x0; xx < b.x1; xx++ {
+					row[xx-bb.x0] = 255
+				}
+			}
+		}
+	}
+	m, err := gocv.NewMatFromBytes(mh, mw, gocv.MatTypeCV8U, mask)
+	if err != nil {
+		return nil
+	}
+	contours := gocv.FindContours(m, gocv.RetrievalList, gocv.ChainApproxSimple)
+	m.Close()
+	pts := contours.ToPoints()
+	contours.Close()
+	for _, c := range pts {
+		for k := range c {
+			c[k] = c[k].Add(image.Pt(bb.x0, bb.y0))
+		}
+	}
+	return pts
 }

@@ -143,11 +143,9 @@ func Run(ctx context.Context, dir string, opt Options) (Result, error) {
 	gain := 0.0
 	if spec.Mode == LimitsSequence || opt.Vectors {
 		var pool, mags Pool
-		for _, name := range rr.names {
-			fv, err := rr.frameValues(q, name, opt.Vectors)
-			if err != nil {
-				return res, err
-			}
+		// The strain files are parsed on all cores, used in frame order.
+		read := func(k int) (frameData, error) { return rr.frameValues(q, rr.names[k], opt.Vectors) }
+		err := runfolder.ReadInOrder(len(rr.names), read, func(_ int, fv frameData) error {
 			pool.Add(fv.values.Values)
 			if opt.Vectors {
 				m := make([]float64, len(fv.u.Values))
@@ -156,6 +154,10 @@ func Run(ctx context.Context, dir string, opt Options) (Result, error) {
 				}
 				mags.Add(m)
 			}
+			return nil
+		})
+		if err != nil {
+			return res, err
 		}
 		if spec.Mode == LimitsSequence {
 			if lim, err = AutoLimits(q, &pool, LimitsSequence, opt.LowPct, opt.HighPct); err != nil {

@@ -112,52 +112,89 @@ const MinFloor = 1e-6
 // of every later frame is then at least K times that noise, and at least
 // MinFloor: a frame whose own scatter is smaller (a quiet frame, a
 // round-off field) cannot mark its noise as a zone. Call it before Add.
+// It is NoiseFit over the frames in order, then SetNoiseFrom.
 func (f *Finder) SetNoise(calib []*Field, stress []float64) {
+	nf := f.NoiseFit()
+	for j, sf := range calib {
+		nf.Add(sf, stress[j])
+	}
+	f.SetNoiseFrom(nf)
+}
+
+// NoiseFit accumulates SetNoise's measures one calibration frame at a
+// time, so that a long test's calibration frames need not be held at
+// once: per strain indicator, one robust spread a frame, and each point's
+// running mean and sum of squared deviations (Welford 1962,
+// Technometrics 4, 419: the numerically stable one-pass variance; from
+// memory) for its own noise (pointScale).
+type NoiseFit struct {
+	f       *Finder
+	frames  int
+	spreads map[Indicator][]float64
+	points  map[Indicator]*pointNoise
+	vals    []float64
+}
+
+// pointNoise is each point's running count, mean and sum of squared
+// deviations of an indicator over the calibration frames.
+type pointNoise struct {
+	n        []int
+	mean, m2 []float64
+}
+
+// NoiseFit starts measuring the noise against the finder's baseline.
+func (f *Finder) NoiseFit() *NoiseFit {
+	return &NoiseFit{f: f, spreads: map[Indicator][]float64{}, points: map[Indicator]*pointNoise{}}
+}
+
+// Add adds one calibration frame's strain field at its stress (MPa).
+func (nf *NoiseFit) Add(sf *Field, stress float64) {
+	nf.frames++
+	t, bl := nf.f.cfg.Thresholds, nf.f.baseline
+	for _, ind := range nf.f.cfg.Indicators {
+		if ind == Decorrelation {
+			continue
+		}
+		pn := nf.points[ind]
+		if pn == nil {
+			n := len(sf.Points)
+			pn = &pointNoise{n: make([]int, n), mean: make([]float64, n), m2: make([]float64, n)}
+			nf.points[ind] = pn
+		}
+		nf.vals = nf.vals[:0]
+		for i := range min(len(sf.Points), len(pn.n)) {
+			v, ok := t.value(ind, bl, sf, nil, nil, i, stress)
+			if !ok {
+				continue
+			}
+			nf.vals = append(nf.vals, v)
+			pn.n[i]++
+			d := v - pn.mean[i]
+			pn.mean[i] += d / float64(pn.n[i])
+			pn.m2[i] += d * (v - pn.mean[i])
+		}
+		if len(nf.vals) >= 8 {
+			_, sp := robustSpread(nf.vals)
+			nf.spreads[ind] = append(nf.spreads[ind], sp)
+		}
+	}
+}
+
+// SetNoiseFrom sets the finder's noise, floors and per-point scales from
+// the frames nf was given (see SetNoise). Call it before Add.
+func (f *Finder) SetNoiseFrom(nf *NoiseFit) {
 	f.noise, f.floor, f.scale = map[Indicator]float64{}, map[Indicator]float64{}, map[Indicator][]float64{}
 	k := f.cfg.Thresholds.Effective().K
 	for _, ind := range f.cfg.Indicators {
 		if ind == Decorrelation {
 			continue
 		}
-		cv := f.cfg.Thresholds.calibrationValues(ind, f.baseline, calib, stress)
-		var spreads []float64
-		for j := range calib {
-			var vals []float64
-			for i, v := range cv.value[j] {
-				if cv.have[j][i] {
-					vals = append(vals, v)
-				}
-			}
-			if len(vals) >= 8 {
-				_, s := robustSpread(vals)
-				spreads = append(spreads, s)
-			}
-		}
-		if len(spreads) > 0 {
-			f.noise[ind] = medianOf(spreads)
+		if sp := nf.spreads[ind]; len(sp) > 0 {
+			f.noise[ind] = medianOf(sp)
 		}
 		f.floor[ind] = math.Max(k*f.noise[ind], MinFloor)
-		f.scale[ind] = cv.pointScale()
+		f.scale[ind] = nf.pointScale(ind)
 	}
-}
-
-// calibrationValues is one strain indicator's value at every point of
-// every calibration frame (value[j][i], have[j][i] false where there is
-// none), evaluated once for both the face's noise and each point's.
-type calibrationValues struct {
-	value [][]float64
-	have  [][]bool
-}
-
-func (t Thresholds) calibrationValues(ind Indicator, bl Baseline, calib []*Field, stress []float64) calibrationValues {
-	cv := calibrationValues{value: make([][]float64, len(calib)), have: make([][]bool, len(calib))}
-	for j, sf := range calib {
-		cv.value[j], cv.have[j] = make([]float64, len(sf.Points)), make([]bool, len(sf.Points))
-		for i := range sf.Points {
-			cv.value[j][i], cv.have[j][i] = t.value(ind, bl, sf, nil, nil, i, stress[j])
-		}
-	}
-	return cv
 }
 
 // pointScale is each point's noise of the indicator over the calibration
@@ -165,28 +202,21 @@ func (t Thresholds) calibrationValues(ind Indicator, bl Baseline, calib []*Field
 // over the points, at least 1: points whose own noise is larger than the
 // face's — next to an opening's wall or the face's edge, where the strain
 // window is one-sided, and where the baseline extrapolates that noise into
-// the loaded frames — need a higher bar, in proportion, to be marked. nil
-// with fewer than three calibration frames.
-func (cv calibrationValues) pointScale() []float64 {
-	if len(cv.value) < 3 {
+// the loaded frames — need a higher bar, in proportion, to be marked. A
+// point needs values in three frames to have a noise of its own (1
+// without). nil with fewer than three calibration frames.
+func (nf *NoiseFit) pointScale(ind Indicator) []float64 {
+	pn := nf.points[ind]
+	if nf.frames < 3 || pn == nil {
 		return nil
 	}
-	n := len(cv.value[0])
-	sd := make([]float64, n)
+	sd := make([]float64, len(pn.n))
 	var all []float64
-	vals := make([]float64, 0, len(cv.value))
-	for i := range n {
-		vals = vals[:0]
-		for j := range cv.value {
-			if cv.have[j][i] {
-				vals = append(vals, cv.value[j][i])
-			}
-		}
-		if _, s, ok := calibrationSpread(vals); ok && len(vals) >= 3 {
-			sd[i] = s
-			all = append(all, s)
-		} else {
-			sd[i] = math.NaN()
+	for i, n := range pn.n {
+		sd[i] = math.NaN()
+		if n >= 3 {
+			sd[i] = math.Sqrt(pn.m2[i] / float64(n-1))
+			all = append(all, sd[i])
 		}
 	}
 	if len(all) == 0 {

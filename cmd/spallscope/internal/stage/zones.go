@@ -84,45 +84,52 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 			peak = strainfile.PeakRecord{Stress: f.Stress, Time: f.Time, Frame: names[k]}
 		}
 	}
-	// Calibration: the elastic part of the test.
-	var calib []*strain.Field
-	var calibStress []float64
-	read := map[int]*strain.Field{} // calibration frames, read once for both passes
-	for k, name := range names {
+	// Calibration: the elastic part of the test. Its frames are read
+	// twice, for the baseline and then for the noise about it, rather
+	// than held: a long test has hundreds (5 GB of strain fields for 300
+	// frames of 200,000 points).
+	var calibK []int
+	calibration := make([]bool, len(names))
+	for k := range names {
 		loaded := peak.Stress > 0
 		if (loaded && frames[k].Stress <= st.CalibrateBelow*peak.Stress) || (!loaded && k < st.CalibrateFrames) {
-			sf, err := readStrain(name)
-			if err != nil {
-				return nil, err
-			}
-			read[k] = sf
-			calib, calibStress = append(calib, sf), append(calibStress, frames[k].Stress)
+			calibK = append(calibK, k)
+			calibration[k] = true
 		}
+	}
+	eachCalibration := func(use func(sf *strain.Field, stress float64)) error {
+		read := func(j int) (*strain.Field, error) { return readStrain(names[calibK[j]]) }
+		return runfolder.ReadInOrder(len(calibK), read, func(j int, sf *strain.Field) error {
+			use(sf, frames[calibK[j]].Stress)
+			return nil
+		})
+	}
+	var fit strain.BaselineFit
+	if err := eachCalibration(fit.Add); err != nil {
+		return nil, err
 	}
 	ref, err := runfolder.ReadField(runfolder.FieldPath(dir, names[0]))
 	if err != nil {
 		return nil, err
 	}
-	finder, err := strain.NewFinder(st.Finder, ref, strain.FitBaseline(calib, calibStress))
+	finder, err := strain.NewFinder(st.Finder, ref, fit.Baseline())
 	if err != nil {
 		return nil, err
 	}
-	finder.SetNoise(calib, calibStress)
-	calibration := make([]bool, len(names))
-	for k := range read {
-		calibration[k] = true
+	noise := finder.NoiseFit()
+	if err := eachCalibration(noise.Add); err != nil {
+		return nil, err
 	}
+	finder.SetNoiseFrom(noise)
 	// Pass 1 finds and confirms the zones; pass 2 reads the confirmed
-	// zones' cells in every frame to back-date their onsets.
+	// zones' cells in every frame to back-date their onsets. Each pass
+	// parses the next frames' files on all cores while one frame is used
+	// (runfolder.ReadInOrder), in frame order.
 	frameAt := func(k int) (strain.Frame, error) {
 		name := names[k]
-		sf, ok := read[k]
-		delete(read, k) // read once: calibration frames are many in a long test
-		if !ok {
-			var err error
-			if sf, err = readStrain(name); err != nil {
-				return strain.Frame{}, err
-			}
+		sf, err := readStrain(name)
+		if err != nil {
+			return strain.Frame{}, err
 		}
 		df, err := runfolder.ReadField(runfolder.FieldPath(dir, name))
 		if err != nil {
@@ -130,30 +137,29 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 		}
 		return strain.Frame{Index: k, Name: name, Time: frames[k].Time, Stress: frames[k].Stress, InSpan: frames[k].InSpan, Strain: sf, Disp: df}, nil
 	}
-	for k := range names {
-		fr, err := frameAt(k)
-		if err != nil {
-			return nil, err
-		}
-		if _, err := finder.Add(fr); err != nil {
-			return nil, err
-		}
+	err = runfolder.ReadInOrder(len(names), frameAt, func(_ int, fr strain.Frame) error {
+		_, err := finder.Add(fr)
+		return err
+	})
+	if err != nil {
+		return nil, err
 	}
+	calibFrames := len(calibK)
 	onsets := finder.Onsets(peak.Stress)
 	if len(onsets) > 0 {
 		dating := finder.Dating(onsets)
-		for k := range names {
-			fr, err := frameAt(k)
-			if err != nil {
-				return nil, err
-			}
+		err := runfolder.ReadInOrder(len(names), frameAt, func(_ int, fr strain.Frame) error {
 			dating.Add(fr)
+			return nil
+		})
+		if err != nil {
+			return nil, err
 		}
 		onsets = strain.JoinEvents(dating.Onsets(calibration, peak.Stress), finder.VSG())
 	}
 	rep := &strainfile.OnsetReport{Tool: tool, Peak: peak, Cautions: strainfile.Cautions,
 		Settings: strainfile.ZoneSettings{Indicators: finder.Config().Indicators, Thresholds: finder.Config().Thresholds, Persistence: finder.Config().Persistence,
-			CalibrateBelow: st.CalibrateBelow, CalibFrames: len(calib), K: st.K, UCS: st.UCS, EventJoinPx: finder.VSG()}}
+			CalibrateBelow: st.CalibrateBelow, CalibFrames: calibFrames, K: st.K, UCS: st.UCS, EventJoinPx: finder.VSG()}}
 	openingName := func(i int) string {
 		switch {
 		case i < 0:
