@@ -191,3 +191,12 @@ func splineRowsOutVector(t []float64, w int, z float64, dst []float32, stride in
 	_, _ = dst[3*stride+w-1], t[4*w-1]
 	splineRowsOutAVX2(t, w, z, dst, stride)
 }
+
+// prefetchRowsOf is prefetchRows, its block checked against coef here
+// (the kernel touches nothing, but forms the addresses unchecked).
+func prefetchRowsOf(coef []float32, off, stride, rows, width int) {
+	if rows < 1 || width < 1 || off < 0 || off+(rows-1)*stride+width > len(coef) {
+		return
+	}
+	prefetchRows(coef, off, stride, rows, width)
+}

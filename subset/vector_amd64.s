@@ -2420,3 +2420,30 @@ rowsout_step:
 rowsout_end:
 	VZEROUPPER
 	RET
+
+// func prefetchRows(coef []float32, off int, stride int, rows int, width int)
+// Requires: MMX+
+TEXT ·prefetchRows(SB), NOSPLIT, $0-56
+	MOVQ coef_base+0(FP), AX
+	MOVQ off+24(FP), CX
+	MOVQ stride+32(FP), DX
+	MOVQ rows+40(FP), BX
+	MOVQ width+48(FP), SI
+	LEAQ (AX)(CX*4), AX
+	SHLQ $0x02, DX
+	SHLQ $0x02, SI
+	DECQ SI
+
+prefetch_row:
+	XORQ CX, CX
+
+prefetch_line:
+	PREFETCHT0 (AX)(CX*1)
+	ADDQ       $+64, CX
+	CMPQ       CX, SI
+	JB         prefetch_line
+	PREFETCHT0 (AX)(SI*1)
+	ADDQ       DX, AX
+	DECQ       BX
+	JNZ        prefetch_row
+	RET

@@ -106,3 +106,11 @@ func splineRowsInAVX2(img []float32, stride int, t []float64, w int, gain float6
 //
 //go:noescape
 func splineRowsOutAVX2(t []float64, w int, z float64, dst []float32, stride int)
+
+// prefetchRows asks the processor to bring into its caches the
+// coefficients coef[off + r·stride + i], r < rows, i < width (every
+// cache line they touch). It reads no value and writes none; the
+// caller keeps the block inside coef and rows, width ≥ 1.
+//
+//go:noescape
+func prefetchRows(coef []float32, off int, stride int, rows int, width int)
