@@ -2,10 +2,11 @@ package subset
 
 // Prepared holds what Prepare computed for one subset that does not
 // depend on the pixel values it will read again: its status, mean and
-// norm, the sums of its steepest-descent images and the Cholesky factor
-// of its Hessian. With a fixed reference every frame correlates the same
-// reference subsets, so a run keeps one Prepared per point and each frame
-// after the first skips the moments and the factorization (about three
+// norm, the sums of its steepest-descent images, the Cholesky factor of
+// its Hessian and the displacement entries of its inverse (invUV). With a
+// fixed reference every frame correlates the same reference subsets, so a
+// run keeps one Prepared per point and each frame after the first skips
+// the moments, the factorization and the solves for invUV (about three
 // quarters of Prepare); the values restored are the very numbers computed
 // the first time, so results are unchanged to the last bit.
 //
@@ -17,6 +18,7 @@ type Prepared struct {
 	status       Status
 	n            int
 	fMean, fNorm float64
+	invUV        float64
 	v            []float64 // sumJ, sumJf (np each), the factor's lower triangle
 }
 
@@ -39,7 +41,7 @@ func (s *Solver) store(c *Prepared, status Status) {
 	if status != Converged {
 		return
 	}
-	c.fMean, c.fNorm = s.fMean, s.fNorm
+	c.fMean, c.fNorm, c.invUV = s.fMean, s.fNorm, s.invUV
 	np := s.np
 	v := c.v[:2*np+np*(np+1)/2]
 	copy(v, s.sumJ[:np])
@@ -54,7 +56,7 @@ func (s *Solver) store(c *Prepared, status Status) {
 // values and gradients (before the mean is taken off) are already in fc,
 // gx and gy.
 func (s *Solver) restore(c *Prepared) {
-	s.n, s.fMean, s.fNorm = c.n, c.fMean, c.fNorm
+	s.n, s.fMean, s.fNorm, s.invUV = c.n, c.fMean, c.fNorm, c.invUV
 	for k := range s.fc[:s.n] {
 		s.fc[k] -= s.fMean
 	}
@@ -66,7 +68,6 @@ func (s *Solver) restore(c *Prepared) {
 	for a := 0; a < np; a++ {
 		k += copy(s.chol[12*a:12*a+a+1], v[k:k+a+1])
 	}
-	s.setInvUV()
 }
 
 // PrepareWith is Prepare with the reference side of the subset taken from
