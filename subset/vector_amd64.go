@@ -91,10 +91,29 @@ func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
 	s := sp.stride
 	top := (y0-1+splinePad)*s + x0 - 1 + splinePad
 	// The window's first and last coefficients, checked here once: the
-	// kernel reads the coefficients unchecked.
+	// kernel reads the coefficients unchecked, and a few past the window's
+	// right end (centresReach), which the padding holds but for a window
+	// at the bottom right corner of a narrow image: that one takes the Go
+	// loop, the same values.
 	_, _ = sp.coef[top], sp.coef[top+(side+1)*s+side+1]
+	if top+(side+1)*s+centresReach(side) > len(sp.coef) {
+		sp.cubicCentres(x0, y0, side, v, gx, gy)
+		return
+	}
 	v, gx, gy = v[:side*side], gx[:side*side], gy[:side*side]
 	cubicCentresAVX2(sp.coef, s, top, side, v, gx, gy)
+}
+
+// centresReach returns how many coefficients of each row, from the one
+// left of a window's first pixel, cubicCentresAVX2 reads for a window of
+// the given side: its blocks of four columns, the last one's block after
+// when three pixels end the row (see _asm/centres.go); side + 2 are used.
+func centresReach(side int) int {
+	full := side &^ 3
+	if side-full == 3 {
+		return full + 8
+	}
+	return full + 4
 }
 
 // affineMomentsVector is affineMomentsGo by affineMomentsAVX2, over all

@@ -1525,7 +1525,7 @@ GLOBL centresHalf<>(SB), RODATA|NOPTR, $32
 
 // func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
 // Requires: AVX
-TEXT ·cubicCentresAVX2(SB), NOSPLIT, $0-120
+TEXT ·cubicCentresAVX2(SB), NOSPLIT, $96-120
 	MOVQ coef_base+0(FP), AX
 	MOVQ stride+24(FP), CX
 	MOVQ top+32(FP), DX
@@ -1538,128 +1538,124 @@ TEXT ·cubicCentresAVX2(SB), NOSPLIT, $0-120
 	MOVQ BX, DX
 	ANDQ $-4, DX
 	MOVQ BX, R9
-	CMPQ R9, $+0
-	JE   centres_done
+	SUBQ DX, R9
+	MOVQ BX, R10
 
 centres_row:
-	LEAQ (AX)(CX*1), R10
-	LEAQ (AX)(CX*2), R11
-	XORQ R12, R12
-	CMPQ DX, $+0
-	JE   centres_rest
+	LEAQ      (AX)(CX*1), R11
+	LEAQ      (AX)(CX*2), R12
+	XORQ      R13, R13
+	VCVTPS2PD (AX)(R13*4), Y1
+	VCVTPS2PD (R11)(R13*4), Y2
+	VCVTPS2PD (R12)(R13*4), Y3
+	VADDPD    Y3, Y1, Y0
+	VMULPD    centresSixth<>+0(SB), Y0, Y0
+	VMULPD    centresTwoThirds<>+0(SB), Y2, Y2
+	VADDPD    Y2, Y0, Y0
+	VSUBPD    Y1, Y3, Y1
+	VMULPD    centresHalf<>+0(SB), Y1, Y1
+	VMOVAPD   Y0, Y0
+	VMOVAPD   Y1, Y1
+	CMPQ      DX, $+0
+	JE        centres_tail
 
 centres_block:
-	VCVTPS2PD (AX)(R12*4), Y0
-	VCVTPS2PD (R10)(R12*4), Y1
-	VCVTPS2PD (R11)(R12*4), Y2
-	VADDPD    Y2, Y0, Y3
-	VMULPD    centresSixth<>+0(SB), Y3, Y3
-	VMULPD    centresTwoThirds<>+0(SB), Y1, Y1
-	VADDPD    Y1, Y3, Y3
-	VSUBPD    Y0, Y2, Y0
-	VMULPD    centresHalf<>+0(SB), Y0, Y0
-	VCVTPS2PD 4(AX)(R12*4), Y1
-	VCVTPS2PD 4(R10)(R12*4), Y2
-	VCVTPS2PD 4(R11)(R12*4), Y4
-	VADDPD    Y4, Y1, Y5
-	VMULPD    centresSixth<>+0(SB), Y5, Y5
-	VMULPD    centresTwoThirds<>+0(SB), Y2, Y2
-	VADDPD    Y2, Y5, Y5
-	VSUBPD    Y1, Y4, Y1
-	VMULPD    centresHalf<>+0(SB), Y1, Y1
-	VCVTPS2PD 8(AX)(R12*4), Y2
-	VCVTPS2PD 8(R10)(R12*4), Y4
-	VCVTPS2PD 8(R11)(R12*4), Y6
-	VADDPD    Y6, Y2, Y7
-	VMULPD    centresSixth<>+0(SB), Y7, Y7
+	LEAQ         4(R13), R14
+	VCVTPS2PD    (AX)(R14*4), Y2
+	VCVTPS2PD    (R11)(R14*4), Y3
+	VCVTPS2PD    (R12)(R14*4), Y4
+	VADDPD       Y4, Y2, Y5
+	VMULPD       centresSixth<>+0(SB), Y5, Y5
+	VMULPD       centresTwoThirds<>+0(SB), Y3, Y3
+	VADDPD       Y3, Y5, Y5
+	VSUBPD       Y2, Y4, Y2
+	VMULPD       centresHalf<>+0(SB), Y2, Y2
+	VEXTRACTF128 $0x01, Y0, X6
+	VINSERTF128  $0x01, X5, Y6, Y4
+	VSHUFPD      $0x05, Y4, Y0, Y3
+	VEXTRACTF128 $0x01, Y1, X6
+	VINSERTF128  $0x01, X2, Y6, Y8
+	VSHUFPD      $0x05, Y8, Y1, Y7
+	VADDPD       Y4, Y0, Y9
+	VMULPD       centresSixth<>+0(SB), Y9, Y9
+	VMULPD       centresTwoThirds<>+0(SB), Y3, Y3
+	VADDPD       Y3, Y9, Y9
+	VSUBPD       Y0, Y4, Y0
+	VMULPD       centresHalf<>+0(SB), Y0, Y0
+	VADDPD       Y8, Y1, Y1
+	VMULPD       centresSixth<>+0(SB), Y1, Y1
+	VMULPD       centresTwoThirds<>+0(SB), Y7, Y3
+	VADDPD       Y3, Y1, Y1
+	VMOVUPD      Y9, (SI)(R13*8)
+	VMOVUPD      Y0, (DI)(R13*8)
+	VMOVUPD      Y1, (R8)(R13*8)
+	VMOVAPD      Y5, Y0
+	VMOVAPD      Y2, Y1
+	MOVQ         R14, R13
+	CMPQ         R13, DX
+	JB           centres_block
+
+centres_tail:
+	CMPQ      R9, $+0
+	JE        centres_next
+	VMOVAPD   Y0, Y2
+	VMOVAPD   Y1, Y3
+	CMPQ      R9, $+3
+	JNE       centres_tail_pixels
+	LEAQ      4(R13), R14
+	VCVTPS2PD (AX)(R14*4), Y3
+	VCVTPS2PD (R11)(R14*4), Y4
+	VCVTPS2PD (R12)(R14*4), Y5
+	VADDPD    Y5, Y3, Y2
+	VMULPD    centresSixth<>+0(SB), Y2, Y2
 	VMULPD    centresTwoThirds<>+0(SB), Y4, Y4
-	VADDPD    Y4, Y7, Y7
-	VSUBPD    Y2, Y6, Y2
-	VMULPD    centresHalf<>+0(SB), Y2, Y2
-	VADDPD    Y7, Y3, Y4
-	VMULPD    centresSixth<>+0(SB), Y4, Y4
-	VMULPD    centresTwoThirds<>+0(SB), Y5, Y5
-	VADDPD    Y5, Y4, Y4
-	VMOVUPD   Y4, (SI)(R12*8)
-	VSUBPD    Y3, Y7, Y3
+	VADDPD    Y4, Y2, Y2
+	VSUBPD    Y3, Y5, Y3
 	VMULPD    centresHalf<>+0(SB), Y3, Y3
-	VMOVUPD   Y3, (DI)(R12*8)
-	VADDPD    Y2, Y0, Y0
-	VMULPD    centresSixth<>+0(SB), Y0, Y0
-	VMULPD    centresTwoThirds<>+0(SB), Y1, Y1
-	VADDPD    Y1, Y0, Y0
-	VMOVUPD   Y0, (R8)(R12*8)
-	ADDQ      $+4, R12
-	CMPQ      R12, DX
-	JB        centres_block
+	VMOVAPD   Y2, Y2
+	VMOVAPD   Y3, Y3
 
-centres_rest:
-	CMPQ R12, BX
-	JAE  centres_next
+centres_tail_pixels:
+	VEXTRACTF128 $0x01, Y0, X6
+	VINSERTF128  $0x01, X2, Y6, Y4
+	VSHUFPD      $0x05, Y4, Y0, Y2
+	VEXTRACTF128 $0x01, Y1, X6
+	VINSERTF128  $0x01, X3, Y6, Y5
+	VSHUFPD      $0x05, Y5, Y1, Y3
+	VADDPD       Y4, Y0, Y7
+	VMULPD       centresSixth<>+0(SB), Y7, Y7
+	VMULPD       centresTwoThirds<>+0(SB), Y2, Y2
+	VADDPD       Y2, Y7, Y7
+	VSUBPD       Y0, Y4, Y0
+	VMULPD       centresHalf<>+0(SB), Y0, Y0
+	VADDPD       Y5, Y1, Y1
+	VMULPD       centresSixth<>+0(SB), Y1, Y1
+	VMULPD       centresTwoThirds<>+0(SB), Y3, Y2
+	VADDPD       Y2, Y1, Y1
+	VMOVUPD      Y7, (SP)
+	VMOVUPD      Y0, 32(SP)
+	VMOVUPD      Y1, 64(SP)
+	XORQ         R11, R11
 
-centres_pixel:
-	VXORPD    X0, X0, X0
-	VCVTSS2SD (AX)(R12*4), X0, X0
-	VXORPD    X1, X1, X1
-	VCVTSS2SD (R10)(R12*4), X1, X1
-	VXORPD    X2, X2, X2
-	VCVTSS2SD (R11)(R12*4), X2, X2
-	VADDSD    X2, X0, X3
-	VMULSD    centresSixth<>+0(SB), X3, X3
-	VMULSD    centresTwoThirds<>+0(SB), X1, X1
-	VADDSD    X1, X3, X3
-	VSUBSD    X0, X2, X0
-	VMULSD    centresHalf<>+0(SB), X0, X0
-	VXORPD    X1, X1, X1
-	VCVTSS2SD 4(AX)(R12*4), X1, X1
-	VXORPD    X2, X2, X2
-	VCVTSS2SD 4(R10)(R12*4), X2, X2
-	VXORPD    X4, X4, X4
-	VCVTSS2SD 4(R11)(R12*4), X4, X4
-	VADDSD    X4, X1, X5
-	VMULSD    centresSixth<>+0(SB), X5, X5
-	VMULSD    centresTwoThirds<>+0(SB), X2, X2
-	VADDSD    X2, X5, X5
-	VSUBSD    X1, X4, X1
-	VMULSD    centresHalf<>+0(SB), X1, X1
-	VXORPD    X2, X2, X2
-	VCVTSS2SD 8(AX)(R12*4), X2, X2
-	VXORPD    X4, X4, X4
-	VCVTSS2SD 8(R10)(R12*4), X4, X4
-	VXORPD    X6, X6, X6
-	VCVTSS2SD 8(R11)(R12*4), X6, X6
-	VADDSD    X6, X2, X7
-	VMULSD    centresSixth<>+0(SB), X7, X7
-	VMULSD    centresTwoThirds<>+0(SB), X4, X4
-	VADDSD    X4, X7, X7
-	VSUBSD    X2, X6, X2
-	VMULSD    centresHalf<>+0(SB), X2, X2
-	VADDSD    X7, X3, X4
-	VMULSD    centresSixth<>+0(SB), X4, X4
-	VMULSD    centresTwoThirds<>+0(SB), X5, X5
-	VADDSD    X5, X4, X4
-	VMOVSD    X4, (SI)(R12*8)
-	VSUBSD    X3, X7, X3
-	VMULSD    centresHalf<>+0(SB), X3, X3
-	VMOVSD    X3, (DI)(R12*8)
-	VADDSD    X2, X0, X0
-	VMULSD    centresSixth<>+0(SB), X0, X0
-	VMULSD    centresTwoThirds<>+0(SB), X1, X1
-	VADDSD    X1, X0, X0
-	VMOVSD    X0, (R8)(R12*8)
-	INCQ      R12
-	CMPQ      R12, BX
-	JB        centres_pixel
+centres_copy:
+	MOVQ (SP)(R11*8), R12
+	MOVQ R12, (SI)(R13*8)
+	MOVQ 32(SP)(R11*8), R12
+	MOVQ R12, (DI)(R13*8)
+	MOVQ 64(SP)(R11*8), R12
+	MOVQ R12, (R8)(R13*8)
+	INCQ R13
+	INCQ R11
+	CMPQ R11, R9
+	JB   centres_copy
 
 centres_next:
 	ADDQ CX, AX
 	LEAQ (SI)(BX*8), SI
 	LEAQ (DI)(BX*8), DI
 	LEAQ (R8)(BX*8), R8
-	DECQ R9
+	DECQ R10
 	JNZ  centres_row
-
-centres_done:
 	VZEROUPPER
 	RET
 

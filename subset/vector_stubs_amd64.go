@@ -44,7 +44,10 @@ func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []fl
 // interpolant and its gradient at the pixel centres of a window, top
 // being the offset in coef (rows stride apart) of the coefficient up
 // and left of its first pixel, as cubicCentres does, bit for bit. The
-// window must lie inside the image and v, gx, gy hold side² values.
+// window must lie inside the image, and coef hold centresReach(side)
+// coefficients of each of its side + 2 rows from top (up to three
+// past the window's right end are read, not used); v, gx, gy hold
+// side² values, side ≥ 1.
 //
 //go:noescape
 func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
