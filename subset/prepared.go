@@ -53,13 +53,11 @@ func (s *Solver) store(c *Prepared, status Status) {
 }
 
 // restore sets the solver's prepared state from c, for the subset whose
-// values and gradients (before the mean is taken off) are already in fc,
-// gx and gy.
+// values less their mean, and gradients, are already in fc, gx and gy
+// (load at the level c.fMean: the very numbers Prepare's subtraction
+// gives).
 func (s *Solver) restore(c *Prepared) {
 	s.n, s.fMean, s.fNorm, s.invUV = c.n, c.fMean, c.fNorm, c.invUV
-	for k := range s.fc[:s.n] {
-		s.fc[k] -= s.fMean
-	}
 	np := s.np
 	v := c.v[:2*np+np*(np+1)/2]
 	copy(s.sumJ[:np], v)
@@ -85,7 +83,7 @@ func (s *Solver) PrepareWith(ref *Spline, mask []uint8, x, y int, c *Prepared) S
 	if c.status != Converged {
 		return c.status
 	}
-	s.load(ref, mask, x, y)
+	s.load(ref, mask, x, y, c.fMean)
 	s.restore(c)
 	return Converged
 }

@@ -84,7 +84,7 @@ func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, ou
 
 // cubicCentresVector is cubicCentres by cubicCentresAVX2, equal to it bit
 // for bit (the same operations in the same order, without FMA).
-func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
+func (sp *Spline) cubicCentresVector(x0, y0, side int, level float64, v, gx, gy []float64) {
 	if side < 1 {
 		return
 	}
@@ -97,11 +97,11 @@ func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
 	// loop, the same values.
 	_, _ = sp.coef[top], sp.coef[top+(side+1)*s+side+1]
 	if top+(side+1)*s+centresReach(side) > len(sp.coef) {
-		sp.cubicCentres(x0, y0, side, v, gx, gy)
+		sp.cubicCentres(x0, y0, side, level, v, gx, gy)
 		return
 	}
 	v, gx, gy = v[:side*side], gx[:side*side], gy[:side*side]
-	cubicCentresAVX2(sp.coef, s, top, side, v, gx, gy)
+	cubicCentresAVX2(sp.coef, s, top, side, level, v, gx, gy)
 }
 
 // centresReach returns how many coefficients of each row, from the one

@@ -1523,74 +1523,77 @@ DATA centresHalf<>+16(SB)/8, $0x3fe0000000000000
 DATA centresHalf<>+24(SB)/8, $0x3fe0000000000000
 GLOBL centresHalf<>(SB), RODATA|NOPTR, $32
 
-// func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
-// Requires: AVX
-TEXT ·cubicCentresAVX2(SB), NOSPLIT, $96-120
-	MOVQ coef_base+0(FP), AX
-	MOVQ stride+24(FP), CX
-	MOVQ top+32(FP), DX
-	MOVQ side+40(FP), BX
-	MOVQ v_base+48(FP), SI
-	MOVQ gx_base+72(FP), DI
-	MOVQ gy_base+96(FP), R8
-	LEAQ (AX)(DX*4), AX
-	SHLQ $0x02, CX
-	MOVQ BX, DX
-	ANDQ $-4, DX
-	MOVQ BX, R9
-	SUBQ DX, R9
-	MOVQ BX, R10
+// func cubicCentresAVX2(coef []float32, stride int, top int, side int, level float64, v []float64, gx []float64, gy []float64)
+// Requires: AVX, AVX2, SSE2
+TEXT ·cubicCentresAVX2(SB), NOSPLIT, $96-128
+	MOVQ         coef_base+0(FP), AX
+	MOVQ         stride+24(FP), CX
+	MOVQ         top+32(FP), DX
+	MOVQ         side+40(FP), BX
+	MOVQ         v_base+56(FP), SI
+	MOVQ         gx_base+80(FP), DI
+	MOVQ         gy_base+104(FP), R8
+	MOVSD        level+48(FP), X0
+	VBROADCASTSD X0, Y0
+	LEAQ         (AX)(DX*4), AX
+	SHLQ         $0x02, CX
+	MOVQ         BX, DX
+	ANDQ         $-4, DX
+	MOVQ         BX, R9
+	SUBQ         DX, R9
+	MOVQ         BX, R10
 
 centres_row:
 	LEAQ      (AX)(CX*1), R11
 	LEAQ      (AX)(CX*2), R12
 	XORQ      R13, R13
-	VCVTPS2PD (AX)(R13*4), Y1
-	VCVTPS2PD (R11)(R13*4), Y2
-	VCVTPS2PD (R12)(R13*4), Y3
-	VADDPD    Y3, Y1, Y0
-	VMULPD    centresSixth<>+0(SB), Y0, Y0
-	VMULPD    centresTwoThirds<>+0(SB), Y2, Y2
-	VADDPD    Y2, Y0, Y0
-	VSUBPD    Y1, Y3, Y1
-	VMULPD    centresHalf<>+0(SB), Y1, Y1
-	VMOVAPD   Y0, Y0
+	VCVTPS2PD (AX)(R13*4), Y2
+	VCVTPS2PD (R11)(R13*4), Y3
+	VCVTPS2PD (R12)(R13*4), Y4
+	VADDPD    Y4, Y2, Y1
+	VMULPD    centresSixth<>+0(SB), Y1, Y1
+	VMULPD    centresTwoThirds<>+0(SB), Y3, Y3
+	VADDPD    Y3, Y1, Y1
+	VSUBPD    Y2, Y4, Y2
+	VMULPD    centresHalf<>+0(SB), Y2, Y2
 	VMOVAPD   Y1, Y1
+	VMOVAPD   Y2, Y2
 	CMPQ      DX, $+0
 	JE        centres_tail
 
 centres_block:
 	LEAQ         4(R13), R14
-	VCVTPS2PD    (AX)(R14*4), Y2
-	VCVTPS2PD    (R11)(R14*4), Y3
-	VCVTPS2PD    (R12)(R14*4), Y4
-	VADDPD       Y4, Y2, Y5
-	VMULPD       centresSixth<>+0(SB), Y5, Y5
-	VMULPD       centresTwoThirds<>+0(SB), Y3, Y3
-	VADDPD       Y3, Y5, Y5
-	VSUBPD       Y2, Y4, Y2
-	VMULPD       centresHalf<>+0(SB), Y2, Y2
-	VEXTRACTF128 $0x01, Y0, X6
-	VINSERTF128  $0x01, X5, Y6, Y4
-	VSHUFPD      $0x05, Y4, Y0, Y3
-	VEXTRACTF128 $0x01, Y1, X6
-	VINSERTF128  $0x01, X2, Y6, Y8
-	VSHUFPD      $0x05, Y8, Y1, Y7
-	VADDPD       Y4, Y0, Y9
-	VMULPD       centresSixth<>+0(SB), Y9, Y9
-	VMULPD       centresTwoThirds<>+0(SB), Y3, Y3
-	VADDPD       Y3, Y9, Y9
-	VSUBPD       Y0, Y4, Y0
-	VMULPD       centresHalf<>+0(SB), Y0, Y0
-	VADDPD       Y8, Y1, Y1
-	VMULPD       centresSixth<>+0(SB), Y1, Y1
-	VMULPD       centresTwoThirds<>+0(SB), Y7, Y3
-	VADDPD       Y3, Y1, Y1
-	VMOVUPD      Y9, (SI)(R13*8)
-	VMOVUPD      Y0, (DI)(R13*8)
-	VMOVUPD      Y1, (R8)(R13*8)
-	VMOVAPD      Y5, Y0
-	VMOVAPD      Y2, Y1
+	VCVTPS2PD    (AX)(R14*4), Y3
+	VCVTPS2PD    (R11)(R14*4), Y4
+	VCVTPS2PD    (R12)(R14*4), Y5
+	VADDPD       Y5, Y3, Y6
+	VMULPD       centresSixth<>+0(SB), Y6, Y6
+	VMULPD       centresTwoThirds<>+0(SB), Y4, Y4
+	VADDPD       Y4, Y6, Y6
+	VSUBPD       Y3, Y5, Y3
+	VMULPD       centresHalf<>+0(SB), Y3, Y3
+	VEXTRACTF128 $0x01, Y1, X7
+	VINSERTF128  $0x01, X6, Y7, Y5
+	VSHUFPD      $0x05, Y5, Y1, Y4
+	VEXTRACTF128 $0x01, Y2, X7
+	VINSERTF128  $0x01, X3, Y7, Y9
+	VSHUFPD      $0x05, Y9, Y2, Y8
+	VADDPD       Y5, Y1, Y10
+	VMULPD       centresSixth<>+0(SB), Y10, Y10
+	VMULPD       centresTwoThirds<>+0(SB), Y4, Y4
+	VADDPD       Y4, Y10, Y10
+	VSUBPD       Y0, Y10, Y10
+	VSUBPD       Y1, Y5, Y1
+	VMULPD       centresHalf<>+0(SB), Y1, Y1
+	VADDPD       Y9, Y2, Y2
+	VMULPD       centresSixth<>+0(SB), Y2, Y2
+	VMULPD       centresTwoThirds<>+0(SB), Y8, Y4
+	VADDPD       Y4, Y2, Y2
+	VMOVUPD      Y10, (SI)(R13*8)
+	VMOVUPD      Y1, (DI)(R13*8)
+	VMOVUPD      Y2, (R8)(R13*8)
+	VMOVAPD      Y6, Y1
+	VMOVAPD      Y3, Y2
 	MOVQ         R14, R13
 	CMPQ         R13, DX
 	JB           centres_block
@@ -1598,43 +1601,44 @@ centres_block:
 centres_tail:
 	CMPQ      R9, $+0
 	JE        centres_next
-	VMOVAPD   Y0, Y2
 	VMOVAPD   Y1, Y3
+	VMOVAPD   Y2, Y4
 	CMPQ      R9, $+3
 	JNE       centres_tail_pixels
 	LEAQ      4(R13), R14
-	VCVTPS2PD (AX)(R14*4), Y3
-	VCVTPS2PD (R11)(R14*4), Y4
-	VCVTPS2PD (R12)(R14*4), Y5
-	VADDPD    Y5, Y3, Y2
-	VMULPD    centresSixth<>+0(SB), Y2, Y2
-	VMULPD    centresTwoThirds<>+0(SB), Y4, Y4
-	VADDPD    Y4, Y2, Y2
-	VSUBPD    Y3, Y5, Y3
-	VMULPD    centresHalf<>+0(SB), Y3, Y3
-	VMOVAPD   Y2, Y2
+	VCVTPS2PD (AX)(R14*4), Y4
+	VCVTPS2PD (R11)(R14*4), Y5
+	VCVTPS2PD (R12)(R14*4), Y6
+	VADDPD    Y6, Y4, Y3
+	VMULPD    centresSixth<>+0(SB), Y3, Y3
+	VMULPD    centresTwoThirds<>+0(SB), Y5, Y5
+	VADDPD    Y5, Y3, Y3
+	VSUBPD    Y4, Y6, Y4
+	VMULPD    centresHalf<>+0(SB), Y4, Y4
 	VMOVAPD   Y3, Y3
+	VMOVAPD   Y4, Y4
 
 centres_tail_pixels:
-	VEXTRACTF128 $0x01, Y0, X6
-	VINSERTF128  $0x01, X2, Y6, Y4
-	VSHUFPD      $0x05, Y4, Y0, Y2
-	VEXTRACTF128 $0x01, Y1, X6
-	VINSERTF128  $0x01, X3, Y6, Y5
+	VEXTRACTF128 $0x01, Y1, X7
+	VINSERTF128  $0x01, X3, Y7, Y5
 	VSHUFPD      $0x05, Y5, Y1, Y3
-	VADDPD       Y4, Y0, Y7
-	VMULPD       centresSixth<>+0(SB), Y7, Y7
-	VMULPD       centresTwoThirds<>+0(SB), Y2, Y2
-	VADDPD       Y2, Y7, Y7
-	VSUBPD       Y0, Y4, Y0
-	VMULPD       centresHalf<>+0(SB), Y0, Y0
-	VADDPD       Y5, Y1, Y1
-	VMULPD       centresSixth<>+0(SB), Y1, Y1
-	VMULPD       centresTwoThirds<>+0(SB), Y3, Y2
-	VADDPD       Y2, Y1, Y1
-	VMOVUPD      Y7, (SP)
-	VMOVUPD      Y0, 32(SP)
-	VMOVUPD      Y1, 64(SP)
+	VEXTRACTF128 $0x01, Y2, X7
+	VINSERTF128  $0x01, X4, Y7, Y6
+	VSHUFPD      $0x05, Y6, Y2, Y4
+	VADDPD       Y5, Y1, Y8
+	VMULPD       centresSixth<>+0(SB), Y8, Y8
+	VMULPD       centresTwoThirds<>+0(SB), Y3, Y3
+	VADDPD       Y3, Y8, Y8
+	VSUBPD       Y0, Y8, Y8
+	VSUBPD       Y1, Y5, Y1
+	VMULPD       centresHalf<>+0(SB), Y1, Y1
+	VADDPD       Y6, Y2, Y2
+	VMULPD       centresSixth<>+0(SB), Y2, Y2
+	VMULPD       centresTwoThirds<>+0(SB), Y4, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      Y8, (SP)
+	VMOVUPD      Y1, 32(SP)
+	VMOVUPD      Y2, 64(SP)
 	XORQ         R11, R11
 
 centres_copy:

@@ -37,8 +37,8 @@ func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, ou
 }
 
 // cubicCentresVector is cubicCentres where there is no vector kernel.
-func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
-	sp.cubicCentres(x0, y0, side, v, gx, gy)
+func (sp *Spline) cubicCentresVector(x0, y0, side int, level float64, v, gx, gy []float64) {
+	sp.cubicCentres(x0, y0, side, level, v, gx, gy)
 }
 
 // affineMomentsVector is affineMomentsGo where there is no vector kernel.

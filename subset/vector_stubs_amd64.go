@@ -41,7 +41,8 @@ func cubicLineAVX2(coef []float32, stride int, origin int, x0 float64, y0 float6
 func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, side int, out []float64)
 
 // cubicCentresAVX2 sets v, gx and gy (row-major, side×side) to the cubic
-// interpolant and its gradient at the pixel centres of a window, top
+// interpolant less level and its gradient at the pixel centres of a
+// window (the value rounded, then level taken off), top
 // being the offset in coef (rows stride apart) of the coefficient up
 // and left of its first pixel, as cubicCentres does, bit for bit. The
 // window must lie inside the image, and coef hold centresReach(side)
@@ -50,7 +51,7 @@ func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []fl
 // side² values, side ≥ 1.
 //
 //go:noescape
-func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
+func cubicCentresAVX2(coef []float32, stride int, top int, side int, level float64, v []float64, gx []float64, gy []float64)
 
 // affineMomentsAVX2 sets out to the moments over the len(gx) pixels:
 // for q = gx², gx·gy, gy² in turn Σq, Σq·dx, Σq·dx², Σq·dy, Σq·dx·dy,

@@ -15,7 +15,8 @@ import (
 // cv = (a + c)/6 + 4b/6 and cd = (c − a)/2 from the coefficients a, b, c
 // of the rows above, at and below, and the pixel's value and gradient are
 // v = (cv₋ + cv₊)/6 + 4cv/6, gx = (cv₊ − cv₋)/2, gy = (cd₋ + cd₊)/6 + 4cd/6
-// over the columns left, at and right. The operations are cubicCentres'
+// over the columns left, at and right, the value then less a level (the
+// subset's mean, when known). The operations are cubicCentres'
 // own, in its order and without FMA, so the results equal it bit for bit.
 // As cubicCentres carries a column's sums over to the next pixel, the
 // kernel forms the sums of four columns once and carries them to the next
@@ -62,11 +63,12 @@ func centresColumns(k centresConsts, a, b, c Mem, i Register) (cv, cd VecVirtual
 	return cv, cd
 }
 
-// centresPixels returns the values and the gradients of four pixels from
+// centresPixels returns the values (less level) and the gradients of four
+// pixels from
 // the column sums of their columns (p, lanes 0 … 3) and of the four
 // columns after (n): the stencils over the columns left, at and right,
 // that is p and p shifted by one and two lanes.
-func centresPixels(k centresConsts, pv, pd, nv, nd VecVirtual) (v, gx, gy VecVirtual) {
+func centresPixels(k centresConsts, level, pv, pd, nv, nd VecVirtual) (v, gx, gy VecVirtual) {
 	// x2 = [p2 p3 n0 n1], x1 = [p1 p2 p3 n0].
 	shift := func(p, n VecVirtual) (x1, x2 VecVirtual) {
 		// p's upper half under n's lower (VPERM2F128 takes 8 µops on
@@ -89,6 +91,7 @@ func centresPixels(k centresConsts, pv, pd, nv, nd VecVirtual) (v, gx, gy VecVir
 	v1, v2 := shift(pv, nv)
 	d1, d2 := shift(pd, nd)
 	v = stencil(pv, v1, v2)
+	VSUBPD(level, v, v)
 	gx = YMM()
 	VSUBPD(pv, v2, gx)
 	VMULPD(k.half, gx, gx)
@@ -99,10 +102,11 @@ func centresPixels(k centresConsts, pv, pd, nv, nd VecVirtual) (v, gx, gy VecVir
 // cubicCentresKernel generates cubicCentresAVX2.
 func cubicCentresKernel() {
 	k := centresData()
-	TEXT("cubicCentresAVX2", NOSPLIT, "func(coef []float32, stride, top, side int, v, gx, gy []float64)")
+	TEXT("cubicCentresAVX2", NOSPLIT, "func(coef []float32, stride, top, side int, level float64, v, gx, gy []float64)")
 	Pragma("noescape")
 	Doc("cubicCentresAVX2 sets v, gx and gy (row-major, side×side) to the cubic",
-		"interpolant and its gradient at the pixel centres of a window, top",
+		"interpolant less level and its gradient at the pixel centres of a",
+		"window (the value rounded, then level taken off), top",
 		"being the offset in coef (rows stride apart) of the coefficient up",
 		"and left of its first pixel, as cubicCentres does, bit for bit. The",
 		"window must lie inside the image, and coef hold centresReach(side)",
@@ -116,6 +120,9 @@ func cubicCentresKernel() {
 	vp := Load(Param("v").Base(), GP64())
 	xp := Load(Param("gx").Base(), GP64())
 	yp := Load(Param("gy").Base(), GP64())
+	lv := Load(Param("level"), XMM())
+	level := YMM()
+	VBROADCASTSD(lv, level)
 	a := GP64()
 	LEAQ(Mem{Base: coef, Index: top, Scale: 4}, a)
 	SHLQ(U8(2), stride) // in bytes
@@ -143,7 +150,7 @@ func cubicCentresKernel() {
 	Label("centres_block")
 	LEAQ(Mem{Base: i, Disp: 4}, n)
 	nv, nd := centresColumns(k, rowA, rowB, rowC, n)
-	v, gx, gy := centresPixels(k, pv, pd, nv, nd)
+	v, gx, gy := centresPixels(k, level, pv, pd, nv, nd)
 	VMOVUPD(v, Mem{Base: vp, Index: i, Scale: 8})
 	VMOVUPD(gx, Mem{Base: xp, Index: i, Scale: 8})
 	VMOVUPD(gy, Mem{Base: yp, Index: i, Scale: 8})
@@ -171,7 +178,7 @@ func cubicCentresKernel() {
 	VMOVAPD(nv, tv)
 	VMOVAPD(nd, td)
 	Label("centres_tail_pixels")
-	v, gx, gy = centresPixels(k, pv, pd, tv, td)
+	v, gx, gy = centresPixels(k, level, pv, pd, tv, td)
 	VMOVUPD(v, last)
 	VMOVUPD(gx, last.Offset(32))
 	VMOVUPD(gy, last.Offset(64))
