@@ -74,12 +74,12 @@ func (sp *Spline) cubicLineVector(x0, y0, ax, ay float64, i0 int, out []float64)
 	cubicLineAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, x0, y0, ax, ay, i0, out)
 }
 
-// cubicGridVector is cubicLineVector over each of the rows of a full
-// square subset (row r from (ox[r], oy[r]), side pixels each) in one call,
-// with the same values bit for bit; out holds len(ox)·side values.
-func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, out []float64) {
+// cubicGridVector is cubicLineVector from i0 over each of the rows of a
+// full square subset (row r from (ox[r], oy[r]), side pixels each) in one
+// call, with the same values bit for bit; out holds len(ox)·side values.
+func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, i0, side int, out []float64) {
 	oy, out = oy[:len(ox)], out[:len(ox)*side]
-	cubicGridAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, ox, oy, ax, ay, side, out)
+	cubicGridAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, ox, oy, ax, ay, i0, side, out)
 }
 
 // cubicCentresVector is cubicCentres by cubicCentresAVX2, equal to it bit

@@ -1021,9 +1021,9 @@ line_done:
 	VZEROUPPER
 	RET
 
-// func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, side int, out []float64)
+// func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, i0 int, side int, out []float64)
 // Requires: AVX, AVX2, FMA3, SSE2
-TEXT ·cubicGridAVX2(SB), NOSPLIT, $472-136
+TEXT ·cubicGridAVX2(SB), NOSPLIT, $504-144
 	MOVQ         coef_base+0(FP), AX
 	MOVQ         stride+24(FP), CX
 	MOVQ         origin+32(FP), DX
@@ -1041,12 +1041,18 @@ TEXT ·cubicGridAVX2(SB), NOSPLIT, $472-136
 	MOVSD        ay+96(FP), X0
 	VBROADCASTSD X0, Y0
 	VMOVUPD      Y0, 272(SP)
+	MOVQ         i0+104(FP), BX
+	VXORPD       X0, X0, X0
+	VCVTSI2SDQ   BX, X0, X0
+	VBROADCASTSD X0, Y0
+	VADDPD       cubicLane<>+0(SB), Y0, Y0
+	VMOVUPD      Y0, 336(SP)
 	MOVQ         ox_base+40(FP), BX
 	MOVQ         oy_base+64(FP), SI
-	MOVQ         out_base+112(FP), DI
-	MOVQ         side+104(FP), R8
+	MOVQ         out_base+120(FP), DI
+	MOVQ         side+112(FP), R8
 	ANDQ         $-4, R8
-	MOVQ         R8, 464(SP)
+	MOVQ         R8, 496(SP)
 	XORQ         R8, R8
 	XORQ         R9, R9
 	CMPQ         ox_len+48(FP), $+0
@@ -1057,10 +1063,10 @@ grid_row:
 	VMOVUPD      Y0, 176(SP)
 	VBROADCASTSD (SI)(R9*8), Y0
 	VMOVUPD      Y0, 208(SP)
-	VMOVUPD      cubicLane<>+0(SB), Y0
+	VMOVUPD      336(SP), Y0
 	VMOVUPD      Y0, 304(SP)
 	XORQ         R10, R10
-	CMPQ         464(SP), $+0
+	CMPQ         496(SP), $+0
 	JE           grid_rest
 
 grid_block:
@@ -1192,29 +1198,31 @@ grid_block:
 	VADDPD       Y1, Y3, Y3
 	VMOVUPD      Y3, (DI)(R10*8)
 	ADDQ         $+4, R10
-	CMPQ         R10, 464(SP)
+	CMPQ         R10, 496(SP)
 	JB           grid_block
 
 grid_rest:
-	CMPQ R10, side+104(FP)
+	CMPQ R10, side+112(FP)
 	JAE  grid_next
 
 grid_pixel:
+	MOVQ         i0+104(FP), R11
+	ADDQ         R10, R11
 	VXORPD       X0, X0, X0
-	VCVTSI2SDQ   R10, X0, X0
+	VCVTSI2SDQ   R11, X0, X0
 	VMULSD       240(SP), X0, X1
 	VADDSD       176(SP), X1, X1
-	VMOVSD       X1, 336(SP)(R8*8)
+	VMOVSD       X1, 368(SP)(R8*8)
 	VMULSD       272(SP), X0, X0
 	VADDSD       208(SP), X0, X0
-	VMOVSD       X0, 368(SP)(R8*8)
+	VMOVSD       X0, 400(SP)(R8*8)
 	LEAQ         (DI)(R10*8), R11
-	MOVQ         R11, 400(SP)(R8*8)
+	MOVQ         R11, 432(SP)(R8*8)
 	INCQ         R8
 	CMPQ         R8, $+4
 	JB           grid_nextpixel
-	VMOVUPD      336(SP), Y0
-	VMOVUPD      368(SP), Y1
+	VMOVUPD      368(SP), Y0
+	VMOVUPD      400(SP), Y1
 	VCVTTPD2DQY  Y0, X2
 	VCVTTPD2DQY  Y1, X3
 	VCVTDQ2PD    X2, Y4
@@ -1334,12 +1342,12 @@ grid_pixel:
 	VMULPD       Y5, Y1, Y1
 	VFMADD231PD  Y2, Y0, Y1
 	VADDPD       Y1, Y3, Y3
-	VMOVUPD      Y3, 432(SP)
+	VMOVUPD      Y3, 464(SP)
 	XORQ         R8, R8
 
 grid_flush:
-	MOVQ 432(SP)(R8*8), R11
-	MOVQ 400(SP)(R8*8), R12
+	MOVQ 464(SP)(R8*8), R11
+	MOVQ 432(SP)(R8*8), R12
 	MOVQ R11, (R12)
 	INCQ R8
 	CMPQ R8, $+4
@@ -1348,11 +1356,11 @@ grid_flush:
 
 grid_nextpixel:
 	INCQ R10
-	CMPQ R10, side+104(FP)
+	CMPQ R10, side+112(FP)
 	JB   grid_pixel
 
 grid_next:
-	MOVQ side+104(FP), R11
+	MOVQ side+112(FP), R11
 	LEAQ (DI)(R11*8), DI
 	INCQ R9
 	CMPQ R9, ox_len+48(FP)
@@ -1364,13 +1372,13 @@ grid_final:
 	MOVQ R8, BX
 
 grid_zero:
-	MOVQ         $0x00000000, 336(SP)(BX*8)
 	MOVQ         $0x00000000, 368(SP)(BX*8)
+	MOVQ         $0x00000000, 400(SP)(BX*8)
 	INCQ         BX
 	CMPQ         BX, $+4
 	JB           grid_zero
-	VMOVUPD      336(SP), Y0
-	VMOVUPD      368(SP), Y1
+	VMOVUPD      368(SP), Y0
+	VMOVUPD      400(SP), Y1
 	VCVTTPD2DQY  Y0, X2
 	VCVTTPD2DQY  Y1, X3
 	VCVTDQ2PD    X2, Y4
@@ -1490,12 +1498,12 @@ grid_zero:
 	VMULPD       Y5, Y1, Y1
 	VFMADD231PD  Y2, Y0, Y1
 	VADDPD       Y1, Y3, Y3
-	VMOVUPD      Y3, 432(SP)
+	VMOVUPD      Y3, 464(SP)
 	XORQ         AX, AX
 
 grid_lastflush:
-	MOVQ 432(SP)(AX*8), CX
-	MOVQ 400(SP)(AX*8), DX
+	MOVQ 464(SP)(AX*8), CX
+	MOVQ 432(SP)(AX*8), DX
 	MOVQ CX, (DX)
 	INCQ AX
 	CMPQ AX, R8

@@ -30,9 +30,9 @@ func (sp *Spline) cubicLineVector(x0, y0, ax, ay float64, i0 int, out []float64)
 
 // cubicGridVector is cubicLineGo over each row where there is no vector
 // kernel.
-func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, out []float64) {
+func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, i0, side int, out []float64) {
 	for r := range ox {
-		sp.cubicLineGo(ox[r], oy[r], ax, ay, 0, out[r*side:(r+1)*side])
+		sp.cubicLineGo(ox[r], oy[r], ax, ay, i0, out[r*side:(r+1)*side])
 	}
 }
 

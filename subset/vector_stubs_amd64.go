@@ -33,12 +33,12 @@ func cubicValuesAVX2(coef []float32, stride int, origin int, xs []float64, ys []
 func cubicLineAVX2(coef []float32, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)
 
 // cubicGridAVX2 sets out[r·side + k] to the cubic interpolant of coef
-// (see cubicValuesAVX2) at (ox[r] + t·ax, oy[r] + t·ay), t = k, for
-// every row r < len(ox) and k < side: cubicLineAVX2 over each row, bit
-// for bit. out holds len(ox)·side values.
+// (see cubicValuesAVX2) at (ox[r] + t·ax, oy[r] + t·ay), t = i0 + k,
+// for every row r < len(ox) and k < side: cubicLineAVX2 over each row
+// from i0, bit for bit. out holds len(ox)·side values.
 //
 //go:noescape
-func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, side int, out []float64)
+func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, i0 int, side int, out []float64)
 
 // cubicCentresAVX2 sets v, gx and gy (row-major, side×side) to the cubic
 // interpolant less level and its gradient at the pixel centres of a

@@ -319,20 +319,20 @@ func BenchmarkCubicValues(b *testing.B) {
 	for j := range side {
 		ox[j], oy[j] = xs[j*side], ys[j*side]
 	}
-	goGrid := func(ox, oy []float64, ax, ay float64, side int, out []float64) {
+	goGrid := func(ox, oy []float64, ax, ay float64, i0, side int, out []float64) {
 		for r := range ox {
-			sp.cubicLineGo(ox[r], oy[r], ax, ay, 0, out[r*side:(r+1)*side])
+			sp.cubicLineGo(ox[r], oy[r], ax, ay, i0, out[r*side:(r+1)*side])
 		}
 	}
 	for _, path := range []struct {
 		name   string
 		values func(xs, ys, out []float64)
 		line   func(x0, y0, ax, ay float64, i0 int, out []float64)
-		grid   func(ox, oy []float64, ax, ay float64, side int, out []float64)
+		grid   func(ox, oy []float64, ax, ay float64, i0, side int, out []float64)
 	}{{"go", sp.cubicValuesGo, sp.cubicLineGo, goGrid}, {"vector", sp.cubicValuesVector, sp.cubicLineVector, sp.cubicGridVector}} {
 		b.Run("grid/"+path.name, func(b *testing.B) {
 			for b.Loop() {
-				path.grid(ox, oy, ax, ay, side, out)
+				path.grid(ox, oy, ax, ay, 0, side, out)
 			}
 		})
 		b.Run("values/"+path.name, func(b *testing.B) {
@@ -353,31 +353,34 @@ func BenchmarkCubicValues(b *testing.B) {
 // TestCubicGridEqualsLines checks that the whole-subset kernel gives the
 // values of the row kernel over each row bit for bit, for sides 1 … 9 and
 // 21 (every row length mod 4, so that the positions left over at the rows'
-// ends gather into blocks in every pattern) and, on the Go path, the
+// ends gather into blocks in every pattern), each row from its first
+// pixel and from a later one (a row piece's), and, on the Go path, the
 // values of cubicLineGo.
 func TestCubicGridEqualsLines(t *testing.T) {
 	rng := rand.New(rand.NewPCG(65, 65))
 	sp := NewSpline(randomImage(rng, 60, 50), Bicubic)
 	const ax, ay = 0.987, -0.013
 	for _, side := range []int{1, 2, 3, 4, 5, 6, 7, 8, 9, 21} {
-		ox, oy := make([]float64, side), make([]float64, side)
-		for r := range ox {
-			ox[r], oy[r] = 5.3+0.011*float64(r), 7.9+1.004*float64(r)
-		}
-		want := make([]float64, side*side)
-		for r := range ox {
-			sp.cubicLineVector(ox[r], oy[r], ax, ay, 0, want[r*side:(r+1)*side])
-		}
-		got := make([]float64, side*side+1)
-		got[side*side] = 12345
-		sp.cubicGridVector(ox, oy, ax, ay, side, got[:side*side])
-		for k := range want {
-			if got[k] != want[k] {
-				t.Errorf("side %d: value %d %.17g, row kernel %.17g", side, k, got[k], want[k])
+		for _, i0 := range []int{0, 3, 11} {
+			ox, oy := make([]float64, side), make([]float64, side)
+			for r := range ox {
+				ox[r], oy[r] = 5.3+0.011*float64(r), 7.9+1.004*float64(r)
 			}
-		}
-		if got[side*side] != 12345 {
-			t.Errorf("side %d: the value past the end was overwritten with %g", side, got[side*side])
+			want := make([]float64, side*side)
+			for r := range ox {
+				sp.cubicLineVector(ox[r], oy[r], ax, ay, i0, want[r*side:(r+1)*side])
+			}
+			got := make([]float64, side*side+1)
+			got[side*side] = 12345
+			sp.cubicGridVector(ox, oy, ax, ay, i0, side, got[:side*side])
+			for k := range want {
+				if got[k] != want[k] {
+					t.Errorf("side %d from %d: value %d %.17g, row kernel %.17g", side, i0, k, got[k], want[k])
+				}
+			}
+			if got[side*side] != 12345 {
+				t.Errorf("side %d from %d: the value past the end was overwritten with %g", side, i0, got[side*side])
+			}
 		}
 	}
 }
