@@ -39,7 +39,9 @@ func (s *Solver) Prefetch(ref, def *Spline, x, y int, guess Params) {
 // warpedBox returns the pixel box, clipped to a w×h image, that holds the
 // square subset of radius r centred on (x, y) under the affine part of p:
 // the bounding box of its corners, widened to whole pixels. ok is false
-// when p is not finite or the box misses the image.
+// when p is not finite, the box misses the image, or the warped subset
+// spans more than maxWarpedSpan times its side (a guess that will not
+// converge: asking for its window would only cost time).
 func warpedBox(x, y, r int, p *Params, w, h int) (x0, y0, x1, y1 int, ok bool) {
 	if !p.IsFinite() {
 		return 0, 0, 0, 0, false
@@ -58,9 +60,16 @@ func warpedBox(x, y, r int, p *Params, w, h int) (x0, y0, x1, y1 int, ok bool) {
 	if !(xmax >= 0 && ymax >= 0 && xmin <= fw && ymin <= fh) {
 		return 0, 0, 0, 0, false
 	}
+	if span := maxWarpedSpan * float64(2*r+1); xmax-xmin > span || ymax-ymin > span {
+		return 0, 0, 0, 0, false
+	}
 	// Clipped first, so that the conversions stay in range.
 	return int(math.Max(xmin, 0)), int(math.Max(ymin, 0)), int(math.Ceil(math.Min(xmax, fw))), int(math.Ceil(math.Min(ymax, fh))), true
 }
+
+// maxWarpedSpan bounds the extent of a warped subset, in subset sides,
+// whose window Prefetch asks for.
+const maxWarpedSpan = 4
 
 // prefetchBox asks for the coefficients that interpolating anywhere in
 // the pixel box [x0, x1] × [y0, y1] reads (see prefetchBlock).

@@ -89,6 +89,11 @@ func TestWarpedBoxHoldsSubset(t *testing.T) {
 	if _, _, _, _, ok := warpedBox(5, 5, r, &far, w, h); ok {
 		t.Errorf("a box for a subset far right of the image")
 	}
+	// A gradient of 5 stretches the 21 px subset over 126 px, 6 sides.
+	wild := Params{PUx: 5}
+	if _, _, _, _, ok := warpedBox(100, 75, r, &wild, w, h); ok {
+		t.Errorf("a box for a subset stretched over 6 of its sides")
+	}
 }
 
 // A prefetch is a hint: solving subsets after prefetching them (and
