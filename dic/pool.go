@@ -35,6 +35,15 @@ func (j job) solveWith(s *subset.Solver, ref, def *subset.Spline, mask []uint8, 
 	return s.SolveShared(ref, def, j.maskFor(mask), j.X, j.Y, j.Guess, preparedAt(prepared, j.I), j.Prior, j.Keep)
 }
 
+// prefetch asks for the coefficients the job's solve will read first
+// (see subset.Solver.Prefetch): issued a job ahead, so that their misses
+// overlap the solve in hand. The reference side is asked for only when
+// the job will read it, which it does every frame (the values and
+// gradients at its pixels; see subset.Prepared).
+func (j job) prefetch(s *subset.Solver, ref, def *subset.Spline) {
+	s.Prefetch(ref, def, j.X, j.Y, j.Guess)
+}
+
 // maskFor returns the mask a job's solve needs: none for a full subset.
 func (j job) maskFor(mask []uint8) []uint8 {
 	if j.Full {
@@ -71,8 +80,13 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 		return
 	}
 	if len(jobs) < 8 || len(p.solvers) == 1 {
-		for _, j := range jobs {
-			out[j.I] = j.solveWith(p.solvers[0], ref, def, mask, prepared)
+		s := p.solvers[0]
+		jobs[0].prefetch(s, ref, def)
+		for k, j := range jobs {
+			if k+1 < len(jobs) {
+				jobs[k+1].prefetch(s, ref, def)
+			}
+			out[j.I] = j.solveWith(s, ref, def, mask, prepared)
 		}
 		return
 	}
@@ -82,13 +96,20 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 		wg.Add(1)
 		go func(s *subset.Solver) {
 			defer wg.Done()
-			for {
-				k := int(next.Add(1) - 1)
-				if k >= len(jobs) {
-					return
+			// Each worker claims its next job before solving the one in
+			// hand, and asks for that job's coefficients meanwhile.
+			k := int(next.Add(1) - 1)
+			if k < len(jobs) {
+				jobs[k].prefetch(s, ref, def)
+			}
+			for k < len(jobs) {
+				n := int(next.Add(1) - 1)
+				if n < len(jobs) {
+					jobs[n].prefetch(s, ref, def)
 				}
 				j := jobs[k]
 				out[j.I] = j.solveWith(s, ref, def, mask, prepared)
+				k = n
 			}
 		}(s)
 	}

@@ -23,18 +23,21 @@ var quinticCentreTaps = struct{ w, d []float64 }{
 func centreScratch(side int) int { return side + 4 }
 
 // centres sets v, gx and gy (row-major, side×side) to the interpolated
-// value and gradient at the pixel centres (x0+i, y0+j), 0 ≤ i, j < side,
-// which must lie inside the image. At a pixel centre the tensor-product
-// kernel reduces to a fixed separable stencil: the coefficients are first
-// combined along y (kernel and derivative), then along x. colV and colD
-// are scratch of at least centreScratch(side) values.
-func (sp *Spline) centres(x0, y0, side int, v, gx, gy, colV, colD []float64) {
+// value less level, and the gradient, at the pixel centres (x0+i, y0+j),
+// 0 ≤ i, j < side, which must lie inside the image: the value rounded,
+// then level taken off and rounded again, as a caller subtracting it
+// after would have it (with level 0 the value itself). At a pixel centre
+// the tensor-product kernel reduces to a fixed separable stencil: the
+// coefficients are first combined along y (kernel and derivative), then
+// along x. colV and colD are scratch of at least centreScratch(side)
+// values.
+func (sp *Spline) centres(x0, y0, side int, level float64, v, gx, gy, colV, colD []float64) {
 	if sp.kind == Bicubic && useVector {
-		sp.cubicCentresVector(x0, y0, side, v, gx, gy)
+		sp.cubicCentresVector(x0, y0, side, level, v, gx, gy)
 		return
 	}
 	if sp.kind == Bicubic {
-		sp.cubicCentres(x0, y0, side, v, gx, gy)
+		sp.cubicCentres(x0, y0, side, level, v, gx, gy)
 		return
 	}
 	w, d := quinticCentreTaps.w, quinticCentreTaps.d
@@ -64,14 +67,14 @@ func (sp *Spline) centres(x0, y0, side int, v, gx, gy, colV, colD []float64) {
 				vx += d[t] * cv[t]
 				vy += wt * cd[t]
 			}
-			v[row+i], gx[row+i], gy[row+i] = vv, vx, vy
+			v[row+i], gx[row+i], gy[row+i] = vv-level, vx, vy
 		}
 	}
 }
 
 // cubicCentres is centres for the cubic kernel, with the 3-tap stencils
 // written out and the column sums kept in registers as the row is swept.
-func (sp *Spline) cubicCentres(x0, y0, side int, v, gx, gy []float64) {
+func (sp *Spline) cubicCentres(x0, y0, side int, level float64, v, gx, gy []float64) {
 	const sixth, twoThirds = 1.0 / 6, 4.0 / 6
 	s := sp.stride
 	for j := 0; j < side; j++ {
@@ -92,7 +95,7 @@ func (sp *Spline) cubicCentres(x0, y0, side int, v, gx, gy []float64) {
 		cv1, cd1 := col(1)
 		for i := range vr {
 			cv2, cd2 := col(i + 2)
-			vr[i] = sixth*(cv0+cv2) + twoThirds*cv1
+			vr[i] = float64(sixth*(cv0+cv2)+twoThirds*cv1) - level
 			xr[i] = 0.5 * (cv2 - cv0)
 			yr[i] = sixth*(cd0+cd2) + twoThirds*cd1
 			cv0, cv1, cd0, cd1 = cv1, cv2, cd1, cd2

@@ -20,7 +20,7 @@ func TestCentres(t *testing.T) {
 			x0, y0, side := win[0], win[1], win[2]
 			v, gx, gy := make([]float64, side*side), make([]float64, side*side), make([]float64, side*side)
 			colV, colD := make([]float64, centreScratch(side)), make([]float64, centreScratch(side))
-			sp.centres(x0, y0, side, v, gx, gy, colV, colD)
+			sp.centres(x0, y0, side, 0, v, gx, gy, colV, colD)
 			var worst float64
 			for j := range side {
 				for i := range side {

@@ -591,7 +591,7 @@ func TestSplineFloat32Coefficients(t *testing.T) {
 			colV, colD := make([]float64, centreScratch(side)), make([]float64, centreScratch(side))
 			for y0 := 4; y0+side <= n-4; y0 += side {
 				for x0 := 4; x0+side <= n-4; x0 += side {
-					sp.centres(x0, y0, side, cv, cgx, cgy, colV, colD)
+					sp.centres(x0, y0, side, 0, cv, cgx, cgy, colV, colD)
 					for k := range cv {
 						rv, rgx, rgy := ref.valueGrad(float64(x0+k%side), float64(y0+k/side))
 						dv.add(cv[k] - rv)

@@ -238,7 +238,7 @@ func (s *Solver) prepare(ref *Spline, mask []uint8, x, y int) Status {
 	if x-r < 0 || y-r < 0 || x+r > ref.width-1 || y+r > ref.height-1 {
 		return OutOfImage
 	}
-	n := s.load(ref, mask, x, y)
+	n := s.load(ref, mask, x, y, 0)
 	side := 2*r + 1
 	sum := sum4(s.fc[:n])
 	if float64(n) < s.cfg.MinValidFraction*float64(side*side) || n <= s.np {
@@ -335,23 +335,24 @@ func centreSquares(v []float64, mean float64) float64 {
 	return (a + b) + (c + d)
 }
 
-// load sets the subset's centre, its valid pixels' values and gradients
-// at the pixel centres (fc, gx, gy; the mean not yet taken off), offsets
-// and runs, and returns their number: straight into the subset arrays for
-// a full square, else for the window and then gathered over the valid
-// pixels. The subset must lie inside the image.
-func (s *Solver) load(ref *Spline, mask []uint8, x, y int) int {
+// load sets the subset's centre, its valid pixels' values less level
+// and gradients at the pixel centres (fc, gx, gy; level is the mean when
+// it is known, else 0 and the mean is taken off after), offsets and runs,
+// and returns their number: straight into the subset arrays for a full
+// square, else for the window and then gathered over the valid pixels.
+// The subset must lie inside the image.
+func (s *Solver) load(ref *Spline, mask []uint8, x, y int, level float64) int {
 	r := s.cfg.Radius
 	s.cx, s.cy = float64(x), float64(y)
 	side := 2*r + 1
 	if mask == nil {
-		ref.centres(x-r, y-r, side, s.fc, s.gx, s.gy, s.colV, s.colD)
+		ref.centres(x-r, y-r, side, level, s.fc, s.gx, s.gy, s.colV, s.colD)
 		if !s.square {
 			s.setSquare()
 		}
 		return side * side
 	}
-	ref.centres(x-r, y-r, side, s.winV, s.winX, s.winY, s.colV, s.colD)
+	ref.centres(x-r, y-r, side, level, s.winV, s.winX, s.winY, s.colV, s.colD)
 	return s.gather(mask[(y-r)*ref.width+x-r:], ref.width)
 }
 

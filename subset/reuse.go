@@ -99,15 +99,13 @@ func (s *Solver) solveShared(ref, def *Spline, mask []uint8, x, y int, guess Par
 // rather than a call of lineValues per row piece: the rows that share
 // nothing (a block above or below the shared ones) one call of the rows
 // kernel (sampleRows); the pieces left of the shared spans (the prior to
-// the right), which start their rows, another, a pieces' width a row; the
-// pieces right of them (the prior to the left), when short, one call of
-// the kernel at listed positions (values), their positions gathered into
-// xs and ys (free in the Affine order, which forms its positions on the
-// fly) as lineValues forms them, and when long lineValues each. The
-// values go through ls into gs beside the shared ones. The kernels'
-// values do not depend on the call, block or lane a position falls in
-// (see vector_amd64.go), so gs is, bit for bit, what lineValues row
-// piece by row piece would give.
+// the right), which start their rows, another, a piece's width a row;
+// and the pieces right of them (the prior to the left) another, from the
+// piece's first pixel on (the kernel forms a row's positions from any
+// first pixel as lineValues does). The values go through ls into gs
+// beside the shared ones. The kernels' values do not depend on the call,
+// block or lane a position falls in (see vector_amd64.go), so gs is, bit
+// for bit, what lineValues row piece by row piece would give.
 func (s *Solver) sampleShared(def *Spline) {
 	r := s.cfg.Radius
 	side := 2*r + 1
@@ -132,9 +130,9 @@ func (s *Solver) sampleShared(def *Spline) {
 	rows := j1 - j0 + 1
 	if b == side {
 		// Only the pieces left of the shared span, each of a pixels from
-		// the row's start: the rows kernel over a pixels a row.
+		// the row's start.
 		ls := s.ls[:rows*a]
-		s.sampleRowsInto(def, j0+r, j1+r+1, a, ls)
+		s.sampleRowsInto(def, j0+r, j1+r+1, 0, a, ls)
 		for j := j0; j <= j1; j++ {
 			row := s.gs[(j+r)*side : (j+r+1)*side]
 			pk := (j-dy+r)*side + a - dx
@@ -144,35 +142,10 @@ func (s *Solver) sampleShared(def *Spline) {
 		return
 	}
 	// Only the pieces right of the shared span (the span starts each
-	// row), which lineValues forms from pixel b on. Short pieces leave
-	// most of their last block of four idle, so their positions are
-	// gathered as lineValues forms them, for one call of the kernel at
-	// listed positions; from pieceGather pixels on, the gathering costs
-	// more than it saves (instructions counted with callgrind on
-	// BenchmarkSampleShared: 5-pixel pieces 11 % fewer gathered, 10-pixel
-	// pieces 8 % more), and each piece takes lineValues.
+	// row), each of side − b pixels from pixel b.
 	w := side - b
-	if w >= pieceGather {
-		for j := j0; j <= j1; j++ {
-			row := s.gs[(j+r)*side : (j+r+1)*side]
-			pk := (j-dy+r)*side - dx
-			copy(row[:b], s.prior.G[pk:pk+b])
-			def.lineValues(s.ox[j+r], s.oy[j+r], s.ax, s.ay, b, row[b:])
-		}
-		return
-	}
-	xs, ys, ax, ay := s.xs, s.ys, s.ax, s.ay
-	m := 0
-	for j := j0; j <= j1; j++ {
-		ox, oy := s.ox[j+r], s.oy[j+r]
-		for i := b; i < side; i++ {
-			t := float64(i)
-			xs[m], ys[m] = ox+float64(t*ax), oy+float64(t*ay)
-			m++
-		}
-	}
-	ls := s.ls[:m]
-	def.values(xs[:m], ys[:m], ls)
+	ls := s.ls[:rows*w]
+	s.sampleRowsInto(def, j0+r, j1+r+1, b, w, ls)
 	for j := j0; j <= j1; j++ {
 		row := s.gs[(j+r)*side : (j+r+1)*side]
 		pk := (j-dy+r)*side - dx
@@ -180,8 +153,3 @@ func (s *Solver) sampleShared(def *Spline) {
 		ls = ls[copy(row[b:], ls):]
 	}
 }
-
-// pieceGather is the width of a row piece from which sampleShared
-// interpolates the pieces right of the shared spans row by row rather
-// than gathered at listed positions.
-const pieceGather = 8

@@ -26,7 +26,7 @@ func SSSIGXY(sp *Spline, x, y, radius int) (sx, sy float64) {
 		buf := make([]float64, 3*side*side+2*centreScratch(side))
 		n := side * side
 		v, gx, gy := buf[:n], buf[n:2*n], buf[2*n:3*n]
-		sp.centres(x-radius, y-radius, side, v, gx, gy, buf[3*n:3*n+centreScratch(side)], buf[3*n+centreScratch(side):])
+		sp.centres(x-radius, y-radius, side, 0, v, gx, gy, buf[3*n:3*n+centreScratch(side)], buf[3*n+centreScratch(side):])
 		for k := range gx {
 			sx += gx[k] * gx[k]
 			sy += gy[k] * gy[k]

@@ -74,27 +74,46 @@ func (sp *Spline) cubicLineVector(x0, y0, ax, ay float64, i0 int, out []float64)
 	cubicLineAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, x0, y0, ax, ay, i0, out)
 }
 
-// cubicGridVector is cubicLineVector over each of the rows of a full
-// square subset (row r from (ox[r], oy[r]), side pixels each) in one call,
-// with the same values bit for bit; out holds len(ox)·side values.
-func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, out []float64) {
+// cubicGridVector is cubicLineVector from i0 over each of the rows of a
+// full square subset (row r from (ox[r], oy[r]), side pixels each) in one
+// call, with the same values bit for bit; out holds len(ox)·side values.
+func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, i0, side int, out []float64) {
 	oy, out = oy[:len(ox)], out[:len(ox)*side]
-	cubicGridAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, ox, oy, ax, ay, side, out)
+	cubicGridAVX2(sp.coef, sp.stride, (splinePad-1)*sp.stride+splinePad-1, ox, oy, ax, ay, i0, side, out)
 }
 
 // cubicCentresVector is cubicCentres by cubicCentresAVX2, equal to it bit
 // for bit (the same operations in the same order, without FMA).
-func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
+func (sp *Spline) cubicCentresVector(x0, y0, side int, level float64, v, gx, gy []float64) {
 	if side < 1 {
 		return
 	}
 	s := sp.stride
 	top := (y0-1+splinePad)*s + x0 - 1 + splinePad
 	// The window's first and last coefficients, checked here once: the
-	// kernel reads the coefficients unchecked.
+	// kernel reads the coefficients unchecked, and a few past the window's
+	// right end (centresReach), which the padding holds but for a window
+	// at the bottom right corner of a narrow image: that one takes the Go
+	// loop, the same values.
 	_, _ = sp.coef[top], sp.coef[top+(side+1)*s+side+1]
+	if top+(side+1)*s+centresReach(side) > len(sp.coef) {
+		sp.cubicCentres(x0, y0, side, level, v, gx, gy)
+		return
+	}
 	v, gx, gy = v[:side*side], gx[:side*side], gy[:side*side]
-	cubicCentresAVX2(sp.coef, s, top, side, v, gx, gy)
+	cubicCentresAVX2(sp.coef, s, top, side, level, v, gx, gy)
+}
+
+// centresReach returns how many coefficients of each row, from the one
+// left of a window's first pixel, cubicCentresAVX2 reads for a window of
+// the given side: its blocks of four columns, the last one's block after
+// when three pixels end the row (see _asm/centres.go); side + 2 are used.
+func centresReach(side int) int {
+	full := side &^ 3
+	if side-full == 3 {
+		return full + 8
+	}
+	return full + 4
 }
 
 // affineMomentsVector is affineMomentsGo by affineMomentsAVX2, over all
@@ -190,4 +209,13 @@ func splineRowsOutVector(t []float64, w int, z float64, dst []float32, stride in
 	}
 	_, _ = dst[3*stride+w-1], t[4*w-1]
 	splineRowsOutAVX2(t, w, z, dst, stride)
+}
+
+// prefetchRowsOf is prefetchRows, its block checked against coef here
+// (the kernel touches nothing, but forms the addresses unchecked).
+func prefetchRowsOf(coef []float32, off, stride, rows, width int) {
+	if rows < 1 || width < 1 || off < 0 || off+(rows-1)*stride+width > len(coef) {
+		return
+	}
+	prefetchRows(coef, off, stride, rows, width)
 }

@@ -1021,9 +1021,9 @@ line_done:
 	VZEROUPPER
 	RET
 
-// func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, side int, out []float64)
+// func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, i0 int, side int, out []float64)
 // Requires: AVX, AVX2, FMA3, SSE2
-TEXT ·cubicGridAVX2(SB), NOSPLIT, $472-136
+TEXT ·cubicGridAVX2(SB), NOSPLIT, $504-144
 	MOVQ         coef_base+0(FP), AX
 	MOVQ         stride+24(FP), CX
 	MOVQ         origin+32(FP), DX
@@ -1041,12 +1041,18 @@ TEXT ·cubicGridAVX2(SB), NOSPLIT, $472-136
 	MOVSD        ay+96(FP), X0
 	VBROADCASTSD X0, Y0
 	VMOVUPD      Y0, 272(SP)
+	MOVQ         i0+104(FP), BX
+	VXORPD       X0, X0, X0
+	VCVTSI2SDQ   BX, X0, X0
+	VBROADCASTSD X0, Y0
+	VADDPD       cubicLane<>+0(SB), Y0, Y0
+	VMOVUPD      Y0, 336(SP)
 	MOVQ         ox_base+40(FP), BX
 	MOVQ         oy_base+64(FP), SI
-	MOVQ         out_base+112(FP), DI
-	MOVQ         side+104(FP), R8
+	MOVQ         out_base+120(FP), DI
+	MOVQ         side+112(FP), R8
 	ANDQ         $-4, R8
-	MOVQ         R8, 464(SP)
+	MOVQ         R8, 496(SP)
 	XORQ         R8, R8
 	XORQ         R9, R9
 	CMPQ         ox_len+48(FP), $+0
@@ -1057,10 +1063,10 @@ grid_row:
 	VMOVUPD      Y0, 176(SP)
 	VBROADCASTSD (SI)(R9*8), Y0
 	VMOVUPD      Y0, 208(SP)
-	VMOVUPD      cubicLane<>+0(SB), Y0
+	VMOVUPD      336(SP), Y0
 	VMOVUPD      Y0, 304(SP)
 	XORQ         R10, R10
-	CMPQ         464(SP), $+0
+	CMPQ         496(SP), $+0
 	JE           grid_rest
 
 grid_block:
@@ -1192,29 +1198,31 @@ grid_block:
 	VADDPD       Y1, Y3, Y3
 	VMOVUPD      Y3, (DI)(R10*8)
 	ADDQ         $+4, R10
-	CMPQ         R10, 464(SP)
+	CMPQ         R10, 496(SP)
 	JB           grid_block
 
 grid_rest:
-	CMPQ R10, side+104(FP)
+	CMPQ R10, side+112(FP)
 	JAE  grid_next
 
 grid_pixel:
+	MOVQ         i0+104(FP), R11
+	ADDQ         R10, R11
 	VXORPD       X0, X0, X0
-	VCVTSI2SDQ   R10, X0, X0
+	VCVTSI2SDQ   R11, X0, X0
 	VMULSD       240(SP), X0, X1
 	VADDSD       176(SP), X1, X1
-	VMOVSD       X1, 336(SP)(R8*8)
+	VMOVSD       X1, 368(SP)(R8*8)
 	VMULSD       272(SP), X0, X0
 	VADDSD       208(SP), X0, X0
-	VMOVSD       X0, 368(SP)(R8*8)
+	VMOVSD       X0, 400(SP)(R8*8)
 	LEAQ         (DI)(R10*8), R11
-	MOVQ         R11, 400(SP)(R8*8)
+	MOVQ         R11, 432(SP)(R8*8)
 	INCQ         R8
 	CMPQ         R8, $+4
 	JB           grid_nextpixel
-	VMOVUPD      336(SP), Y0
-	VMOVUPD      368(SP), Y1
+	VMOVUPD      368(SP), Y0
+	VMOVUPD      400(SP), Y1
 	VCVTTPD2DQY  Y0, X2
 	VCVTTPD2DQY  Y1, X3
 	VCVTDQ2PD    X2, Y4
@@ -1334,12 +1342,12 @@ grid_pixel:
 	VMULPD       Y5, Y1, Y1
 	VFMADD231PD  Y2, Y0, Y1
 	VADDPD       Y1, Y3, Y3
-	VMOVUPD      Y3, 432(SP)
+	VMOVUPD      Y3, 464(SP)
 	XORQ         R8, R8
 
 grid_flush:
-	MOVQ 432(SP)(R8*8), R11
-	MOVQ 400(SP)(R8*8), R12
+	MOVQ 464(SP)(R8*8), R11
+	MOVQ 432(SP)(R8*8), R12
 	MOVQ R11, (R12)
 	INCQ R8
 	CMPQ R8, $+4
@@ -1348,11 +1356,11 @@ grid_flush:
 
 grid_nextpixel:
 	INCQ R10
-	CMPQ R10, side+104(FP)
+	CMPQ R10, side+112(FP)
 	JB   grid_pixel
 
 grid_next:
-	MOVQ side+104(FP), R11
+	MOVQ side+112(FP), R11
 	LEAQ (DI)(R11*8), DI
 	INCQ R9
 	CMPQ R9, ox_len+48(FP)
@@ -1364,13 +1372,13 @@ grid_final:
 	MOVQ R8, BX
 
 grid_zero:
-	MOVQ         $0x00000000, 336(SP)(BX*8)
 	MOVQ         $0x00000000, 368(SP)(BX*8)
+	MOVQ         $0x00000000, 400(SP)(BX*8)
 	INCQ         BX
 	CMPQ         BX, $+4
 	JB           grid_zero
-	VMOVUPD      336(SP), Y0
-	VMOVUPD      368(SP), Y1
+	VMOVUPD      368(SP), Y0
+	VMOVUPD      400(SP), Y1
 	VCVTTPD2DQY  Y0, X2
 	VCVTTPD2DQY  Y1, X3
 	VCVTDQ2PD    X2, Y4
@@ -1490,12 +1498,12 @@ grid_zero:
 	VMULPD       Y5, Y1, Y1
 	VFMADD231PD  Y2, Y0, Y1
 	VADDPD       Y1, Y3, Y3
-	VMOVUPD      Y3, 432(SP)
+	VMOVUPD      Y3, 464(SP)
 	XORQ         AX, AX
 
 grid_lastflush:
-	MOVQ 432(SP)(AX*8), CX
-	MOVQ 400(SP)(AX*8), DX
+	MOVQ 464(SP)(AX*8), CX
+	MOVQ 432(SP)(AX*8), DX
 	MOVQ CX, (DX)
 	INCQ AX
 	CMPQ AX, R8
@@ -1523,143 +1531,143 @@ DATA centresHalf<>+16(SB)/8, $0x3fe0000000000000
 DATA centresHalf<>+24(SB)/8, $0x3fe0000000000000
 GLOBL centresHalf<>(SB), RODATA|NOPTR, $32
 
-// func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
-// Requires: AVX
-TEXT ·cubicCentresAVX2(SB), NOSPLIT, $0-120
-	MOVQ coef_base+0(FP), AX
-	MOVQ stride+24(FP), CX
-	MOVQ top+32(FP), DX
-	MOVQ side+40(FP), BX
-	MOVQ v_base+48(FP), SI
-	MOVQ gx_base+72(FP), DI
-	MOVQ gy_base+96(FP), R8
-	LEAQ (AX)(DX*4), AX
-	SHLQ $0x02, CX
-	MOVQ BX, DX
-	ANDQ $-4, DX
-	MOVQ BX, R9
-	CMPQ R9, $+0
-	JE   centres_done
+// func cubicCentresAVX2(coef []float32, stride int, top int, side int, level float64, v []float64, gx []float64, gy []float64)
+// Requires: AVX, AVX2, SSE2
+TEXT ·cubicCentresAVX2(SB), NOSPLIT, $96-128
+	MOVQ         coef_base+0(FP), AX
+	MOVQ         stride+24(FP), CX
+	MOVQ         top+32(FP), DX
+	MOVQ         side+40(FP), BX
+	MOVQ         v_base+56(FP), SI
+	MOVQ         gx_base+80(FP), DI
+	MOVQ         gy_base+104(FP), R8
+	MOVSD        level+48(FP), X0
+	VBROADCASTSD X0, Y0
+	LEAQ         (AX)(DX*4), AX
+	SHLQ         $0x02, CX
+	MOVQ         BX, DX
+	ANDQ         $-4, DX
+	MOVQ         BX, R9
+	SUBQ         DX, R9
+	MOVQ         BX, R10
 
 centres_row:
-	LEAQ (AX)(CX*1), R10
-	LEAQ (AX)(CX*2), R11
-	XORQ R12, R12
-	CMPQ DX, $+0
-	JE   centres_rest
+	LEAQ      (AX)(CX*1), R11
+	LEAQ      (AX)(CX*2), R12
+	XORQ      R13, R13
+	VCVTPS2PD (AX)(R13*4), Y2
+	VCVTPS2PD (R11)(R13*4), Y3
+	VCVTPS2PD (R12)(R13*4), Y4
+	VADDPD    Y4, Y2, Y1
+	VMULPD    centresSixth<>+0(SB), Y1, Y1
+	VMULPD    centresTwoThirds<>+0(SB), Y3, Y3
+	VADDPD    Y3, Y1, Y1
+	VSUBPD    Y2, Y4, Y2
+	VMULPD    centresHalf<>+0(SB), Y2, Y2
+	VMOVAPD   Y1, Y1
+	VMOVAPD   Y2, Y2
+	CMPQ      DX, $+0
+	JE        centres_tail
 
 centres_block:
-	VCVTPS2PD (AX)(R12*4), Y0
-	VCVTPS2PD (R10)(R12*4), Y1
-	VCVTPS2PD (R11)(R12*4), Y2
-	VADDPD    Y2, Y0, Y3
+	LEAQ         4(R13), R14
+	VCVTPS2PD    (AX)(R14*4), Y3
+	VCVTPS2PD    (R11)(R14*4), Y4
+	VCVTPS2PD    (R12)(R14*4), Y5
+	VADDPD       Y5, Y3, Y6
+	VMULPD       centresSixth<>+0(SB), Y6, Y6
+	VMULPD       centresTwoThirds<>+0(SB), Y4, Y4
+	VADDPD       Y4, Y6, Y6
+	VSUBPD       Y3, Y5, Y3
+	VMULPD       centresHalf<>+0(SB), Y3, Y3
+	VEXTRACTF128 $0x01, Y1, X7
+	VINSERTF128  $0x01, X6, Y7, Y5
+	VSHUFPD      $0x05, Y5, Y1, Y4
+	VEXTRACTF128 $0x01, Y2, X7
+	VINSERTF128  $0x01, X3, Y7, Y9
+	VSHUFPD      $0x05, Y9, Y2, Y8
+	VADDPD       Y5, Y1, Y10
+	VMULPD       centresSixth<>+0(SB), Y10, Y10
+	VMULPD       centresTwoThirds<>+0(SB), Y4, Y4
+	VADDPD       Y4, Y10, Y10
+	VSUBPD       Y0, Y10, Y10
+	VSUBPD       Y1, Y5, Y1
+	VMULPD       centresHalf<>+0(SB), Y1, Y1
+	VADDPD       Y9, Y2, Y2
+	VMULPD       centresSixth<>+0(SB), Y2, Y2
+	VMULPD       centresTwoThirds<>+0(SB), Y8, Y4
+	VADDPD       Y4, Y2, Y2
+	VMOVUPD      Y10, (SI)(R13*8)
+	VMOVUPD      Y1, (DI)(R13*8)
+	VMOVUPD      Y2, (R8)(R13*8)
+	VMOVAPD      Y6, Y1
+	VMOVAPD      Y3, Y2
+	MOVQ         R14, R13
+	CMPQ         R13, DX
+	JB           centres_block
+
+centres_tail:
+	CMPQ      R9, $+0
+	JE        centres_next
+	VMOVAPD   Y1, Y3
+	VMOVAPD   Y2, Y4
+	CMPQ      R9, $+3
+	JNE       centres_tail_pixels
+	LEAQ      4(R13), R14
+	VCVTPS2PD (AX)(R14*4), Y4
+	VCVTPS2PD (R11)(R14*4), Y5
+	VCVTPS2PD (R12)(R14*4), Y6
+	VADDPD    Y6, Y4, Y3
 	VMULPD    centresSixth<>+0(SB), Y3, Y3
-	VMULPD    centresTwoThirds<>+0(SB), Y1, Y1
-	VADDPD    Y1, Y3, Y3
-	VSUBPD    Y0, Y2, Y0
-	VMULPD    centresHalf<>+0(SB), Y0, Y0
-	VCVTPS2PD 4(AX)(R12*4), Y1
-	VCVTPS2PD 4(R10)(R12*4), Y2
-	VCVTPS2PD 4(R11)(R12*4), Y4
-	VADDPD    Y4, Y1, Y5
-	VMULPD    centresSixth<>+0(SB), Y5, Y5
-	VMULPD    centresTwoThirds<>+0(SB), Y2, Y2
-	VADDPD    Y2, Y5, Y5
-	VSUBPD    Y1, Y4, Y1
-	VMULPD    centresHalf<>+0(SB), Y1, Y1
-	VCVTPS2PD 8(AX)(R12*4), Y2
-	VCVTPS2PD 8(R10)(R12*4), Y4
-	VCVTPS2PD 8(R11)(R12*4), Y6
-	VADDPD    Y6, Y2, Y7
-	VMULPD    centresSixth<>+0(SB), Y7, Y7
-	VMULPD    centresTwoThirds<>+0(SB), Y4, Y4
-	VADDPD    Y4, Y7, Y7
-	VSUBPD    Y2, Y6, Y2
-	VMULPD    centresHalf<>+0(SB), Y2, Y2
-	VADDPD    Y7, Y3, Y4
-	VMULPD    centresSixth<>+0(SB), Y4, Y4
 	VMULPD    centresTwoThirds<>+0(SB), Y5, Y5
-	VADDPD    Y5, Y4, Y4
-	VMOVUPD   Y4, (SI)(R12*8)
-	VSUBPD    Y3, Y7, Y3
-	VMULPD    centresHalf<>+0(SB), Y3, Y3
-	VMOVUPD   Y3, (DI)(R12*8)
-	VADDPD    Y2, Y0, Y0
-	VMULPD    centresSixth<>+0(SB), Y0, Y0
-	VMULPD    centresTwoThirds<>+0(SB), Y1, Y1
-	VADDPD    Y1, Y0, Y0
-	VMOVUPD   Y0, (R8)(R12*8)
-	ADDQ      $+4, R12
-	CMPQ      R12, DX
-	JB        centres_block
+	VADDPD    Y5, Y3, Y3
+	VSUBPD    Y4, Y6, Y4
+	VMULPD    centresHalf<>+0(SB), Y4, Y4
+	VMOVAPD   Y3, Y3
+	VMOVAPD   Y4, Y4
 
-centres_rest:
-	CMPQ R12, BX
-	JAE  centres_next
+centres_tail_pixels:
+	VEXTRACTF128 $0x01, Y1, X7
+	VINSERTF128  $0x01, X3, Y7, Y5
+	VSHUFPD      $0x05, Y5, Y1, Y3
+	VEXTRACTF128 $0x01, Y2, X7
+	VINSERTF128  $0x01, X4, Y7, Y6
+	VSHUFPD      $0x05, Y6, Y2, Y4
+	VADDPD       Y5, Y1, Y8
+	VMULPD       centresSixth<>+0(SB), Y8, Y8
+	VMULPD       centresTwoThirds<>+0(SB), Y3, Y3
+	VADDPD       Y3, Y8, Y8
+	VSUBPD       Y0, Y8, Y8
+	VSUBPD       Y1, Y5, Y1
+	VMULPD       centresHalf<>+0(SB), Y1, Y1
+	VADDPD       Y6, Y2, Y2
+	VMULPD       centresSixth<>+0(SB), Y2, Y2
+	VMULPD       centresTwoThirds<>+0(SB), Y4, Y3
+	VADDPD       Y3, Y2, Y2
+	VMOVUPD      Y8, (SP)
+	VMOVUPD      Y1, 32(SP)
+	VMOVUPD      Y2, 64(SP)
+	XORQ         R11, R11
 
-centres_pixel:
-	VXORPD    X0, X0, X0
-	VCVTSS2SD (AX)(R12*4), X0, X0
-	VXORPD    X1, X1, X1
-	VCVTSS2SD (R10)(R12*4), X1, X1
-	VXORPD    X2, X2, X2
-	VCVTSS2SD (R11)(R12*4), X2, X2
-	VADDSD    X2, X0, X3
-	VMULSD    centresSixth<>+0(SB), X3, X3
-	VMULSD    centresTwoThirds<>+0(SB), X1, X1
-	VADDSD    X1, X3, X3
-	VSUBSD    X0, X2, X0
-	VMULSD    centresHalf<>+0(SB), X0, X0
-	VXORPD    X1, X1, X1
-	VCVTSS2SD 4(AX)(R12*4), X1, X1
-	VXORPD    X2, X2, X2
-	VCVTSS2SD 4(R10)(R12*4), X2, X2
-	VXORPD    X4, X4, X4
-	VCVTSS2SD 4(R11)(R12*4), X4, X4
-	VADDSD    X4, X1, X5
-	VMULSD    centresSixth<>+0(SB), X5, X5
-	VMULSD    centresTwoThirds<>+0(SB), X2, X2
-	VADDSD    X2, X5, X5
-	VSUBSD    X1, X4, X1
-	VMULSD    centresHalf<>+0(SB), X1, X1
-	VXORPD    X2, X2, X2
-	VCVTSS2SD 8(AX)(R12*4), X2, X2
-	VXORPD    X4, X4, X4
-	VCVTSS2SD 8(R10)(R12*4), X4, X4
-	VXORPD    X6, X6, X6
-	VCVTSS2SD 8(R11)(R12*4), X6, X6
-	VADDSD    X6, X2, X7
-	VMULSD    centresSixth<>+0(SB), X7, X7
-	VMULSD    centresTwoThirds<>+0(SB), X4, X4
-	VADDSD    X4, X7, X7
-	VSUBSD    X2, X6, X2
-	VMULSD    centresHalf<>+0(SB), X2, X2
-	VADDSD    X7, X3, X4
-	VMULSD    centresSixth<>+0(SB), X4, X4
-	VMULSD    centresTwoThirds<>+0(SB), X5, X5
-	VADDSD    X5, X4, X4
-	VMOVSD    X4, (SI)(R12*8)
-	VSUBSD    X3, X7, X3
-	VMULSD    centresHalf<>+0(SB), X3, X3
-	VMOVSD    X3, (DI)(R12*8)
-	VADDSD    X2, X0, X0
-	VMULSD    centresSixth<>+0(SB), X0, X0
-	VMULSD    centresTwoThirds<>+0(SB), X1, X1
-	VADDSD    X1, X0, X0
-	VMOVSD    X0, (R8)(R12*8)
-	INCQ      R12
-	CMPQ      R12, BX
-	JB        centres_pixel
+centres_copy:
+	MOVQ (SP)(R11*8), R12
+	MOVQ R12, (SI)(R13*8)
+	MOVQ 32(SP)(R11*8), R12
+	MOVQ R12, (DI)(R13*8)
+	MOVQ 64(SP)(R11*8), R12
+	MOVQ R12, (R8)(R13*8)
+	INCQ R13
+	INCQ R11
+	CMPQ R11, R9
+	JB   centres_copy
 
 centres_next:
 	ADDQ CX, AX
 	LEAQ (SI)(BX*8), SI
 	LEAQ (DI)(BX*8), DI
 	LEAQ (R8)(BX*8), R8
-	DECQ R9
+	DECQ R10
 	JNZ  centres_row
-
-centres_done:
 	VZEROUPPER
 	RET
 
@@ -2419,4 +2427,31 @@ rowsout_step:
 
 rowsout_end:
 	VZEROUPPER
+	RET
+
+// func prefetchRows(coef []float32, off int, stride int, rows int, width int)
+// Requires: MMX+
+TEXT ·prefetchRows(SB), NOSPLIT, $0-56
+	MOVQ coef_base+0(FP), AX
+	MOVQ off+24(FP), CX
+	MOVQ stride+32(FP), DX
+	MOVQ rows+40(FP), BX
+	MOVQ width+48(FP), SI
+	LEAQ (AX)(CX*4), AX
+	SHLQ $0x02, DX
+	SHLQ $0x02, SI
+	DECQ SI
+
+prefetch_row:
+	XORQ CX, CX
+
+prefetch_line:
+	PREFETCHT0 (AX)(CX*1)
+	ADDQ       $+64, CX
+	CMPQ       CX, SI
+	JB         prefetch_line
+	PREFETCHT0 (AX)(SI*1)
+	ADDQ       DX, AX
+	DECQ       BX
+	JNZ        prefetch_row
 	RET

@@ -30,15 +30,15 @@ func (sp *Spline) cubicLineVector(x0, y0, ax, ay float64, i0 int, out []float64)
 
 // cubicGridVector is cubicLineGo over each row where there is no vector
 // kernel.
-func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, side int, out []float64) {
+func (sp *Spline) cubicGridVector(ox, oy []float64, ax, ay float64, i0, side int, out []float64) {
 	for r := range ox {
-		sp.cubicLineGo(ox[r], oy[r], ax, ay, 0, out[r*side:(r+1)*side])
+		sp.cubicLineGo(ox[r], oy[r], ax, ay, i0, out[r*side:(r+1)*side])
 	}
 }
 
 // cubicCentresVector is cubicCentres where there is no vector kernel.
-func (sp *Spline) cubicCentresVector(x0, y0, side int, v, gx, gy []float64) {
-	sp.cubicCentres(x0, y0, side, v, gx, gy)
+func (sp *Spline) cubicCentresVector(x0, y0, side int, level float64, v, gx, gy []float64) {
+	sp.cubicCentres(x0, y0, side, level, v, gx, gy)
 }
 
 // affineMomentsVector is affineMomentsGo where there is no vector kernel.
@@ -101,3 +101,7 @@ func splineRowsOutVector(t []float64, w int, z float64, dst []float32, stride in
 		}
 	}
 }
+
+// prefetchRowsOf does nothing where there is no prefetch kernel: a
+// prefetch is a hint and changes no value.
+func prefetchRowsOf(coef []float32, off, stride, rows, width int) {}

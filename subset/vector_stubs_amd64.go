@@ -33,21 +33,25 @@ func cubicValuesAVX2(coef []float32, stride int, origin int, xs []float64, ys []
 func cubicLineAVX2(coef []float32, stride int, origin int, x0 float64, y0 float64, ax float64, ay float64, i0 int, out []float64)
 
 // cubicGridAVX2 sets out[r·side + k] to the cubic interpolant of coef
-// (see cubicValuesAVX2) at (ox[r] + t·ax, oy[r] + t·ay), t = k, for
-// every row r < len(ox) and k < side: cubicLineAVX2 over each row, bit
-// for bit. out holds len(ox)·side values.
+// (see cubicValuesAVX2) at (ox[r] + t·ax, oy[r] + t·ay), t = i0 + k,
+// for every row r < len(ox) and k < side: cubicLineAVX2 over each row
+// from i0, bit for bit. out holds len(ox)·side values.
 //
 //go:noescape
-func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, side int, out []float64)
+func cubicGridAVX2(coef []float32, stride int, origin int, ox []float64, oy []float64, ax float64, ay float64, i0 int, side int, out []float64)
 
 // cubicCentresAVX2 sets v, gx and gy (row-major, side×side) to the cubic
-// interpolant and its gradient at the pixel centres of a window, top
+// interpolant less level and its gradient at the pixel centres of a
+// window (the value rounded, then level taken off), top
 // being the offset in coef (rows stride apart) of the coefficient up
 // and left of its first pixel, as cubicCentres does, bit for bit. The
-// window must lie inside the image and v, gx, gy hold side² values.
+// window must lie inside the image, and coef hold centresReach(side)
+// coefficients of each of its side + 2 rows from top (up to three
+// past the window's right end are read, not used); v, gx, gy hold
+// side² values, side ≥ 1.
 //
 //go:noescape
-func cubicCentresAVX2(coef []float32, stride int, top int, side int, v []float64, gx []float64, gy []float64)
+func cubicCentresAVX2(coef []float32, stride int, top int, side int, level float64, v []float64, gx []float64, gy []float64)
 
 // affineMomentsAVX2 sets out to the moments over the len(gx) pixels:
 // for q = gx², gx·gy, gy² in turn Σq, Σq·dx, Σq·dx², Σq·dy, Σq·dx·dy,
@@ -106,3 +110,11 @@ func splineRowsInAVX2(img []float32, stride int, t []float64, w int, gain float6
 //
 //go:noescape
 func splineRowsOutAVX2(t []float64, w int, z float64, dst []float32, stride int)
+
+// prefetchRows asks the processor to bring into its caches the
+// coefficients coef[off + r·stride + i], r < rows, i < width (every
+// cache line they touch). It reads no value and writes none; the
+// caller keeps the block inside coef and rows, width ≥ 1.
+//
+//go:noescape
+func prefetchRows(coef []float32, off int, stride int, rows int, width int)

@@ -319,20 +319,20 @@ func BenchmarkCubicValues(b *testing.B) {
 	for j := range side {
 		ox[j], oy[j] = xs[j*side], ys[j*side]
 	}
-	goGrid := func(ox, oy []float64, ax, ay float64, side int, out []float64) {
+	goGrid := func(ox, oy []float64, ax, ay float64, i0, side int, out []float64) {
 		for r := range ox {
-			sp.cubicLineGo(ox[r], oy[r], ax, ay, 0, out[r*side:(r+1)*side])
+			sp.cubicLineGo(ox[r], oy[r], ax, ay, i0, out[r*side:(r+1)*side])
 		}
 	}
 	for _, path := range []struct {
 		name   string
 		values func(xs, ys, out []float64)
 		line   func(x0, y0, ax, ay float64, i0 int, out []float64)
-		grid   func(ox, oy []float64, ax, ay float64, side int, out []float64)
+		grid   func(ox, oy []float64, ax, ay float64, i0, side int, out []float64)
 	}{{"go", sp.cubicValuesGo, sp.cubicLineGo, goGrid}, {"vector", sp.cubicValuesVector, sp.cubicLineVector, sp.cubicGridVector}} {
 		b.Run("grid/"+path.name, func(b *testing.B) {
 			for b.Loop() {
-				path.grid(ox, oy, ax, ay, side, out)
+				path.grid(ox, oy, ax, ay, 0, side, out)
 			}
 		})
 		b.Run("values/"+path.name, func(b *testing.B) {
@@ -353,31 +353,34 @@ func BenchmarkCubicValues(b *testing.B) {
 // TestCubicGridEqualsLines checks that the whole-subset kernel gives the
 // values of the row kernel over each row bit for bit, for sides 1 … 9 and
 // 21 (every row length mod 4, so that the positions left over at the rows'
-// ends gather into blocks in every pattern) and, on the Go path, the
+// ends gather into blocks in every pattern), each row from its first
+// pixel and from a later one (a row piece's), and, on the Go path, the
 // values of cubicLineGo.
 func TestCubicGridEqualsLines(t *testing.T) {
 	rng := rand.New(rand.NewPCG(65, 65))
 	sp := NewSpline(randomImage(rng, 60, 50), Bicubic)
 	const ax, ay = 0.987, -0.013
 	for _, side := range []int{1, 2, 3, 4, 5, 6, 7, 8, 9, 21} {
-		ox, oy := make([]float64, side), make([]float64, side)
-		for r := range ox {
-			ox[r], oy[r] = 5.3+0.011*float64(r), 7.9+1.004*float64(r)
-		}
-		want := make([]float64, side*side)
-		for r := range ox {
-			sp.cubicLineVector(ox[r], oy[r], ax, ay, 0, want[r*side:(r+1)*side])
-		}
-		got := make([]float64, side*side+1)
-		got[side*side] = 12345
-		sp.cubicGridVector(ox, oy, ax, ay, side, got[:side*side])
-		for k := range want {
-			if got[k] != want[k] {
-				t.Errorf("side %d: value %d %.17g, row kernel %.17g", side, k, got[k], want[k])
+		for _, i0 := range []int{0, 3, 11} {
+			ox, oy := make([]float64, side), make([]float64, side)
+			for r := range ox {
+				ox[r], oy[r] = 5.3+0.011*float64(r), 7.9+1.004*float64(r)
 			}
-		}
-		if got[side*side] != 12345 {
-			t.Errorf("side %d: the value past the end was overwritten with %g", side, got[side*side])
+			want := make([]float64, side*side)
+			for r := range ox {
+				sp.cubicLineVector(ox[r], oy[r], ax, ay, i0, want[r*side:(r+1)*side])
+			}
+			got := make([]float64, side*side+1)
+			got[side*side] = 12345
+			sp.cubicGridVector(ox, oy, ax, ay, i0, side, got[:side*side])
+			for k := range want {
+				if got[k] != want[k] {
+					t.Errorf("side %d from %d: value %d %.17g, row kernel %.17g", side, i0, k, got[k], want[k])
+				}
+			}
+			if got[side*side] != 12345 {
+				t.Errorf("side %d from %d: the value past the end was overwritten with %g", side, i0, got[side*side])
+			}
 		}
 	}
 }
@@ -394,7 +397,8 @@ func multiplyAdd(x, y, z float64) float64 { return x*y + z }
 // TestCubicCentresVectorEqualsGo checks the vector kernel of the
 // interpolant and its gradient at pixel centres against cubicCentres bit
 // for bit, on windows of sides 1 … 9 and 21 (every row tail) at the
-// image's corners and inside it. Where the compiler fuses cubicCentres'
+// image's corners and inside it, with no level and with one taken off the
+// values. Where the compiler fuses cubicCentres'
 // multiply-adds (goFuses) the two agree to rounding only, and the test
 // allows 1e-12 of the 0–255 range, as TestCentres does.
 func TestCubicCentresVectorEqualsGo(t *testing.T) {
@@ -407,15 +411,16 @@ func TestCubicCentresVectorEqualsGo(t *testing.T) {
 	const w, h = 43, 31
 	sp := NewSpline(randomImage(rng, w, h), Bicubic)
 	for _, side := range []int{1, 2, 3, 4, 5, 6, 7, 8, 9, 21} {
-		for _, at := range [][2]int{{0, 0}, {w - side, h - side}, {5, 3}} {
+		for q, at := range [][2]int{{0, 0}, {w - side, h - side}, {5, 3}} {
+			level := []float64{0, 117.3, -0.5}[q] // a subset's mean, or none
 			n := side * side
 			want := [3][]float64{make([]float64, n), make([]float64, n), make([]float64, n)}
 			got := [3][]float64{make([]float64, n+1), make([]float64, n+1), make([]float64, n+1)}
 			for _, g := range got {
 				g[n] = 12345
 			}
-			sp.cubicCentres(at[0], at[1], side, want[0], want[1], want[2])
-			sp.cubicCentresVector(at[0], at[1], side, got[0][:n], got[1][:n], got[2][:n])
+			sp.cubicCentres(at[0], at[1], side, level, want[0], want[1], want[2])
+			sp.cubicCentresVector(at[0], at[1], side, level, got[0][:n], got[1][:n], got[2][:n])
 			for c := range want {
 				for k := range want[c] {
 					if !(math.Abs(got[c][k]-want[c][k]) <= tol) {
@@ -439,11 +444,11 @@ func BenchmarkCubicCentres(b *testing.B) {
 	v, gx, gy := make([]float64, side*side), make([]float64, side*side), make([]float64, side*side)
 	for _, path := range []struct {
 		name    string
-		centres func(x0, y0, side int, v, gx, gy []float64)
+		centres func(x0, y0, side int, level float64, v, gx, gy []float64)
 	}{{"go", sp.cubicCentres}, {"vector", sp.cubicCentresVector}} {
 		b.Run(path.name, func(b *testing.B) {
 			for b.Loop() {
-				path.centres(30, 40, side, v, gx, gy)
+				path.centres(30, 40, side, 0, v, gx, gy)
 			}
 		})
 	}

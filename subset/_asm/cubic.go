@@ -334,18 +334,29 @@ func paramAddr(c gotypes.Component) Mem {
 // on the stack, with where their values go, until four have gathered and
 // take a block of their own: every block is full but the last.
 func cubicGrid(ct coefType, c cubicConsts) {
-	TEXT("cubicGridAVX2", NOSPLIT, fmt.Sprintf("func(coef []%s, stride, origin int, ox, oy []float64, ax, ay float64, side int, out []float64)", ct.goType))
+	TEXT("cubicGridAVX2", NOSPLIT, fmt.Sprintf("func(coef []%s, stride, origin int, ox, oy []float64, ax, ay float64, i0, side int, out []float64)", ct.goType))
 	Pragma("noescape")
 	Doc("cubicGridAVX2 sets out[r·side + k] to the cubic interpolant of coef",
-		"(see cubicValuesAVX2) at (ox[r] + t·ax, oy[r] + t·ay), t = k, for",
-		"every row r < len(ox) and k < side: cubicLineAVX2 over each row, bit",
-		"for bit. out holds len(ox)·side values.")
+		"(see cubicValuesAVX2) at (ox[r] + t·ax, oy[r] + t·ay), t = i0 + k,",
+		"for every row r < len(ox) and k < side: cubicLineAVX2 over each row",
+		"from i0, bit for bit. out holds len(ox)·side values.")
 	a := loadCubicArgs(ct, c)
 	line := AllocLocal(5 * 32) // x0, y0, ax, ay of the row, t of the block
 	for i, name := range []string{"ax", "ay"} {
 		v, b := Load(Param(name), XMM()), YMM()
 		VBROADCASTSD(v, b)
 		VMOVUPD(b, line.Offset(32*(2+i)))
+	}
+	// t of a row's first block: i0 + lane.
+	first := AllocLocal(32)
+	i0 := Load(Param("i0"), GP64())
+	{
+		ti, t := XMM(), YMM()
+		VXORPD(ti, ti, ti)
+		VCVTSI2SDQ(i0, ti, ti)
+		VBROADCASTSD(ti, t)
+		VADDPD(c.lane, t, t)
+		VMOVUPD(t, first)
 	}
 	waiting := AllocLocal(3 * 32) // x, y and the destination of up to four positions
 	last := AllocLocal(32)
@@ -389,7 +400,7 @@ func cubicGrid(ct coefType, c cubicConsts) {
 		VMOVUPD(b, line.Offset(32*i))
 	}
 	t := YMM()
-	VMOVUPD(c.lane, t)
+	VMOVUPD(first, t)
 	VMOVUPD(t, line.Offset(4*32))
 	k := GP64()
 	XORQ(k, k)
@@ -407,8 +418,11 @@ func cubicGrid(ct coefType, c cubicConsts) {
 	JAE(LabelRef("grid_next"))
 	Label("grid_pixel")
 	ts, px, py := XMM(), XMM(), XMM()
+	tk := GP64()
+	MOVQ(paramAddr(Param("i0")), tk)
+	ADDQ(k, tk)
 	VXORPD(ts, ts, ts)
-	VCVTSI2SDQ(k, ts, ts)
+	VCVTSI2SDQ(tk, ts, ts)
 	VMULSD(line.Offset(2*32), ts, px)
 	VADDSD(line.Offset(0), px, px)
 	VMOVSD(px, wx.Idx(cnt, 8))

@@ -17,5 +17,6 @@ func main() {
 	cubicCentresKernel()
 	affineMoments()
 	prefilterKernels()
+	prefetchKernel()
 	Generate()
 }
