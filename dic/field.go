@@ -2,7 +2,6 @@ package dic
 
 import (
 	"math"
-	"slices"
 
 	"spallscope/subset"
 )
@@ -67,15 +66,76 @@ func (f *Field) MedianZNCC() float64 {
 	return median(cc)
 }
 
-// median returns the median of xs (reordering it), NaN if empty.
+// median returns the median of xs (reordering it), NaN if empty: the
+// middle value of xs sorted as slices.Sort sorts it (NaNs first), or the
+// mean of the two middle ones. It selects them (Hoare's quickselect, with
+// a median-of-three pivot) instead of sorting: it runs once a frame over
+// every point's ZNCC, on one core between the frames' parallel work
+// (200 000 points at 20 MP and a 10 px step, BenchmarkMedian).
 func median(xs []float64) float64 {
-	if len(xs) == 0 {
+	n := len(xs)
+	if n == 0 {
 		return math.NaN()
 	}
-	slices.Sort(xs)
-	n := len(xs)
-	if n%2 == 1 {
-		return xs[n/2]
+	// NaNs go first, as slices.Sort puts them.
+	nan := 0
+	for i, x := range xs {
+		if x != x {
+			xs[i], xs[nan] = xs[nan], x
+			nan++
+		}
 	}
-	return (xs[n/2-1] + xs[n/2]) / 2
+	at := func(k int) float64 {
+		if k < nan {
+			return math.NaN()
+		}
+		return selectKth(xs[nan:], k-nan)
+	}
+	if n%2 == 1 {
+		return at(n / 2)
+	}
+	return (at(n/2-1) + at(n/2)) / 2
+}
+
+// selectKth reorders xs (no NaN) so that xs[k] is the value sorting would
+// put there, and returns it (Hoare's selection algorithm, "FIND",
+// Communications of the ACM 4(7), 1961).
+func selectKth(xs []float64, k int) float64 {
+	lo, hi := 0, len(xs)-1
+	for lo < hi {
+		mid := lo + (hi-lo)/2
+		// Median of three as the pivot value.
+		a, b, c := xs[lo], xs[mid], xs[hi]
+		p := b
+		switch {
+		case (a <= b) == (b <= c):
+		case (b <= a) == (a <= c):
+			p = a
+		default:
+			p = c
+		}
+		i, j := lo, hi
+		for i <= j {
+			for xs[i] < p {
+				i++
+			}
+			for xs[j] > p {
+				j--
+			}
+			if i <= j {
+				xs[i], xs[j] = xs[j], xs[i]
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return xs[k]
+		}
+	}
+	return xs[k]
 }

@@ -24,18 +24,37 @@ type unmeasured struct {
 // finite reports whether a gray level is a number.
 func finite(v float32) bool { return !math.IsNaN(float64(v)) && !math.IsInf(float64(v), 0) }
 
+// countNonFinite returns the number of values that are NaN or ±Inf: those
+// whose exponent bits are all ones (IEEE 754 binary32). It runs over every
+// pixel of every frame on one core between the frames' parallel work, so it
+// is branch-free (adding 1 to a masked exponent carries into bit 31 only
+// from all ones) with four sums in flight: at 20 MP it takes about half
+// the time of finite's test pixel by pixel (BenchmarkCountNonFinite).
+func countNonFinite(pix []float32) int {
+	const exp, one = 0x7f800000, 0x00800000
+	var n0, n1, n2, n3 uint32
+	i := 0
+	for ; i+4 <= len(pix); i += 4 {
+		p := pix[i : i+4 : i+4]
+		n0 += (math.Float32bits(p[0])&exp + one) >> 31
+		n1 += (math.Float32bits(p[1])&exp + one) >> 31
+		n2 += (math.Float32bits(p[2])&exp + one) >> 31
+		n3 += (math.Float32bits(p[3])&exp + one) >> 31
+	}
+	n := int(n0) + int(n1) + int(n2) + int(n3)
+	for _, v := range pix[i:] {
+		n += int((math.Float32bits(v)&exp + one) >> 31)
+	}
+	return n
+}
+
 // fillUnmeasured returns img with each non-finite pixel replaced by the
 // mean of its already filled or finite 8-neighbours nearer the measured
 // pixels, working outwards layer by layer: the fill joins its surroundings
 // without a step, so the spline rings little at the rim. It returns img
 // itself and nil when every pixel is finite, and a zero image when none is.
 func fillUnmeasured(img *subset.Image) (*subset.Image, *unmeasured) {
-	n := 0
-	for _, v := range img.Pix {
-		if !finite(v) {
-			n++
-		}
-	}
+	n := countNonFinite(img.Pix)
 	if n == 0 {
 		return img, nil
 	}

@@ -41,23 +41,35 @@ func ReadImage(path string) (*subset.Image, error) { return ReadImageInto(path, 
 // that reads frame after frame into one image leaves no 4 bytes a pixel
 // to the collector per frame (80 MB at 20 MP).
 func ReadImageInto(path string, dst *subset.Image) (*subset.Image, error) {
-	if _, err := os.Stat(path); err != nil {
-		return nil, fmt.Errorf("read image: %w", err)
-	}
-	if err := checkImageHeader(path); err != nil {
+	m, err := decodeImage(path)
+	if err != nil {
 		return nil, err
 	}
-	returnLargeBlocks()
-	m := gocv.IMRead(path, gocv.IMReadAnyDepth|gocv.IMReadAnyColor)
 	defer m.Close()
-	if m.Empty() {
-		return nil, fmt.Errorf("read image %s: cannot decode (corrupt file or unsupported format; expected TIFF, PNG, JPEG or BMP)", path)
-	}
 	img, err := FromMatInto(m, dst)
 	if err != nil {
 		return nil, fmt.Errorf("read image %s: %w", path, err)
 	}
 	return img, nil
+}
+
+// decodeImage decodes an image file as OpenCV holds it (any depth, any
+// colour), after ReadImage's checks of the file and its header. The
+// caller must Close the result.
+func decodeImage(path string) (gocv.Mat, error) {
+	if _, err := os.Stat(path); err != nil {
+		return gocv.Mat{}, fmt.Errorf("read image: %w", err)
+	}
+	if err := checkImageHeader(path); err != nil {
+		return gocv.Mat{}, err
+	}
+	returnLargeBlocks()
+	m := gocv.IMRead(path, gocv.IMReadAnyDepth|gocv.IMReadAnyColor)
+	if m.Empty() {
+		m.Close()
+		return gocv.Mat{}, fmt.Errorf("read image %s: cannot decode (corrupt file or unsupported format; expected TIFF, PNG, JPEG or BMP)", path)
+	}
+	return m, nil
 }
 
 // FromMat converts an OpenCV image (1, 3 or 4 channels; 8-bit, 16-bit or

@@ -93,19 +93,8 @@ func (v *videoSequence) ExpectSize(w, h int) { v.size.set(w, h) }
 
 func (v *videoSequence) Read(i int) (*subset.Image, error) { return v.ReadInto(i, nil) }
 func (v *videoSequence) ReadInto(i int, dst *subset.Image) (*subset.Image, error) {
-	if i < 0 || i >= v.n {
-		return nil, fmt.Errorf("frame %d: out of range (video %s has %d frames)", i, v.path, v.n)
-	}
-	if i < v.next {
-		if err := v.reopen(); err != nil {
-			return nil, fmt.Errorf("frame %d: %w", i, err)
-		}
-	}
-	for v.next <= i {
-		if !v.cap.Read(&v.mat) || v.mat.Empty() {
-			return nil, fmt.Errorf("frame %d (%s): cannot decode video frame", i, v.Source(i))
-		}
-		v.next++
+	if err := v.advance(i); err != nil {
+		return nil, err
 	}
 	img, err := FromMatInto(v.mat, dst)
 	if err != nil {
@@ -115,6 +104,25 @@ func (v *videoSequence) ReadInto(i int, dst *subset.Image) (*subset.Image, error
 		return nil, err
 	}
 	return img, nil
+}
+
+// advance decodes the video up to frame i, which is then in v.mat.
+func (v *videoSequence) advance(i int) error {
+	if i < 0 || i >= v.n {
+		return fmt.Errorf("frame %d: out of range (video %s has %d frames)", i, v.path, v.n)
+	}
+	if i < v.next {
+		if err := v.reopen(); err != nil {
+			return fmt.Errorf("frame %d: %w", i, err)
+		}
+	}
+	for v.next <= i {
+		if !v.cap.Read(&v.mat) || v.mat.Empty() {
+			return fmt.Errorf("frame %d (%s): cannot decode video frame", i, v.Source(i))
+		}
+		v.next++
+	}
+	return nil
 }
 
 func (v *videoSequence) Close() error {

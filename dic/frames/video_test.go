@@ -5,6 +5,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -103,5 +104,40 @@ func TestVideoCounting(t *testing.T) {
 	}
 	if _, _, ok := VideoFrameCounts(newFileSequence([]string{"a.png"})); ok || Notes(newFileSequence([]string{"a.png"})) != nil {
 		t.Error("an image sequence has no video counts and no notes")
+	}
+}
+
+// Frames of a video decoded and widened (Decode, Into), in order and
+// back to an earlier one, have the levels ReadInto gives.
+func TestVideoDecodeMatchesReadInto(t *testing.T) {
+	dir := t.TempDir()
+	path := writeMJPG(t, dir, 4)
+	seq, err := Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer seq.Close()
+	ref, err := Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer ref.Close()
+	for _, k := range []int{0, 1, 3, 2} {
+		d, err := Decode(seq, k)
+		if err != nil {
+			t.Fatal(err)
+		}
+		img, err := d.Into(nil)
+		d.Close()
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, err := ref.Read(k)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !img.SameSize(want) || img.Depth != want.Depth || !slices.Equal(img.Pix, want.Pix) {
+			t.Errorf("frame %d: decoded %dx%d depth %d, differs from ReadInto's %dx%d depth %d", k, img.Width, img.Height, img.Depth, want.Width, want.Height, want.Depth)
+		}
 	}
 }

@@ -31,7 +31,7 @@ func FieldPath(dir, frame string) string { return filepath.Join(dir, FieldsDir, 
 // file is written atomically.
 func WriteField(path string, f *dic.Field, scale dic.Scale) error {
 	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
-		return err
+		return fmt.Errorf("write %s: %w", path, err)
 	}
 	return WriteAtomic(path, func(w *bufio.Writer) error {
 		w.WriteString(FieldHeader)

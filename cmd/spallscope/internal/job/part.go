@@ -288,6 +288,10 @@ type headSequence struct {
 
 func (h headSequence) Len() int { return h.n }
 
+// Decode decodes frame i as the whole sequence does (frames.Decoder), so
+// that a part's frames read ahead take the memory a whole run's take.
+func (h headSequence) Decode(i int) (*frames.Decoded, error) { return frames.Decode(h.Sequence, i) }
+
 // linkOrCopy makes dst a hard link of src, or a copy where the file system
 // cannot link; the copy is renamed into place whole.
 func linkOrCopy(src, dst string) error {
