@@ -304,18 +304,24 @@ func cubicKernels(ct coefType) {
 		VBROADCASTSD(v, b)
 		VMOVUPD(b, line.Offset(32*i))
 	}
+	storeFirstT(c, line.Offset(4*32))
+	blockLoop("line", a, func(k Register, mask Op) (x, y VecVirtual) {
+		return linePositions(line, c, mask)
+	})
+
+	cubicGrid(ct, c)
+}
+
+// storeFirstT stores t of a row's first block, i0 + lane (the parameter
+// i0, the row's first pixel), at dst.
+func storeFirstT(c cubicConsts, dst Mem) {
 	i0 := Load(Param("i0"), GP64())
 	ti, t := XMM(), YMM()
 	VXORPD(ti, ti, ti)
 	VCVTSI2SDQ(i0, ti, ti)
 	VBROADCASTSD(ti, t)
 	VADDPD(c.lane, t, t)
-	VMOVUPD(t, line.Offset(4*32))
-	blockLoop("line", a, func(k Register, mask Op) (x, y VecVirtual) {
-		return linePositions(line, c, mask)
-	})
-
-	cubicGrid(ct, c)
+	VMOVUPD(t, dst)
 }
 
 // paramAddr returns the stack address of a basic argument, for use as a
@@ -349,15 +355,7 @@ func cubicGrid(ct coefType, c cubicConsts) {
 	}
 	// t of a row's first block: i0 + lane.
 	first := AllocLocal(32)
-	i0 := Load(Param("i0"), GP64())
-	{
-		ti, t := XMM(), YMM()
-		VXORPD(ti, ti, ti)
-		VCVTSI2SDQ(i0, ti, ti)
-		VBROADCASTSD(ti, t)
-		VADDPD(c.lane, t, t)
-		VMOVUPD(t, first)
-	}
+	storeFirstT(c, first)
 	waiting := AllocLocal(3 * 32) // x, y and the destination of up to four positions
 	last := AllocLocal(32)
 	wx, wy, wdst := waiting, waiting.Offset(32), waiting.Offset(64)
