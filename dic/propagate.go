@@ -183,6 +183,9 @@ func (c *correlation) run(st *starts) []subset.Result {
 	for i, s := range c.state {
 		if s == pending || c.res[i].Status == subset.Unsolved {
 			c.res[i] = subset.Result{Status: subset.Lost} // not reached from any seed
+			if c.guessLeaves(i, st) {
+				c.res[i] = subset.Result{Status: subset.OutOfImage}
+			}
 		}
 	}
 	c.flagResiduals()
@@ -234,6 +237,9 @@ func (c *correlation) seed(cands []int, st *starts) ([2]float64, bool) {
 		}
 		if m.ZNCC < t.s.MinZNCC {
 			c.res[i] = subset.Result{Status: subset.Lost, ZNCC: m.ZNCC}
+			if c.guessLeaves(i, st) {
+				c.res[i] = subset.Result{Status: subset.OutOfImage} // its material left the frame
+			}
 			continue
 		}
 		start := g
@@ -247,6 +253,24 @@ func (c *correlation) seed(cands []int, st *starts) ([2]float64, bool) {
 		c.state[i] = pending // a failed seed may still be reached by propagation
 	}
 	return [2]float64{}, false
+}
+
+// guessLeaves reports whether point i's material has most likely left
+// the frame, so that a point not found is out of image rather than lost
+// (lost points read as decorrelation in the zones stage): its first guess
+// from the frames before (st) puts its subset — the centre moved by the
+// guess's translation, ± half the subset — past an edge of the deformed
+// image, or, without a guess, the frame before reported it out of image.
+func (c *correlation) guessLeaves(i int, st *starts) bool {
+	if st == nil || !st.ok[i] {
+		prev := c.tr.prev
+		return prev != nil && i < len(prev.Points) && prev.Points[i].Status == subset.OutOfImage
+	}
+	g := st.guess[i]
+	r := float64(c.tr.s.Subset / 2)
+	x := float64(c.centres[i][0]) + g[subset.PU]
+	y := float64(c.centres[i][1]) + g[subset.PV]
+	return x-r < 0 || y-r < 0 || x+r > float64(c.image.Width-1) || y+r > float64(c.image.Height-1)
 }
 
 // solveJobs solves the queued jobs in parallel and files each result as
