@@ -91,10 +91,11 @@ func prefilterKernels() {
 	rowsKernels()
 }
 
-// lineArgs loads step (as bytes, ×8), n, m and m rounded down to four.
-func lineArgs(step string) (stepBytes, n, m, m4 Register) {
+// lineArgs loads step as bytes (shifted left by shift: 3 for float64
+// lines, 2 for float32), n, m and m rounded down to four.
+func lineArgs(step string, shift uint8) (stepBytes, n, m, m4 Register) {
 	stepBytes = Load(Param(step), GP64())
-	SHLQ(U8(3), stepBytes)
+	SHLQ(U8(shift), stepBytes)
 	n = Load(Param("n"), GP64())
 	m = Load(Param("m"), GP64())
 	m4 = GP64()
@@ -110,7 +111,7 @@ func causalKernel() {
 		"k = 1 … n−1, over the m lines whose value k is c[k·step + l],",
 		"l < m, as filterLines does, bit for bit.")
 	prev := Load(Param("c").Base(), GP64())
-	stepBytes, n, m, m4 := lineArgs("step")
+	stepBytes, n, m, m4 := lineArgs("step", 3)
 	z := broadcastZ()
 	k := GP64()
 	MOVQ(U32(1), k)
@@ -143,7 +144,7 @@ func anticausalKernel() {
 		"c[k] = z·(c[k+1] − c[k]), k = n−2 … 0, over the m lines whose value",
 		"k is c[k·step + l], l < m, as filterLines does, bit for bit.")
 	base := Load(Param("c").Base(), GP64())
-	stepBytes, n, m, m4 := lineArgs("step")
+	stepBytes, n, m, m4 := lineArgs("step", 3)
 	z := broadcastZ()
 	// next: line k+1, from line n−1 down.
 	k, next := GP64(), GP64()
@@ -182,13 +183,7 @@ func columnsInKernel() {
 		"one, as the Go loops do them, bit for bit.")
 	src := Load(Param("src").Base(), GP64())
 	prev := Load(Param("t").Base(), GP64())
-	stride := Load(Param("stride"), GP64())
-	SHLQ(U8(2), stride)
-	n := Load(Param("n"), GP64())
-	m := Load(Param("m"), GP64())
-	m4 := GP64()
-	MOVQ(m, m4)
-	ANDQ(I32(-4), m4)
+	stride, n, m, m4 := lineArgs("stride", 2)
 	tBytes := GP64()
 	MOVQ(m, tBytes)
 	SHLQ(U8(3), tBytes)
@@ -228,13 +223,7 @@ func columnsOutKernel() {
 		"copy back in one, as the Go loops do them, bit for bit.")
 	base := Load(Param("t").Base(), GP64())
 	dst := Load(Param("dst").Base(), GP64())
-	stride := Load(Param("stride"), GP64())
-	SHLQ(U8(2), stride)
-	n := Load(Param("n"), GP64())
-	m := Load(Param("m"), GP64())
-	m4 := GP64()
-	MOVQ(m, m4)
-	ANDQ(I32(-4), m4)
+	stride, n, m, m4 := lineArgs("stride", 2)
 	tBytes := GP64()
 	MOVQ(m, tBytes)
 	SHLQ(U8(3), tBytes)
