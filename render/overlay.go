@@ -93,11 +93,14 @@ type OverlayOptions struct {
 	buffers *overlayBuffers
 }
 
-// prepared returns opt with its defaults filled in and checked, as
-// Overlay applies them: the opacity (DefaultAlpha for 0, else in (0, 1]),
+// prepared returns opt with its defaults filled in and checked for photo, as
+// Overlay applies them: a photo that is not empty, the opacity (DefaultAlpha for 0, else in (0, 1]),
 // the quantity's colour map when none is set, and the lens folded into
 // the deformation the field is drawn through.
-func (opt OverlayOptions) prepared() (OverlayOptions, error) {
+func (opt OverlayOptions) prepared(photo *subset.Image) (OverlayOptions, error) {
+	if photo.Width == 0 || photo.Height == 0 {
+		return opt, fmt.Errorf("overlay of frame %s: empty photo", opt.Stamp.Frame)
+	}
 	if opt.Alpha == 0 {
 		opt.Alpha = DefaultAlpha
 	}
@@ -133,10 +136,7 @@ func (opt OverlayOptions) prepared() (OverlayOptions, error) {
 // to one gray level at every pixel (TestOverlayMatchesReferencePath).
 func Overlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.Mat, error) {
 	w, h := photo.Width, photo.Height
-	if w == 0 || h == 0 {
-		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: empty photo", opt.Stamp.Frame)
-	}
-	opt, err := opt.prepared()
+	opt, err := opt.prepared(photo)
 	if err != nil {
 		return gocv.Mat{}, err
 	}

@@ -23,10 +23,7 @@ import (
 // photo positions. The caller closes the result.
 func referenceOverlay(photo *subset.Image, values *GridValues, opt OverlayOptions) (gocv.Mat, error) {
 	w, h := photo.Width, photo.Height
-	if w == 0 || h == 0 {
-		return gocv.Mat{}, fmt.Errorf("overlay of frame %s: empty photo", opt.Stamp.Frame)
-	}
-	opt, err := opt.prepared()
+	opt, err := opt.prepared(photo)
 	if err != nil {
 		return gocv.Mat{}, err
 	}
