@@ -159,12 +159,7 @@ func anticausalKernel() {
 	MOVQ(next, cur)
 	SUBQ(stepBytes, cur)
 	lineStep("anti", m, m4, func(l lanes, i Register) {
-		a, b := l.reg(), l.reg()
-		l.load(Mem{Base: next, Index: i, Scale: 8}, a)
-		l.load(Mem{Base: cur, Index: i, Scale: 8}, b)
-		l.sub(a, b, a)
-		l.mul(a, zFor(l, z), a)
-		l.store(a, Mem{Base: cur, Index: i, Scale: 8})
+		anticausalStep(l, next, cur, i, z)
 	})
 	MOVQ(cur, next)
 	DECQ(k)
@@ -172,6 +167,18 @@ func anticausalKernel() {
 	Label("anti_end")
 	VZEROUPPER()
 	RET()
+}
+
+// anticausalStep sets the lanes at i of line cur to z·(next − cur), the
+// anticausal recursion's step, and returns the register holding them.
+func anticausalStep(l lanes, next, cur, i Register, z VecVirtual) VecVirtual {
+	a, b := l.reg(), l.reg()
+	l.load(Mem{Base: next, Index: i, Scale: 8}, a)
+	l.load(Mem{Base: cur, Index: i, Scale: 8}, b)
+	l.sub(a, b, a)
+	l.mul(a, zFor(l, z), a)
+	l.store(a, Mem{Base: cur, Index: i, Scale: 8})
+	return a
 }
 
 func columnsInKernel() {
@@ -252,12 +259,7 @@ func columnsOutKernel() {
 	MOVQ(next, cur)
 	SUBQ(tBytes, cur)
 	lineStep("colout", m, m4, func(l lanes, i Register) {
-		a, b := l.reg(), l.reg()
-		l.load(Mem{Base: next, Index: i, Scale: 8}, a)
-		l.load(Mem{Base: cur, Index: i, Scale: 8}, b)
-		l.sub(a, b, a)
-		l.mul(a, zFor(l, z), a)
-		l.store(a, Mem{Base: cur, Index: i, Scale: 8})
+		a := anticausalStep(l, next, cur, i, z)
 		storeF32(l, a, Mem{Base: out, Index: i, Scale: 4})
 	})
 	MOVQ(cur, next)
