@@ -24,20 +24,9 @@ func TestKernelTruthUniformStrainIsExact(t *testing.T) {
 	want := math.Hypot(ux-vy, uy+vx)
 	g := dic.Grid{X0: 4, Y0: 4, Step: 8, Cols: 20, Rows: 18}
 	field := func(scale float64) *dic.Field {
-		f := &dic.Field{Grid: g, Points: make([]dic.Point, g.Len())}
-		for i := range f.Points {
-			x, y := g.Pos(i)
-			p := &f.Points[i]
-			p.X, p.Y = x, y
-			if math.Hypot(float64(x)-80, float64(y)-70) < 30 { // an opening: one-sided windows around it
-				p.Status = subset.Masked
-				continue
-			}
-			p.Status, p.ZNCC = subset.Converged, 1
-			p.P[subset.PU] = scale * (ux*float64(x) + uy*float64(y) + 0.3)
-			p.P[subset.PV] = scale * (vx*float64(x) + vy*float64(y) - 0.2)
-		}
-		return f
+		return fieldAroundOpening(g, 0, 80, 70, 30, func(x, y float64) (u, v float64) {
+			return scale * (ux*x + uy*y + 0.3), scale * (vx*x + vy*y - 0.2)
+		})
 	}
 	for _, order := range []int{1, 2} {
 		kt, err := strain.Window{Size: 7, Order: order}.KernelTruth([]*dic.Field{nil, field(0.5), field(1)}, strain.MaxShear)
@@ -254,21 +243,12 @@ func TestNoiseScaleIsTheGainOnIndependentNoise(t *testing.T) {
 	g := dic.Grid{X0: 4, Y0: 4, Step: 8, Cols: 40, Rows: 40}
 	rng := rand.New(rand.NewPCG(15, 1))
 	field := func(index int, noise bool) *dic.Field {
-		f := &dic.Field{Index: index, Grid: g, Points: make([]dic.Point, g.Len())}
-		for i := range f.Points {
-			x, y := g.Pos(i)
-			p := &f.Points[i]
-			p.X, p.Y = x, y
-			if math.Hypot(float64(x)-150, float64(y)-170) < 40 { // an opening: one-sided windows around it
-				p.Status = subset.Masked
-				continue
+		return fieldAroundOpening(g, index, 150, 170, 40, func(x, y float64) (u, v float64) {
+			if !noise {
+				return 0, 0
 			}
-			p.Status, p.ZNCC = subset.Converged, 1
-			if noise {
-				p.P[subset.PU], p.P[subset.PV] = sigma*rng.NormFloat64(), sigma*rng.NormFloat64()
-			}
-		}
-		return f
+			return sigma * rng.NormFloat64(), sigma * rng.NormFloat64()
+		})
 	}
 	win := strain.Window{Size: 7, Measure: strain.Engineering}
 	ref := field(0, false)
@@ -335,4 +315,24 @@ func TestNoiseScaleIsTheGainOnIndependentNoise(t *testing.T) {
 		t.Errorf("mean measured scale / gain over %d one-sided windows %.4f, want c = %.4f within 0.01", walls, mean, c)
 	}
 	t.Logf("%d points (%d full windows), %d with gain ≥ 1.3 (largest %.2f); se %.4f, c %.4f; mean scale/gain over the one-sided %.4f, worst point %.3f off", len(gains), full, walls, gains[len(gains)-1], se, c, mean, worst)
+}
+
+// fieldAroundOpening is frame index's displacement field on grid g, every
+// point converged with displacement disp(x, y) but those inside a
+// circular opening of radius r at (cx, cy), masked, so that the strain
+// window is one-sided around it.
+func fieldAroundOpening(g dic.Grid, index int, cx, cy, r float64, disp func(x, y float64) (u, v float64)) *dic.Field {
+	f := &dic.Field{Index: index, Grid: g, Points: make([]dic.Point, g.Len())}
+	for i := range f.Points {
+		x, y := g.Pos(i)
+		p := &f.Points[i]
+		p.X, p.Y = x, y
+		if math.Hypot(float64(x)-cx, float64(y)-cy) < r {
+			p.Status = subset.Masked
+			continue
+		}
+		p.Status, p.ZNCC = subset.Converged, 1
+		p.P[subset.PU], p.P[subset.PV] = disp(float64(x), float64(y))
+	}
+	return f
 }
