@@ -96,6 +96,11 @@ func (v *videoSequence) Decode(i int) (*Decoded, error) {
 	if err := v.advance(i); err != nil {
 		return nil, err
 	}
-	return &Decoded{m: v.mat.Clone(), index: i, source: v.Source(i), size: &v.size,
-		what: fmt.Sprintf("frame %d (%s)", i, v.Source(i))}, nil
+	return v.decoded(i, v.mat.Clone()), nil
+}
+
+// decoded is frame i of the video held in m, which the Decoded owns only
+// when its caller closes it (ReadInto keeps the sequence's own).
+func (v *videoSequence) decoded(i int, m gocv.Mat) *Decoded {
+	return &Decoded{m: m, index: i, source: v.Source(i), size: &v.size, what: fmt.Sprintf("frame %d (%s)", i, v.Source(i))}
 }

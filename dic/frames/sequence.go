@@ -165,17 +165,12 @@ func (s *fileSequence) ExpectSize(w, h int)               { s.size.set(w, h) }
 func (s *fileSequence) Close() error                      { return nil }
 func (s *fileSequence) Read(i int) (*subset.Image, error) { return s.ReadInto(i, nil) }
 func (s *fileSequence) ReadInto(i int, dst *subset.Image) (*subset.Image, error) {
-	if i < 0 || i >= len(s.paths) {
-		return nil, fmt.Errorf("frame %d: out of range (sequence has %d frames)", i, len(s.paths))
-	}
-	img, err := ReadImageInto(s.paths[i], dst)
+	d, err := s.Decode(i)
 	if err != nil {
-		return nil, fmt.Errorf("frame %d: %w", i, err)
-	}
-	if err := s.size.check(img, i, s.paths[i]); err != nil {
 		return nil, err
 	}
-	return img, nil
+	defer d.Close()
+	return d.Into(dst)
 }
 
 // frameSize holds the size every frame of a sequence must have.

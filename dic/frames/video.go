@@ -96,14 +96,7 @@ func (v *videoSequence) ReadInto(i int, dst *subset.Image) (*subset.Image, error
 	if err := v.advance(i); err != nil {
 		return nil, err
 	}
-	img, err := FromMatInto(v.mat, dst)
-	if err != nil {
-		return nil, fmt.Errorf("frame %d (%s): %w", i, v.Source(i), err)
-	}
-	if err := v.size.check(img, i, v.Source(i)); err != nil {
-		return nil, err
-	}
-	return img, nil
+	return v.decoded(i, v.mat).Into(dst) // v.mat stays the sequence's: not closed
 }
 
 // advance decodes the video up to frame i, which is then in v.mat.
