@@ -159,6 +159,18 @@ func (f *Finder) Dating(onsets []Onset) *Dating {
 	return d
 }
 
+// NeedsDisplacement reports whether Add reads the frames' displacement
+// fields (Frame.Disp): only a decorrelation onset's cells come from them;
+// without one, a caller may leave Disp nil and skip reading the fields.
+func (d *Dating) NeedsDisplacement() bool {
+	for _, o := range d.onsets {
+		if o.Indicator == Decorrelation {
+			return true
+		}
+	}
+	return false
+}
+
 // Add reads one frame's values of every onset's cells and of the ring
 // around them; frames come in the order they were given to the finder.
 func (d *Dating) Add(fr Frame) {

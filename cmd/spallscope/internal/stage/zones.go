@@ -125,19 +125,25 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	// zones' cells in every frame to back-date their onsets. Each pass
 	// parses the next frames' files on all cores while one frame is used
 	// (runfolder.ReadInOrder), in frame order.
-	frameAt := func(k int) (strain.Frame, error) {
-		name := names[k]
-		sf, err := readStrain(name)
-		if err != nil {
-			return strain.Frame{}, err
+	// The second pass reads the displacement fields only when a
+	// decorrelation onset needs them (Dating.NeedsDisplacement).
+	frameAt := func(disp bool) func(k int) (strain.Frame, error) {
+		return func(k int) (strain.Frame, error) {
+			name := names[k]
+			sf, err := readStrain(name)
+			if err != nil {
+				return strain.Frame{}, err
+			}
+			fr := strain.Frame{Index: k, Name: name, Time: frames[k].Time, Stress: frames[k].Stress, InSpan: frames[k].InSpan, Strain: sf}
+			if disp {
+				if fr.Disp, err = runfolder.ReadField(runfolder.FieldPath(dir, name)); err != nil {
+					return strain.Frame{}, err
+				}
+			}
+			return fr, nil
 		}
-		df, err := runfolder.ReadField(runfolder.FieldPath(dir, name))
-		if err != nil {
-			return strain.Frame{}, err
-		}
-		return strain.Frame{Index: k, Name: name, Time: frames[k].Time, Stress: frames[k].Stress, InSpan: frames[k].InSpan, Strain: sf, Disp: df}, nil
 	}
-	err = runfolder.ReadInOrder(len(names), frameAt, func(_ int, fr strain.Frame) error {
+	err = runfolder.ReadInOrder(len(names), frameAt(true), func(_ int, fr strain.Frame) error {
 		_, err := finder.Add(fr)
 		return err
 	})
@@ -148,7 +154,7 @@ func Zones(dir string, st ZoneStage, frames []FrameState, tool string) (*strainf
 	onsets := finder.Onsets(peak.Stress)
 	if len(onsets) > 0 {
 		dating := finder.Dating(onsets)
-		err := runfolder.ReadInOrder(len(names), frameAt, func(_ int, fr strain.Frame) error {
+		err := runfolder.ReadInOrder(len(names), frameAt(dating.NeedsDisplacement()), func(_ int, fr strain.Frame) error {
 			dating.Add(fr)
 			return nil
 		})
