@@ -182,10 +182,7 @@ func (c *correlation) run(st *starts) []subset.Result {
 	}
 	for i, s := range c.state {
 		if s == pending || c.res[i].Status == subset.Unsolved {
-			c.res[i] = subset.Result{Status: subset.Lost} // not reached from any seed
-			if c.guessLeaves(i, st) {
-				c.res[i] = subset.Result{Status: subset.OutOfImage}
-			}
+			c.res[i] = c.notFound(i, st, 0) // not reached from any seed
 		}
 	}
 	c.flagResiduals()
@@ -236,10 +233,7 @@ func (c *correlation) seed(cands []int, st *starts) ([2]float64, bool) {
 			continue
 		}
 		if m.ZNCC < t.s.MinZNCC {
-			c.res[i] = subset.Result{Status: subset.Lost, ZNCC: m.ZNCC}
-			if c.guessLeaves(i, st) {
-				c.res[i] = subset.Result{Status: subset.OutOfImage} // its material left the frame
-			}
+			c.res[i] = c.notFound(i, st, m.ZNCC)
 			continue
 		}
 		start := g
@@ -255,12 +249,22 @@ func (c *correlation) seed(cands []int, st *starts) ([2]float64, bool) {
 	return [2]float64{}, false
 }
 
+// notFound is the result of point i when it was not found (zncc: its best
+// match's, 0 for none): out of image when its material has most likely
+// left the frame (guessLeaves), else lost. Lost points read as
+// decorrelation in the zones stage; material outside the photo is not.
+func (c *correlation) notFound(i int, st *starts, zncc float64) subset.Result {
+	if c.guessLeaves(i, st) {
+		return subset.Result{Status: subset.OutOfImage}
+	}
+	return subset.Result{Status: subset.Lost, ZNCC: zncc}
+}
+
 // guessLeaves reports whether point i's material has most likely left
-// the frame, so that a point not found is out of image rather than lost
-// (lost points read as decorrelation in the zones stage): its first guess
-// from the frames before (st) puts its subset — the centre moved by the
-// guess's translation, ± half the subset — past an edge of the deformed
-// image, or, without a guess, the frame before reported it out of image.
+// the frame: its first guess from the frames before (st) puts its subset
+// — the centre moved by the guess's translation, ± half the subset — past
+// an edge of the deformed image, or, without a guess, the frame before
+// reported it out of image.
 func (c *correlation) guessLeaves(i int, st *starts) bool {
 	if st == nil || !st.ok[i] {
 		prev := c.tr.prev
