@@ -302,32 +302,36 @@ func seedCases() []seedCase {
 //
 // What the issue aims for and what is achieved (measured, 20 seeds): the
 // onset within 1 frame in at least 90 % (18 of 20) of the seeds holds in
-// 7 of the 12 rows (band 18/19/16, crack 20/17/16, notch 20/19/16, pillar
-// band 20/19/17 at σ 0.5/1/2), more than 1 frame early in at most 10 % in
-// 11 of 12 (the crack at σ 2: 3 of 20), the truth inside the interval in
-// at least 18 of 20 in 11 of 12 (the crack at σ 2: 17 of 20). So
-// minWithin1, maxEarly and minCovered hold what is achieved (75 %, 15 %,
-// 17 of 20), not the aim; the log gives the counts, and the mean lag
-// behind the detectable frame (signed: negative early) and its mean size
-// (measured: +0.70/−0.10/+0.45 and 0.70/0.50/1.15 frames for the band,
-// −0.25/−0.15/−0.40 and 0.55/0.95/1.00 for the crack, +0.30/+0.40/+0.25
-// and 0.40/0.70/0.85 for the notch, +0.15/−0.15/+0.30 and 0.25/0.55/0.90
-// for the pillar band). The running median of three before the CUSUM
-// (see strain's detectable) moved one seed of the notch at σ 2 to within
-// 1 frame and no row the other way; bagging the estimate over the
-// bootstrap's draws (Breiman 1996), a local quadratic smoothing of the
-// excess (Savitzky and Golay 1964) and each cell held to its own raised
-// bar were measured and left out: 208, 216 and 214 seeds within 1 frame
-// of the 240 against 217, each with a row below the bounds held here.
-// Every case is in its sector in all 20 seeds at
-// every noise (held: 90 %). The pillar band had been in 20, 19 and 17:
+// 7 of the 12 rows (band 19/19/16, crack 20/17/16, notch 20/19/16, pillar
+// band 20/20/17 at σ 0.5/1/2; at least 16 in every row), more than 1
+// frame early in at most 10 % in 11 of 12 (the crack at σ 2: 3 of 20), the
+// truth inside the interval in at least 18 of 20 in all 12. So minWithin1,
+// maxEarly and minCovered hold what is achieved (80 %, 15 %, 18 of 20),
+// not the aim; the log gives the counts, and the mean lag behind the
+// detectable frame (signed: negative early) and its mean size (measured:
+// +0.65/−0.10/+0.40 and 0.65/0.50/1.10 frames for the band,
+// −0.25/−0.25/−0.45 and 0.55/0.85/0.95 for the crack, +0.30/+0.40/+0.25
+// and 0.40/0.70/0.85 for the notch, +0.15/−0.20/+0.15 and 0.25/0.50/0.75
+// for the pillar band). Two steps of strain's detectable made these from
+// 216 seeds within 1 frame of the 240 (band 18/19/16, crack 20/17/16,
+// notch 20/19/15, pillar band 20/19/17; the crack at σ 2 covered in 17):
+// the running median of three before the CUSUM (217: the notch at σ 2
+// 16) and the CUSUM run from the end of calibration rather than from the
+// zone's change point (219: the band at σ 0.5 and the pillar band at σ 1
+// one more each, the crack at σ 2 covered in 18); no row lost a seed.
+// Bagging the estimate over the bootstrap's draws (Breiman 1996), a local
+// quadratic smoothing of the excess (Savitzky and Golay 1964) and each
+// cell held to its own raised bar were measured, each in place of the
+// first step, and left out: 208, 216 and 214 seeds within 1 frame, each
+// with a row below the bounds held here. Every case is in its sector in
+// all 20 seeds at every noise (held: 90 %). The pillar band had been in 20, 19 and 17:
 // its first lobe runs along the pillar's lower edge, on the grid row
 // 28.5 px below the line of centres where the edge is at 28 px, and the
 // row above the upper edge lies at 27.5 px, so a zone there was named the
 // left opening's invert by half a pixel; grid points and zones now take
 // the pillar half a step beyond its tangents (sector.Layout.LocateCell).
 func TestSeedOnsets(t *testing.T) {
-	const seeds, minWithin1, maxEarly, minCovered = 20, 75, 15, 17
+	const seeds, minWithin1, maxEarly, minCovered = 20, 80, 15, 18
 	vsg := strain.Window{Size: 7}.VSG(seedStep, seedSubset)
 	for _, c := range seedCases() {
 		t.Run(c.name, func(t *testing.T) {

@@ -85,7 +85,7 @@ func TestDetectableIgnoresOneNoisyFrame(t *testing.T) {
 		y    []float64
 		want int
 	}{{"ramp", ramp(), 8}, {"spike at 6", spike, 7}, {"dip at 9", dip, 9}} {
-		if got := detectable(c, s.y, nil, limit, trigger); got != s.want {
+		if got := detectable(c, s.y, nil, limit, 0, trigger); got != s.want {
 			t.Errorf("%s: onset %d, want %d", s.name, got, s.want)
 		}
 	}
