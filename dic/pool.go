@@ -57,6 +57,7 @@ func (j job) maskFor(mask []uint8) []uint8 {
 // results are the same whatever the number of workers.
 type pool struct {
 	solvers []*subset.Solver
+	crew    *crew // the workers kept awake between begin and end (nil: none)
 }
 
 func newPool(cfg subset.Config, workers int) *pool {
@@ -90,30 +91,51 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 		}
 		return
 	}
+	// Each worker claims its next job before solving the one in hand, and
+	// asks for that job's coefficients meanwhile.
+	work := func(worker int, next *atomic.Int64) {
+		s := p.solvers[worker]
+		k := int(next.Add(1) - 1)
+		if k < len(jobs) {
+			jobs[k].prefetch(s, ref, def)
+		}
+		for k < len(jobs) {
+			n := int(next.Add(1) - 1)
+			if n < len(jobs) {
+				jobs[n].prefetch(s, ref, def)
+			}
+			j := jobs[k]
+			out[j.I] = j.solveWith(s, ref, def, mask, prepared)
+			k = n
+		}
+	}
+	if p.crew != nil {
+		p.crew.run(work)
+		return
+	}
 	var next atomic.Int64
 	var wg sync.WaitGroup
-	for _, s := range p.solvers {
-		wg.Add(1)
-		go func(s *subset.Solver) {
-			defer wg.Done()
-			// Each worker claims its next job before solving the one in
-			// hand, and asks for that job's coefficients meanwhile.
-			k := int(next.Add(1) - 1)
-			if k < len(jobs) {
-				jobs[k].prefetch(s, ref, def)
-			}
-			for k < len(jobs) {
-				n := int(next.Add(1) - 1)
-				if n < len(jobs) {
-					jobs[n].prefetch(s, ref, def)
-				}
-				j := jobs[k]
-				out[j.I] = j.solveWith(s, ref, def, mask, prepared)
-				k = n
-			}
-		}(s)
+	for w := 1; w < len(p.solvers); w++ {
+		wg.Go(func() { work(w, &next) })
 	}
+	work(0, &next)
 	wg.Wait()
+}
+
+// begin keeps the pool's workers awake until end, for a run of many
+// batches (see crew); a pool of one worker has no crew.
+func (p *pool) begin() {
+	if len(p.solvers) > 1 && p.crew == nil {
+		p.crew = startCrew(len(p.solvers) - 1)
+	}
+}
+
+// end lets the workers kept awake by begin go.
+func (p *pool) end() {
+	if p.crew != nil {
+		p.crew.stop()
+		p.crew = nil
+	}
 }
 
 // preparedAt returns &prepared[i], or nil without a prepared set.

@@ -2,6 +2,9 @@ package dic
 
 import (
 	"math"
+	"runtime"
+	"sync"
+	"unsafe"
 
 	"spallscope/dic/region"
 	"spallscope/subset"
@@ -48,16 +51,79 @@ func countNonFinite(pix []float32) int {
 	return n
 }
 
+// anyNonFinite reports whether any value is NaN or ±Inf, the question
+// every frame asks of its pixels and almost always answers no; only then
+// does countNonFinite need to count. It reads the values two at a time as
+// 64-bit words with countNonFinite's carry test in both halves at once (a
+// half's masked exponent plus 0x00800000 is at most 0x80000000, so no
+// carry crosses into the other half, whichever half holds which value)
+// and ORs the words' results: three operations per two pixels instead of
+// a count's four per pixel. A large image is scanned in parts on every
+// core (at 20 MP the scan sits on the tracker's path between two frames).
+func anyNonFinite(pix []float32) bool {
+	const parallelFrom = 1 << 20 // values; below, a part costs less than starting a goroutine
+	parts := runtime.GOMAXPROCS(0)
+	if len(pix) < parallelFrom || parts == 1 {
+		return anyNonFiniteIn(pix)
+	}
+	var found bool
+	var mu sync.Mutex
+	var wg sync.WaitGroup
+	per := (len(pix) + parts - 1) / parts
+	for lo := 0; lo < len(pix); lo += per {
+		part := pix[lo:min(lo+per, len(pix))]
+		wg.Go(func() {
+			if anyNonFiniteIn(part) {
+				mu.Lock()
+				found = true
+				mu.Unlock()
+			}
+		})
+	}
+	wg.Wait()
+	return found
+}
+
+// anyNonFiniteIn is anyNonFinite on one core.
+func anyNonFiniteIn(pix []float32) bool {
+	const exp, one = 0x7f800000_7f800000, 0x00800000_00800000
+	const signs = 0x80000000_80000000
+	var head uint32
+	// A value before the first 8-byte boundary is tested alone, so that
+	// the words read are aligned.
+	if len(pix) > 0 && uintptr(unsafe.Pointer(&pix[0]))%8 != 0 {
+		head = math.Float32bits(pix[0])&0x7f800000 + 0x00800000
+		pix = pix[1:]
+	}
+	words := unsafe.Slice((*uint64)(unsafe.Pointer(unsafe.SliceData(pix))), len(pix)/2)
+	var a0, a1, a2, a3 uint64
+	i := 0
+	for ; i+4 <= len(words); i += 4 {
+		w := words[i : i+4 : i+4]
+		a0 |= w[0]&exp + one
+		a1 |= w[1]&exp + one
+		a2 |= w[2]&exp + one
+		a3 |= w[3]&exp + one
+	}
+	for _, w := range words[i:] {
+		a0 |= w&exp + one
+	}
+	if len(pix)%2 == 1 {
+		head |= math.Float32bits(pix[len(pix)-1])&0x7f800000 + 0x00800000
+	}
+	return (a0|a1|a2|a3)&signs != 0 || head&0x80000000 != 0
+}
+
 // fillUnmeasured returns img with each non-finite pixel replaced by the
 // mean of its already filled or finite 8-neighbours nearer the measured
 // pixels, working outwards layer by layer: the fill joins its surroundings
 // without a step, so the spline rings little at the rim. It returns img
 // itself and nil when every pixel is finite, and a zero image when none is.
 func fillUnmeasured(img *subset.Image) (*subset.Image, *unmeasured) {
-	n := countNonFinite(img.Pix)
-	if n == 0 {
+	if !anyNonFinite(img.Pix) {
 		return img, nil
 	}
+	n := countNonFinite(img.Pix)
 	w, h := img.Width, img.Height
 	u := &unmeasured{count: n, mask: &region.Mask{Width: w, Height: h, Pix: make([]uint8, w*h)}}
 	out := &subset.Image{Width: w, Height: h, Depth: img.Depth, Pix: make([]float32, len(img.Pix))}

@@ -3,7 +3,6 @@ package render
 import (
 	"fmt"
 	"image/color"
-	"path/filepath"
 
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg/draw"
@@ -137,6 +136,3 @@ func timelineBand(m TimelineMark, curve plotter.XYs, pad float64, c color.RGBA) 
 	}
 	return intervalBox(m.TimeLo, m.TimeHi, m.StressLo, m.StressHi, curve, pad, c), true
 }
-
-// TimelinePNG is the timeline figure's path in a run folder.
-func TimelinePNG(dir string) string { return filepath.Join(dir, "plots", "timeline.png") }

@@ -42,7 +42,6 @@ type VideoWriter struct {
 	format        string
 	width, height int // frame size given
 	padW, padH    int // encoded size (even)
-	frames        int
 	// Note says why the format differs from the one asked for (empty when
 	// it does not).
 	Note string
@@ -100,12 +99,6 @@ func (v *VideoWriter) Path() string { return v.path }
 // Format is the format written (VideoMP4 or VideoAVI).
 func (v *VideoWriter) Format() string { return v.format }
 
-// Frames is the number of frames written.
-func (v *VideoWriter) Frames() int { return v.frames }
-
-// Size is the encoded frame size.
-func (v *VideoWriter) Size() (width, height int) { return v.padW, v.padH }
-
 // Write appends frame (BGR, the size given at creation); name names it in
 // errors.
 func (v *VideoWriter) Write(frame gocv.Mat, name string) error {
@@ -122,7 +115,6 @@ func (v *VideoWriter) Write(frame gocv.Mat, name string) error {
 	if err := v.w.Write(out); err != nil {
 		return fmt.Errorf("video %s: frame %s: %w", v.path, name, err)
 	}
-	v.frames++
 	return nil
 }
 

@@ -54,12 +54,6 @@ func (l *Log) Series(clock loadlog.Clock, g GapRule) (*Series, error) {
 	return s, nil
 }
 
-// Log returns the hit list the series was made from.
-func (s *Series) Log() *Log { return s.log }
-
-// Clock returns the clock that relates the AE times to camera times.
-func (s *Series) Clock() loadlog.Clock { return s.clock }
-
 // Len returns the number of hits.
 func (s *Series) Len() int { return len(s.times) }
 

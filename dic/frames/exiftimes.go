@@ -123,15 +123,3 @@ func listOf(names []string) string {
 	return fmt.Sprintf("%s and %d more", strings.Join(names[:5], ", "), len(names)-5)
 }
 
-// Intervals returns the differences between consecutive times (nil for
-// fewer than two).
-func Intervals(times []float64) []float64 {
-	if len(times) < 2 {
-		return nil
-	}
-	out := make([]float64, len(times)-1)
-	for i := range out {
-		out[i] = times[i+1] - times[i]
-	}
-	return out
-}

@@ -72,12 +72,10 @@ func decodeImage(path string) (gocv.Mat, error) {
 	return m, nil
 }
 
-// FromMat converts an OpenCV image (1, 3 or 4 channels; 8-bit, 16-bit or
-// 32-bit float) into a gray float32 image. It does not take ownership of m.
-func FromMat(m gocv.Mat) (*subset.Image, error) { return FromMatInto(m, nil) }
-
-// FromMatInto is FromMat into dst's storage when dst (nil: none) has m's
-// size, else into a new image; it returns the image. The levels are
+// FromMatInto converts an OpenCV image (1, 3 or 4 channels; 8-bit, 16-bit
+// or 32-bit float) into a gray float32 image, in dst's storage when dst
+// (nil: none) has m's size, else in a new image; it returns the image and
+// does not take ownership of m. The levels are
 // widened in Go, straight from the decoded 8- or 16-bit pixels, so no
 // float32 copy of the frame is made on OpenCV's side (80 MB of C memory
 // at 20 MP); they equal OpenCV's own conversion (convertTo CV_32F), which
