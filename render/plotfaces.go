@@ -119,7 +119,7 @@ func WriteTimeline(dir string, times, stress []float64, marks []TimelineMark, ae
 		p.Legend.Add("trigger (threshold confirmed)", legend)
 	}
 	caption := "Nominal stress on the load log's clock with every face's onsets (each face's camera clock shifted by its own offset): filled glyphs the back-dated onsets, shaded boxes their 95 % intervals (times across, stress up and down), crossed circles the triggers; and, when recorded, the cumulative acoustic emission scaled to the peak stress."
-	return writeFigure(dir, "timeline", "All faces on the load log's clock", caption, p.Draw)
+	return writeFigure(dir, "timeline", "All faces on the load log's clock", caption, withSideLegend(p))
 }
 
 // timelineInks are the faces' colours on the timeline, in face order.
