@@ -122,4 +122,3 @@ func listOf(names []string) string {
 	}
 	return fmt.Sprintf("%s and %d more", strings.Join(names[:5], ", "), len(names)-5)
 }
-
