@@ -84,22 +84,26 @@ func (c *crew) serve(m *member, worker int) {
 			return
 		}
 		if spins%64 == 63 && time.Since(idleSince) > spinFor {
-			m.parked.Store(true)
-			// Looked at again after parked is set: a batch posted in
-			// between either sees parked and wakes this member, or was
-			// posted before and is seen here.
-			if b := c.batch.Load(); (b != last && b != nil) || c.quit.Load() {
-				if !m.parked.CompareAndSwap(true, false) {
-					<-m.wake // the poster saw parked and sent
-				}
-				continue
-			}
-			<-m.wake
+			c.park(m, last)
 			idleSince, spins = time.Now(), 0
 			continue
 		}
 		runtime.Gosched()
 	}
+}
+
+// park blocks member m until a batch after last is posted or the crew
+// stops. parked is set before the batch is looked at once more: a batch
+// posted in between either sees parked and wakes m, or was posted before
+// and is seen here.
+func (c *crew) park(m *member, last *batch) {
+	m.parked.Store(true)
+	if b := c.batch.Load(); (b != last && b != nil) || c.quit.Load() {
+		if m.parked.CompareAndSwap(true, false) {
+			return // no poster saw parked
+		}
+	}
+	<-m.wake
 }
 
 // run posts work for the crew, runs it on the calling goroutine too, and

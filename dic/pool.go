@@ -2,7 +2,6 @@ package dic
 
 import (
 	"runtime"
-	"sync"
 	"sync/atomic"
 
 	"spallscope/subset"
@@ -74,23 +73,10 @@ func newPool(cfg subset.Config, workers int) *pool {
 // solve runs every job against (ref, def) and stores job k's result in
 // out[jobs[k].I]. prepared, when not nil, holds point i's reference side
 // in prepared[i] (filled on first use; see subset.Prepared); no two jobs
-// may be for the same point.
+// may be for the same point. Between begin and end the pool's crew shares
+// the jobs; otherwise, and for fewer than 8 jobs, the caller solves them
+// alone.
 func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []subset.Result, prepared []subset.Prepared) {
-
-	if len(jobs) == 0 {
-		return
-	}
-	if len(jobs) < 8 || len(p.solvers) == 1 {
-		s := p.solvers[0]
-		jobs[0].prefetch(s, ref, def)
-		for k, j := range jobs {
-			if k+1 < len(jobs) {
-				jobs[k+1].prefetch(s, ref, def)
-			}
-			out[j.I] = j.solveWith(s, ref, def, mask, prepared)
-		}
-		return
-	}
 	// Each worker claims its next job before solving the one in hand, and
 	// asks for that job's coefficients meanwhile.
 	work := func(worker int, next *atomic.Int64) {
@@ -109,17 +95,12 @@ func (p *pool) solve(ref, def *subset.Spline, mask []uint8, jobs []job, out []su
 			k = n
 		}
 	}
-	if p.crew != nil {
-		p.crew.run(work)
+	if len(jobs) < 8 || p.crew == nil {
+		var next atomic.Int64
+		work(0, &next)
 		return
 	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for w := 1; w < len(p.solvers); w++ {
-		wg.Go(func() { work(w, &next) })
-	}
-	work(0, &next)
-	wg.Wait()
+	p.crew.run(work)
 }
 
 // begin keeps the pool's workers awake until end, for a run of many

@@ -4,6 +4,7 @@ import (
 	"math"
 	"runtime"
 	"sync"
+	"sync/atomic"
 	"unsafe"
 
 	"spallscope/dic/region"
@@ -66,22 +67,19 @@ func anyNonFinite(pix []float32) bool {
 	if len(pix) < parallelFrom || parts == 1 {
 		return anyNonFiniteIn(pix)
 	}
-	var found bool
-	var mu sync.Mutex
+	var found atomic.Bool
 	var wg sync.WaitGroup
 	per := (len(pix) + parts - 1) / parts
 	for lo := 0; lo < len(pix); lo += per {
 		part := pix[lo:min(lo+per, len(pix))]
 		wg.Go(func() {
 			if anyNonFiniteIn(part) {
-				mu.Lock()
-				found = true
-				mu.Unlock()
+				found.Store(true)
 			}
 		})
 	}
 	wg.Wait()
-	return found
+	return found.Load()
 }
 
 // anyNonFiniteIn is anyNonFinite on one core.
