@@ -16,10 +16,13 @@ build: deps
 vet: deps
 	$(GO) vet ./...
 
+# gofmt first: an unformatted file fails the run, as review would.
 # The second run takes the pure-Go kernels of package subset (build tag
 # purego) in place of its AVX2+FMA assembly, so that CI tests both paths;
 # asm-check holds the checked-in assembly to what its generator writes.
 test: deps
+	@unformatted=$$(gofmt -l cmd dic render strain subset); \
+	if [ -n "$$unformatted" ]; then echo "gofmt: these files are not formatted:"; echo "$$unformatted"; exit 1; fi
 	./scripts/asm-check.sh
 	$(GO) vet ./...
 	$(GO) vet -tags purego ./subset/...
